@@ -1,0 +1,121 @@
+"""The rule catalogue: loads ``rules/*.yaml`` into RuleMeta objects."""
+
+from __future__ import annotations
+
+from collections.abc import Iterable, Mapping
+from dataclasses import dataclass, field
+from functools import lru_cache
+from typing import Any
+
+import yaml
+
+from netcheck.findings import Severity, placeholders
+from netcheck.resources import data_path
+
+__all__ = ["RuleMeta", "Margin", "load_catalogue", "verify_catalogue"]
+
+
+@dataclass(frozen=True)
+class Margin:
+    """A configurable margin of a rule, with the source of its default."""
+
+    name: str
+    default: float
+    source: str
+    description: str = ""
+
+
+@dataclass(frozen=True)
+class RuleMeta:
+    """Everything the YAML says about one rule."""
+
+    name: str
+    severity: Severity
+    family: str
+    title: str
+    rationale: str
+    references: tuple[str, ...]
+    messages: Mapping[str, str]
+    fixes: Mapping[str, str]
+    margins: Mapping[str, Margin] = field(default_factory=dict)
+    aliases: tuple[str, ...] = ()
+
+    def message(self, variant: str = "default") -> str:
+        """The message template of ``variant``."""
+        return self.messages[variant]
+
+    def fix(self, variant: str = "default") -> str | None:
+        """The fix template of ``variant`` (None where the rule has no fix)."""
+        return self.fixes.get(variant)
+
+    def placeholders(self) -> set[str]:
+        """All placeholders used by any template of the rule."""
+        names: set[str] = set()
+        for template in [*self.messages.values(), *self.fixes.values()]:
+            names |= placeholders(template)
+        return names
+
+
+def _variants(value: Any) -> dict[str, str]:
+    if value is None:
+        return {}
+    if isinstance(value, str):
+        return {"default": value.strip()}
+    return {str(k): str(v).strip() for k, v in value.items()}
+
+
+def _rule(entry: Mapping[str, Any], family: str) -> RuleMeta:
+    margins = {
+        name: Margin(name, float(m["default"]), str(m["source"]), str(m.get("about", "")))
+        for name, m in (entry.get("margins") or {}).items()
+    }
+    return RuleMeta(
+        name=entry["name"],
+        severity=Severity.parse(entry["severity"]),
+        family=family,
+        title=entry["title"].strip(),
+        rationale=" ".join(entry["rationale"].split()),
+        references=tuple(entry.get("references") or ()),
+        messages=_variants(entry["message"]),
+        fixes=_variants(entry.get("fix")),
+        margins=margins,
+        aliases=tuple(entry.get("aliases") or ()),
+    )
+
+
+@lru_cache(maxsize=1)
+def load_catalogue() -> dict[str, RuleMeta]:
+    """Load every rule of ``rules/*.yaml``, keyed by name (aliases too)."""
+    rules: dict[str, RuleMeta] = {}
+    for path in sorted(data_path("rules").glob("*.yaml")):
+        document = yaml.safe_load(path.read_text(encoding="utf-8"))
+        for entry in document["rules"]:
+            meta = _rule(entry, document.get("family", path.stem))
+            if meta.name in rules:
+                raise ValueError(f"{path}: rule {meta.name} defined twice")
+            rules[meta.name] = meta
+    for meta in list(rules.values()):
+        for alias in meta.aliases:
+            rules.setdefault(alias, meta)
+    return rules
+
+
+def verify_catalogue(catalogue: Mapping[str, RuleMeta], checks: Iterable[str]) -> None:
+    """Fail if a YAML rule has no check or a check has no YAML rule."""
+    names = {meta.name for meta in catalogue.values()}
+    registered = set(checks)
+    missing = sorted(names - registered - {"unused-waiver"})
+    extra = sorted(registered - names)
+    if missing or extra:
+        raise RuntimeError(
+            f"rule catalogue and checks disagree: no check for {missing}, "
+            f"no YAML for {extra}"
+        )
+
+
+def all_margins(catalogue: Mapping[str, RuleMeta]) -> dict[str, Margin]:
+    """Every margin of every rule, keyed by margin name."""
+    margins: dict[str, Margin] = {}
+    for meta in catalogue.values():
+        margins.update(meta.margins)
+    return margins

@@ -1,0 +1,106 @@
+"""Findings: what a check reports, with its values, fix and stable fingerprint."""
+
+from __future__ import annotations
+
+import enum
+import hashlib
+import string
+from collections.abc import Mapping
+from dataclasses import dataclass, field
+from typing import Any
+
+import pint
+
+from netcheck.source import Span
+from netcheck.units import format_quantity
+
+__all__ = ["Severity", "Finding", "fill_template", "fingerprint", "quantity_dict"]
+
+
+class Severity(enum.IntEnum):
+    """Finding severities, ordered so that a larger value is more severe."""
+
+    INFO = 1
+    WARNING = 2
+    ERROR = 3
+
+    @property
+    def label(self) -> str:
+        """The lower-case name used in output and configuration."""
+        return self.name.lower()
+
+    @classmethod
+    def parse(cls, text: str) -> Severity:
+        """Parse ``error``/``warning``/``info``."""
+        return cls[text.upper()]
+
+
+def _text(value: Any) -> str:
+    if isinstance(value, pint.Quantity):
+        return format_quantity(value)
+    if isinstance(value, float):
+        return f"{value:.4g}"
+    if isinstance(value, (list, tuple, frozenset, set)):
+        return ", ".join(str(v) for v in value)
+    return str(value)
+
+
+def fill_template(template: str, values: Mapping[str, Any]) -> str:
+    """Fill ``{name}`` placeholders with formatted values; KeyError if one is missing."""
+    out = []
+    for literal, name, spec, _conv in string.Formatter().parse(template):
+        out.append(literal)
+        if name is None:
+            continue
+        if name not in values:
+            raise KeyError(name)
+        out.append(_text(values[name]))
+    return "".join(out)
+
+
+def placeholders(template: str) -> set[str]:
+    """Return the placeholder names of a template."""
+    return {name for _, name, _, _ in string.Formatter().parse(template) if name}
+
+
+def quantity_dict(value: Any) -> dict[str, Any]:
+    """Return ``{"value": float, "unit": "V", "text": "24 V"}`` for a quantity."""
+    if isinstance(value, pint.Quantity):
+        unit = f"{value.units:~}"
+        return {
+            "value": float(value.magnitude),
+            "unit": "ohm" if unit == "Ω" else unit,
+            "text": format_quantity(value),
+        }
+    if isinstance(value, bool) or value is None:
+        return {"value": value, "unit": "", "text": str(value)}
+    if isinstance(value, (int, float)):
+        return {"value": float(value), "unit": "", "text": f"{value:g}"}
+    return {"value": None, "unit": "", "text": _text(value)}
+
+
+def fingerprint(rule: str, file: str, element: str, key: str = "") -> str:
+    """A stable identity for a finding: independent of lines, columns and wording."""
+    digest = hashlib.sha256(f"{rule}\x00{file}\x00{element}\x00{key}".encode())
+    return digest.hexdigest()[:16]
+
+
+@dataclass(frozen=True)
+class Finding:
+    """One reported hazard, anchored on a component statement."""
+
+    rule: str
+    severity: Severity
+    message: str
+    span: Span
+    element: str
+    values: Mapping[str, Any] = field(default_factory=dict)
+    fix: str | None = None
+    references: tuple[str, ...] = ()
+    key: str = ""
+    fingerprint: str = ""
+    waived: str | None = None
+
+    def sort_key(self) -> tuple[Any, ...]:
+        """Deterministic order: file, line, column, rule, element."""
+        return (self.span.file, self.span.line, self.span.column, self.rule, self.element)

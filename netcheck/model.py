@@ -1,0 +1,191 @@
+"""The design model: frozen objects built from the netlist and the part libraries.
+
+Every object built from text carries the ``span`` of the text it came from.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+from dataclasses import dataclass, field
+from typing import Any
+
+from netcheck.source import Span
+
+__all__ = [
+    "KINDS",
+    "SWITCHING_KINDS",
+    "POLE_KINDS",
+    "Attribute",
+    "Connection",
+    "Part",
+    "Pole",
+    "SwitchingElement",
+    "Component",
+    "Waiver",
+    "Supply",
+    "Netlist",
+]
+
+# The component kinds of the language (language.md, "Component kinds").
+KINDS: tuple[str, ...] = (
+    "supply",
+    "relay",
+    "contactor",
+    "switch",
+    "ssr",
+    "output",
+    "load",
+    "resistor",
+    "capacitor",
+    "diode",
+    "zener",
+    "tvs",
+    "varistor",
+    "rc",
+    "fuse",
+    "breaker",
+)
+POLE_KINDS = frozenset({"relay", "contactor", "switch"})
+SWITCHING_KINDS = POLE_KINDS | {"ssr", "output"}
+
+
+@dataclass(frozen=True)
+class Attribute:
+    """One ``key=value`` as written; ``value`` is parsed (quantity, str, bool, list)."""
+
+    key: str
+    value: Any
+    text: str
+    span: Span
+
+
+@dataclass(frozen=True)
+class Connection:
+    """One ``terminal:net`` of a component."""
+
+    terminal: str
+    net: str
+    span: Span
+
+
+@dataclass(frozen=True)
+class Part:
+    """A part from a library: its kind and data (quantities already parsed)."""
+
+    name: str
+    kind: str
+    data: Mapping[str, Any]
+    span: Span
+    library: str = ""
+
+
+@dataclass(frozen=True)
+class Pole:
+    """One pole of a device as the part or the marking convention defines it."""
+
+    common: str
+    no: str | None = None
+    nc: str | None = None
+
+
+@dataclass(frozen=True)
+class SwitchingElement:
+    """One conducting path that a device makes and breaks, named ``REF:T1-T2``.
+
+    ``a`` is the common (or '+', or line) terminal, ``b`` the other one; for a
+    polarized pole the current must enter at ``a``.
+    """
+
+    device: str
+    a: str
+    b: str
+    form: str  # "no", "nc", or "output"
+    span: Span
+
+    @property
+    def name(self) -> str:
+        """The element's name, ``K1:13-14``."""
+        return f"{self.device}:{self.a}-{self.b}"
+
+
+@dataclass(frozen=True)
+class Component:
+    """A component statement with its part merged and inline overrides applied.
+
+    ``values`` holds the merged attributes: part data first, then the
+    component's own attributes (which win). Nested part data stay nested
+    (``values["coil"]["resistance"]``).
+    """
+
+    kind: str
+    ref: str
+    span: Span
+    connections: tuple[Connection, ...]
+    attributes: tuple[Attribute, ...] = ()
+    part: Part | None = None
+    values: Mapping[str, Any] = field(default_factory=dict)
+    tags: frozenset[str] = frozenset()
+    poles: tuple[Pole, ...] = ()
+    elements: tuple[SwitchingElement, ...] = ()
+
+    def net_of(self, terminal: str) -> str | None:
+        """Return the net on ``terminal``, or None if unconnected."""
+        for connection in self.connections:
+            if connection.terminal == terminal:
+                return connection.net
+        return None
+
+    def value(self, *path: str, default: Any = None) -> Any:
+        """Return a merged value by key path (``value("coil", "resistance")``)."""
+        node: Any = self.values
+        for key in path:
+            if not isinstance(node, Mapping) or key not in node:
+                return default
+            node = node[key]
+        return node
+
+    def attribute_span(self, key: str) -> Span:
+        """Return the span of an inline attribute, or the statement's span."""
+        for attribute in self.attributes:
+            if attribute.key == key:
+                return attribute.span
+        return self.span
+
+
+@dataclass(frozen=True)
+class Waiver:
+    """A ``waive rule target "reason"`` statement."""
+
+    rule: str
+    target: str
+    reason: str
+    span: Span
+
+
+@dataclass(frozen=True)
+class Supply:
+    """A supply's domain facts, read from its component."""
+
+    ref: str
+    kind: str  # "dc" or "ac"
+    voltage: Any  # Quantity
+    span: Span
+
+
+@dataclass(frozen=True)
+class Netlist:
+    """A whole design: the top file and everything it includes."""
+
+    file: str
+    title: str | None
+    components: tuple[Component, ...]
+    waivers: tuple[Waiver, ...]
+    files: tuple[str, ...]
+    parts: Mapping[str, Part] = field(default_factory=dict)
+
+    def component(self, ref: str) -> Component | None:
+        """Return the component with reference ``ref``."""
+        for component in self.components:
+            if component.ref == ref:
+                return component
+        return None

@@ -1,0 +1,91 @@
+"""The one unit registry of netcheck and the parsing of quantities."""
+
+from __future__ import annotations
+
+import math
+import re
+
+import pint
+
+from netcheck.errors import QuantityError
+from netcheck.source import Span
+
+__all__ = ["ureg", "Q_", "Quantity", "DIMENSIONS", "parse_quantity", "format_quantity"]
+
+ureg = pint.UnitRegistry(autoconvert_offset_to_baseunit=True)
+Q_ = ureg.Quantity
+Quantity = pint.Quantity
+
+# Attribute dimensions by name, each with the SI unit used for output.
+DIMENSIONS: dict[str, str] = {
+    "voltage": "V",
+    "current": "A",
+    "resistance": "ohm",
+    "inductance": "H",
+    "capacitance": "F",
+    "time": "s",
+    "energy": "J",
+    "power": "W",
+    "frequency": "Hz",
+    "length": "m",
+    "ratio": "",
+}
+_SYMBOL = {"ohm": "Ω", "": ""}
+_NUMBER = re.compile(r"\s*([+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?)\s*(.*?)\s*\Z")
+_UNIT = re.compile(r"\A[A-Za-zΩµμ%°]+\Z")
+# Magnitudes beyond these are typing mistakes, not circuits.
+_LIMIT = 1e15
+
+
+def parse_quantity(text: str, dimension: str, span: Span | None = None) -> pint.Quantity:
+    """Parse ``24V``/``"48 ohm"`` into a quantity of ``dimension`` or raise QuantityError."""
+    match = _NUMBER.match(text)
+    if match is None:
+        raise QuantityError(f"expected a {dimension} such as '24V', got {text!r}", span)
+    number, unit = match.groups()
+    value = float(number)
+    if not math.isfinite(value) or abs(value) > _LIMIT:
+        raise QuantityError(f"{text!r} is out of range", span)
+    if unit == "":
+        if dimension == "ratio":
+            return Q_(value, "")
+        raise QuantityError(
+            f"{text!r} has no unit; expected a {dimension} in {DIMENSIONS[dimension]}",
+            span,
+        )
+    if not _UNIT.match(unit):
+        raise QuantityError(f"unknown unit {unit!r} in {text!r}", span)
+    try:
+        units = ureg.parse_units(unit.replace("μ", "u").replace("µ", "u"))
+    except (pint.errors.UndefinedUnitError, ValueError, AttributeError, TypeError):
+        raise QuantityError(f"unknown unit {unit!r} in {text!r}", span) from None
+    quantity = Q_(value, units)
+    want = Q_(1, DIMENSIONS[dimension])
+    if quantity.dimensionality != want.dimensionality:
+        raise QuantityError(
+            f"expected a {dimension}, got {text!r} ({_describe(quantity)})", span
+        )
+    return quantity.to(DIMENSIONS[dimension])
+
+
+def _describe(quantity: pint.Quantity) -> str:
+    for name, unit in DIMENSIONS.items():
+        if unit and quantity.dimensionality == Q_(1, unit).dimensionality:
+            return f"a {name}"
+    return f"dimension {quantity.dimensionality}"
+
+
+def format_quantity(quantity: pint.Quantity, digits: int = 4) -> str:
+    """Format with an engineering prefix: ``Q_(0.0021, 'H')`` -> ``'2.1 mH'``."""
+    magnitude = float(quantity.magnitude)
+    unit = f"{quantity.units:~}"
+    symbol = _SYMBOL.get(unit, unit)
+    if symbol in ("", "dimensionless"):
+        return f"{magnitude:.{digits}g}"
+    if magnitude == 0 or not math.isfinite(magnitude):
+        return f"{magnitude:g} {symbol}"
+    prefixes = {-12: "p", -9: "n", -6: "µ", -3: "m", 0: "", 3: "k", 6: "M", 9: "G"}
+    exponent = int(math.floor(math.log10(abs(magnitude)) / 3) * 3)
+    exponent = max(-12, min(9, exponent))
+    scaled = magnitude / 10**exponent
+    return f"{scaled:.{digits}g} {prefixes[exponent]}{symbol}"
