@@ -1,0 +1,346 @@
+"""Parse ``.cnet`` text into statements; the only place lark exceptions are seen."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from functools import lru_cache
+
+from lark import Lark, Token, Transformer, Tree, UnexpectedInput, v_args
+from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedToken
+
+from netcheck.errors import InputError, InputErrors, SyntaxInputError
+from netcheck.resources import read_text
+from netcheck.source import Span, register_text
+
+__all__ = [
+    "RawAttribute",
+    "ComponentStatement",
+    "FileStatement",
+    "WaiveStatement",
+    "SourceFile",
+    "SYNTAX_MESSAGES",
+    "parse_text",
+    "decode_source",
+]
+
+MAX_ERRORS = 20
+
+# Friendly messages for syntax errors, each with tiny inputs that produce it.
+# The table is also the test of these messages (tests/test_parse_errors.py).
+SYNTAX_MESSAGES: dict[str, list[str]] = {
+    "a component statement needs a reference after its kind (e.g. 'relay K1')": [
+        "relay",
+        "relay\n",
+    ],
+    "expected 'key=value' or 'terminal:net'": [
+        "relay K1 A1",
+        "relay K1 A1 A2:M",
+        "relay K1 A1:N3 A2",
+        "load Y1 R=10ohm R",
+    ],
+    "expected a net name after ':'": ["relay K1 A1:", "relay K1 A1:\n", 'relay K1 A1:"x"'],
+    "expected a value after '='": ["load Y1 R=", "load Y1 R=\n", "load Y1 R=10ohm="],
+    "'title', 'parts' and 'include' take one quoted string": [
+        'title foo',
+        'parts x.yaml',
+        'include "a" "b"',
+        "title",
+        'title "a" b',
+        "include",
+    ],
+    "waive takes a rule, a reference or element, and a quoted reason": [
+        "waive",
+        "waive rule-x",
+        "waive rule-x K1",
+        "waive rule-x K1 reason",
+        'waive rule-x K1 "r" more',
+        "waive rule-x K1:",
+    ],
+}
+
+_CHARACTER_HINTS = {
+    '"': "unterminated or misplaced string (strings are double-quoted on one line)",
+    "=": "unexpected '=' (write key=value with no spaces around '=')",
+    ":": "unexpected ':' (write terminal:net with no spaces around ':')",
+}
+
+
+@dataclass(frozen=True)
+class RawAttribute:
+    """``key=value`` as written: the value's text, unquoted, and whether it was quoted."""
+
+    key: str
+    text: str
+    quoted: bool
+    span: Span
+    value_span: Span
+
+
+@dataclass(frozen=True)
+class ComponentStatement:
+    """``kind ref key=value ... terminal:net ...``."""
+
+    kind: str
+    ref: str
+    attributes: tuple[RawAttribute, ...]
+    connections: tuple[tuple[str, str, Span], ...]
+    span: Span
+    kind_span: Span
+    ref_span: Span
+
+
+@dataclass(frozen=True)
+class FileStatement:
+    """``title``, ``parts`` or ``include`` with its string."""
+
+    keyword: str
+    text: str
+    span: Span
+    text_span: Span
+
+
+@dataclass(frozen=True)
+class WaiveStatement:
+    """``waive rule target "reason"``."""
+
+    rule: str
+    target: str
+    reason: str
+    span: Span
+    target_span: Span
+    reason_span: Span
+
+
+@dataclass(frozen=True)
+class SourceFile:
+    """The statements of one file, in order."""
+
+    file: str
+    statements: tuple[ComponentStatement | FileStatement | WaiveStatement, ...]
+
+
+@lru_cache(maxsize=1)
+def _parser() -> Lark:
+    return Lark(
+        read_text("grammar", "cnet.lark"),
+        parser="lalr",
+        propagate_positions=True,
+        maybe_placeholders=False,
+    )
+
+
+def _span(file: str, token: Token | Tree) -> Span:
+    meta = token if isinstance(token, Token) else token.meta
+    return Span(file, meta.line, meta.column, meta.end_line, meta.end_column)
+
+
+def _unquote(token: Token) -> str:
+    body = str(token)[1:-1]
+    out, i = [], 0
+    while i < len(body):
+        if body[i] == "\\" and i + 1 < len(body):
+            out.append(body[i + 1])
+            i += 2
+        else:
+            out.append(body[i])
+            i += 1
+    return "".join(out)
+
+
+class _ToStatements(Transformer):
+    def __init__(self, file: str) -> None:
+        super().__init__()
+        self.file = file
+        self.errors: list[InputError] = []
+
+    def _file_statement(self, keyword: str, meta: Tree, string: Token) -> FileStatement:
+        return FileStatement(
+            keyword, _unquote(string), _span(self.file, meta), _span(self.file, string)
+        )
+
+    @v_args(tree=True)
+    def title(self, tree: Tree) -> FileStatement:
+        return self._file_statement("title", tree, tree.children[0])
+
+    @v_args(tree=True)
+    def parts(self, tree: Tree) -> FileStatement:
+        return self._file_statement("parts", tree, tree.children[0])
+
+    @v_args(tree=True)
+    def include(self, tree: Tree) -> FileStatement:
+        return self._file_statement("include", tree, tree.children[0])
+
+    @v_args(tree=True)
+    def target(self, tree: Tree) -> tuple[str, Span]:
+        text = ":".join(str(child) for child in tree.children)
+        return text, _span(self.file, tree)
+
+    @v_args(tree=True)
+    def waive(self, tree: Tree) -> WaiveStatement:
+        rule, (target, target_span), reason = tree.children
+        return WaiveStatement(
+            str(rule),
+            target,
+            _unquote(reason),
+            _span(self.file, tree),
+            target_span,
+            _span(self.file, reason),
+        )
+
+    def _value_of(self, tree: Tree) -> tuple[str, bool, Span]:
+        token = tree.children[0]
+        quoted = token.type == "STRING"
+        text = _unquote(token) if quoted else str(token)
+        return text, quoted, _span(self.file, token)
+
+    def _joined(self, tree: Tree, first: Token, last: Token, sign: str) -> Span:
+        span = _span(self.file, tree)
+        if (first.end_line, first.end_column) != (last.line, last.column - 1):
+            self.errors.append(
+                SyntaxInputError(
+                    f"no space may stand around '{sign}' (write {first}{sign}{last})",
+                    span,
+                )
+            )
+        return span
+
+    @v_args(tree=True)
+    def attribute(self, tree: Tree) -> RawAttribute:
+        key, value_tree = tree.children
+        text, quoted, value_span = self._value_of(value_tree)
+        span = self._joined(tree, key, value_tree.children[0], "=")
+        return RawAttribute(str(key), text, quoted, span, value_span)
+
+    @v_args(tree=True)
+    def connection(self, tree: Tree) -> tuple[str, str, Span]:
+        terminal, net = tree.children
+        return str(terminal), str(net), self._joined(tree, terminal, net, ":")
+
+    @v_args(tree=True)
+    def component(self, tree: Tree) -> ComponentStatement:
+        kind, ref, *items = tree.children
+        return ComponentStatement(
+            kind=str(kind),
+            ref=str(ref),
+            attributes=tuple(i for i in items if isinstance(i, RawAttribute)),
+            connections=tuple(i for i in items if isinstance(i, tuple)),
+            span=_span(self.file, tree),
+            kind_span=_span(self.file, kind),
+            ref_span=_span(self.file, ref),
+        )
+
+    def start(self, children: list) -> list:
+        return children
+
+
+def decode_source(data: bytes, file: str) -> str:
+    """Decode UTF-8 text or raise an InputError at the first bad byte."""
+    try:
+        text = data.decode("utf-8")
+    except UnicodeDecodeError as error:
+        before = data[: error.start]
+        line = before.count(b"\n") + 1
+        column = len(before) - (before.rfind(b"\n") + 1) + 1
+        raise SyntaxInputError(
+            f"not UTF-8 text (byte 0x{data[error.start]:02x})",
+            Span(file, line, column, line, column + 1),
+        ) from None
+    if "\x00" in text:
+        index = text.index("\x00")
+        line = text.count("\n", 0, index) + 1
+        column = index - (text.rfind("\n", 0, index) + 1) + 1
+        raise SyntaxInputError("NUL character in text", Span(file, line, column))
+    return text.removeprefix("\ufeff")
+
+
+def _message(error: UnexpectedInput) -> str:
+    if isinstance(error, UnexpectedCharacters):
+        char = error.char
+        hint = _CHARACTER_HINTS.get(char)
+        if hint:
+            return hint
+        if char in " \t":
+            return "unexpected white space"
+        return f"unexpected character {char!r} (names use A-Z a-z 0-9 _ + - . / ~ ! *)"
+    label = error.match_examples(
+        _parser().parse, SYNTAX_MESSAGES, use_accepts=True, token_type_match_fallback=True
+    )
+    if label:
+        return str(label)
+    if isinstance(error, UnexpectedToken) and error.token.type == "$END":
+        return "unexpected end of file"
+    token = getattr(error, "token", None)
+    return f"unexpected {str(token)!r}" if token else "syntax error"
+
+
+def _error_span(file: str, error: UnexpectedInput, text: str) -> Span:
+    token = getattr(error, "token", None)
+    if isinstance(error, UnexpectedEOF) or (token is not None and token.type == "$END"):
+        lines = text.rstrip("\r\n").split("\n")
+        return Span(file, len(lines), len(lines[-1].rstrip("\r")) + 1)
+    line, column = error.line, error.column
+    history = getattr(error, "token_history", None) or []
+    if isinstance(error, UnexpectedToken) and history and history[-1].type == "NAME":
+        previous = history[-1]
+        if {"EQUAL", "COLON"} <= set(error.accepts or error.expected):
+            # 'R 1:N5': the bare name is the mistake, not what follows it.
+            return _span(file, previous)
+    if token is not None and token.type == "_NL":
+        # A line break where more was expected: point just past the line's end.
+        line_text = text.split("\n")[line - 1].rstrip("\r")
+        return Span(file, line, len(line_text) + 1)
+    end = column + (len(str(token)) if token is not None else 1)
+    return Span(file, line, column, line, end)
+
+
+def _statement_lines(lines: list[str], line: int) -> range:
+    """The lines of the statement that holds ``line`` (1-based, inclusive range)."""
+    first = line
+    while first > 1 and (not lines[first - 1][:1].strip() or lines[first - 1][0] == "#"):
+        first -= 1
+    last = line
+    while last < len(lines) and (lines[last][:1] in (" ", "\t") or not lines[last].strip()):
+        last += 1
+    return range(first, last + 1)
+
+
+def _blank_statement(text: str, line: int) -> str:
+    lines = text.split("\n")
+    for number in _statement_lines(lines, line):
+        lines[number - 1] = ""
+    return "\n".join(lines)
+
+
+def parse_text(text: str, file: str) -> SourceFile:
+    """Parse one file's text; raise InputErrors with every syntax error found."""
+    register_text(file, text)
+    errors: list[InputError] = []
+    work = text
+    while True:
+        try:
+            tree = _parser().parse(work)
+            break
+        except UnexpectedInput as error:
+            span = _error_span(file, error, work)
+            errors.append(SyntaxInputError(_message(error), span))
+            blanked = _blank_statement(work, span.line)
+            if len(errors) >= MAX_ERRORS or blanked == work:
+                raise InputErrors(errors) from None
+            work = blanked
+    if errors:
+        raise InputErrors(errors)
+    transformer = _ToStatements(file)
+    statements = transformer.transform(tree)
+    errors = transformer.errors
+    for statement in statements[:1]:
+        if statement.span.column != 1:
+            errors.append(
+                SyntaxInputError(
+                    "a statement starts in column 1 (an indented line continues "
+                    "the statement above, and there is none)",
+                    statement.span,
+                )
+            )
+    if errors:
+        raise InputErrors(errors)
+    return SourceFile(file, tuple(statements))
