@@ -104,7 +104,13 @@ class SwitchingElement:
 
     @property
     def name(self) -> str:
-        """The element's name, ``K1:13-14``."""
+        """The element's name, ``K1:13-14``.
+
+        A semiconductor output with ``+``/``-`` (or ``Q``/``M``) terminals is
+        named by its reference alone: ``Q3:+--`` would read badly.
+        """
+        if self.form == "output" and not self.a.isdigit():
+            return self.device
         return f"{self.device}:{self.a}-{self.b}"
 
 

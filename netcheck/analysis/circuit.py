@@ -1,0 +1,140 @@
+"""A small DC operating-point solver: nodal analysis with ideal-diode states.
+
+Floats in SI units throughout (volts, amperes, ohms): this is the numerical
+kernel; callers convert to and from quantities.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping, Sequence
+from dataclasses import dataclass
+
+import numpy as np
+
+__all__ = ["Resistor", "Diode", "Solution", "solve_dc", "R_ON", "G_MIN"]
+
+# A forward-biased diode is modelled as its forward drop in series with R_ON;
+# G_MIN from every node to the reference keeps floating nodes solvable (the
+# usual SPICE device for the same problem). Both are modelling assumptions.
+R_ON = 1e-3
+G_MIN = 1e-12
+_MAX_ITERATIONS = 50
+
+
+@dataclass(frozen=True)
+class Resistor:
+    """A linear branch between nodes ``a`` and ``b`` (current counted a -> b)."""
+
+    key: str
+    a: str
+    b: str
+    resistance: float
+
+
+@dataclass(frozen=True)
+class Diode:
+    """An ideal diode with forward drop ``vf`` (anode ``a``, cathode ``b``).
+
+    ``vz`` is a reverse breakdown (zener) voltage, or None for a plain diode.
+    """
+
+    key: str
+    a: str
+    b: str
+    vf: float
+    vz: float | None = None
+
+
+@dataclass(frozen=True)
+class Solution:
+    """Node potentials, branch currents (a -> b) and the diode states found."""
+
+    potentials: Mapping[str, float]
+    currents: Mapping[str, float]
+    diode_state: Mapping[str, str]  # "off", "forward" or "reverse"
+
+
+def _diode_current(d: Diode, state: str, va: float, vb: float) -> float:
+    if state == "forward":
+        return (va - vb - d.vf) / R_ON
+    if state == "reverse" and d.vz is not None:
+        return (va - vb + d.vz) / R_ON
+    return 0.0
+
+
+def _stamp(matrix: np.ndarray, rhs: np.ndarray, index: Mapping[str, int],
+           fixed: Mapping[str, float], a: str, b: str, g: float, offset: float) -> None:
+    """Stamp a branch with current g*(Va - Vb - offset) from a to b."""
+    ia, ib = index.get(a), index.get(b)
+    for node, sign, i in ((a, 1.0, ia), (b, -1.0, ib)):
+        if i is None:
+            continue
+        rhs[i] += sign * g * offset
+        for other, osign, j in ((a, 1.0, ia), (b, -1.0, ib)):
+            if j is None:
+                rhs[i] -= sign * osign * g * fixed[other]
+            else:
+                matrix[i, j] += sign * osign * g
+
+
+def _linear_solve(nodes: Sequence[str], fixed: Mapping[str, float],
+                  resistors: Sequence[Resistor], diodes: Sequence[Diode],
+                  states: Mapping[str, str]) -> dict[str, float]:
+    index = {n: i for i, n in enumerate(nodes)}
+    size = len(nodes)
+    matrix = np.eye(size) * G_MIN
+    rhs = np.zeros(size)
+    for r in resistors:
+        _stamp(matrix, rhs, index, fixed, r.a, r.b, 1.0 / r.resistance, 0.0)
+    for d in diodes:
+        state = states[d.key]
+        if state == "forward":
+            _stamp(matrix, rhs, index, fixed, d.a, d.b, 1.0 / R_ON, d.vf)
+        elif state == "reverse" and d.vz is not None:
+            _stamp(matrix, rhs, index, fixed, d.a, d.b, 1.0 / R_ON, -d.vz)
+    values = np.linalg.solve(matrix, rhs) if size else np.zeros(0)
+    potentials = dict(fixed)
+    potentials.update({n: float(values[i]) for n, i in index.items()})
+    return potentials
+
+
+def _next_state(d: Diode, state: str, va: float, vb: float) -> str:
+    if state == "forward":
+        return "forward" if _diode_current(d, state, va, vb) > 0 else "off"
+    if state == "reverse":
+        return "reverse" if _diode_current(d, state, va, vb) < 0 else "off"
+    if va - vb > d.vf:
+        return "forward"
+    if d.vz is not None and vb - va > d.vz:
+        return "reverse"
+    return "off"
+
+
+def solve_dc(nodes: Sequence[str], fixed: Mapping[str, float],
+             resistors: Sequence[Resistor], diodes: Sequence[Diode] = ()) -> Solution:
+    """Solve the DC operating point; ``fixed`` nodes have given potentials.
+
+    Diode states are found by iteration from all-off, one state change at a
+    time (the diode most over its threshold first), which converges for the
+    monotone networks of control circuits.
+    """
+    unknown = [n for n in nodes if n not in fixed]
+    states = {d.key: "off" for d in diodes}
+    for _ in range(_MAX_ITERATIONS + len(diodes)):
+        potentials = _linear_solve(unknown, fixed, resistors, diodes, states)
+        changes = []
+        for d in diodes:
+            va, vb = potentials[d.a], potentials[d.b]
+            new = _next_state(d, states[d.key], va, vb)
+            if new != states[d.key]:
+                excess = abs(va - vb) - (d.vf if new == "forward" else 0.0)
+                changes.append((excess, d.key, new))
+        if not changes:
+            break
+        changes.sort(reverse=True)
+        _, key, new = changes[0]
+        states[key] = new
+    currents = {r.key: (potentials[r.a] - potentials[r.b]) / r.resistance for r in resistors}
+    for d in diodes:
+        currents[d.key] = _diode_current(d, states[d.key], potentials[d.a], potentials[d.b])
+    return Solution(potentials, currents, states)

@@ -1,0 +1,252 @@
+"""Solve one DC domain: zero-ohm groups, rails, the closed-state operating point.
+
+Switching elements and protective devices are zero-ohm when closed, so the
+nets they join form *groups*. Groups holding a supply terminal are *rails*
+with potentials fixed by the supplies (no-load EMF); every other group is
+solved per *internal component* (the groups that loads and resistors join
+between rails), each on its own. That is the decomposition at the supply
+rails that keeps the cost linear in the design's size.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterable, Mapping
+from dataclasses import dataclass, field
+
+import networkx as nx
+
+from netcheck.analysis.circuit import Diode, Resistor, Solution, solve_dc
+from netcheck.analysis.loads import LoadFacts, load_facts
+from netcheck.graph import COIL, CONDUCTOR, LOAD, SUPPLY, SWITCH, Branch, Domain
+
+__all__ = ["DomainState", "solve_domain", "UnionFind", "DEFAULT_VF", "CONDUCTING",
+           "shunts"]
+
+DEFAULT_VF = 0.7  # V; a silicon diode's forward drop where the part gives none (common practice)
+
+
+class UnionFind:
+    """Disjoint sets of hashable items."""
+
+    def __init__(self) -> None:
+        self.parent: dict[str, str] = {}
+
+    def find(self, item: str) -> str:
+        """The representative of ``item``'s set."""
+        parent = self.parent.setdefault(item, item)
+        while parent != self.parent[parent]:
+            self.parent[parent] = self.parent[self.parent[parent]]
+            parent = self.parent[parent]
+        self.parent[item] = parent
+        return parent
+
+    def union(self, a: str, b: str) -> None:
+        """Join the sets of ``a`` and ``b``."""
+        ra, rb = self.find(a), self.find(b)
+        if ra != rb:
+            self.parent[max(ra, rb)] = min(ra, rb)
+
+
+@dataclass
+class DomainState:
+    """Everything solved once per DC domain and shared by its elements."""
+
+    domain: Domain
+    group: dict[str, str]  # net -> group representative
+    wire: dict[str, str]  # net -> representative through fuses and breakers only
+    rails: dict[str, float]  # rail group -> potential (V)
+    emf: dict[str, float]  # supply ref -> EMF (V)
+    r_int: dict[str, float]
+    potentials: dict[str, float]  # group -> potential in the closed state
+    currents: dict[str, float]  # branch key -> current a -> b (A)
+    diode_state: dict[str, str]
+    facts: dict[str, LoadFacts]  # load branch key -> facts
+    resistive: list[Branch]  # branches with a resistance (loads, coils, resistors)
+    unknown_resistance: list[Branch]
+    shorts: list[tuple[Branch, ...]] = field(default_factory=list)
+    supply_shorts: list[Branch] = field(default_factory=list)
+    branch_by_key: dict[str, Branch] = field(default_factory=dict)
+    attached: dict[str, list[Branch]] = field(default_factory=dict)  # net -> branches
+    internal_of: dict[str, int] = field(default_factory=dict)  # group -> component id
+    internal_rails: dict[int, frozenset[str]] = field(default_factory=dict)
+    models: dict[str, Resistor | Diode] = field(default_factory=dict)  # by branch key
+    comp_branches: dict[int, set[str]] = field(default_factory=dict)
+    group_nets: dict[str, list[str]] = field(default_factory=dict)
+
+    def model(self, key: str, rename: Mapping[str, str]) -> Resistor | Diode:
+        """The branch's circuit model with its ends renamed (net -> node)."""
+        branch = self.branch_by_key[key]
+        a = rename.get(branch.a) or self.group[branch.a]
+        b = rename.get(branch.b) or self.group[branch.b]
+        model = self.models[key]
+        if isinstance(model, Resistor):
+            return Resistor(key, a, b, model.resistance)
+        return Diode(key, a, b, model.vf, model.vz)
+
+    def net_potential(self, net: str) -> float:
+        """The closed-state potential of a net."""
+        return self.potentials.get(self.group[net], 0.0)
+
+
+def _vf(branch: Branch) -> float:
+    value = branch.component.value("vf")
+    return float(value.to("V").magnitude) if value is not None else DEFAULT_VF
+
+
+def _groups(domain: Domain, open_keys: frozenset[str]) -> tuple[dict[str, str],
+                                                                  dict[str, str]]:
+    groups, wires = UnionFind(), UnionFind()
+    for net in domain.nets:
+        groups.find(net)
+        wires.find(net)
+    for branch in domain.branches:
+        if branch.role in (SWITCH, CONDUCTOR) and branch.key not in open_keys:
+            groups.union(branch.a, branch.b)
+        if branch.role == CONDUCTOR:
+            wires.union(branch.a, branch.b)
+    return ({n: groups.find(n) for n in domain.nets}, {n: wires.find(n) for n in domain.nets})
+
+
+def _rails(domain: Domain, group: dict[str, str]) -> tuple[dict, dict, dict, list]:
+    emf, r_int, rails, shorted = {}, {}, {}, []
+    edges = [b for b in domain.branches if b.role == SUPPLY]
+    graph = nx.Graph()
+    for branch in edges:
+        value = branch.component.value("dc")
+        emf[branch.ref] = float(value.to("V").magnitude) if value is not None else 0.0
+        r = branch.component.value("r_int")
+        r_int[branch.ref] = float(r.to("ohm").magnitude) if r is not None else 0.0
+        ga, gb = group[branch.a], group[branch.b]
+        if ga == gb:
+            shorted.append(branch)
+            continue
+        graph.add_edge(gb, ga, rise=emf[branch.ref], tail=gb)
+    for component in nx.connected_components(graph):
+        root = min(component)
+        rails[root] = 0.0
+        for u, v in nx.bfs_edges(graph, root):
+            data = graph.edges[u, v]
+            rise = data["rise"] if data["tail"] == u else -data["rise"]
+            rails[v] = rails[u] + rise
+    return emf, r_int, rails, shorted
+
+
+def _internal_components(state: DomainState) -> list[set[str]]:
+    graph = nx.Graph()
+    for branch in state.resistive + [b for b in state.domain.branches
+                                     if b.kind in ("diode", "zener", "tvs")]:
+        ga, gb = state.group[branch.a], state.group[branch.b]
+        for g in (ga, gb):
+            if g not in state.rails:
+                graph.add_node(g)
+        if ga not in state.rails and gb not in state.rails:
+            graph.add_edge(ga, gb)
+    return [set(c) for c in nx.connected_components(graph)]
+
+
+def _elements(state: DomainState, groups: Iterable[str]) -> tuple[list, list]:
+    members = set(groups)
+    resistors, diodes = [], []
+    for branch in state.resistive:
+        ga, gb = state.group[branch.a], state.group[branch.b]
+        if ga in members or gb in members:
+            resistance = _resistance(state, branch)
+            resistors.append(Resistor(branch.key, ga, gb, resistance))
+    for branch in state.domain.branches:
+        if branch.kind in ("diode", "zener") or (
+            branch.kind == "tvs" and not branch.component.value("bidirectional")
+        ):
+            ga, gb = state.group[branch.a], state.group[branch.b]
+            if ga in members or gb in members:
+                vz = branch.component.value("vz") if branch.kind == "zener" else None
+                diodes.append(Diode(branch.key, ga, gb, _vf(branch),
+                                    float(vz.to("V").magnitude) if vz is not None else None))
+    return resistors, diodes
+
+
+def _resistance(state: DomainState, branch: Branch) -> float:
+    if branch.role in (LOAD, COIL):
+        value = state.facts[branch.key].resistance
+    else:
+        value = branch.component.value("R")
+    return max(float(value.to("ohm").magnitude), 1e-6)
+
+
+def _direct_solve(state: DomainState) -> Solution:
+    """Branches whose two ends are both rails: no unknown node at all."""
+    resistors, diodes = [], []
+    rails = set(state.rails)
+    all_r, all_d = _elements(state, rails)
+    resistors = [r for r in all_r if r.a in rails and r.b in rails]
+    diodes = [d for d in all_d if d.a in rails and d.b in rails]
+    return solve_dc(list(rails), state.rails, resistors, diodes)
+
+
+CONDUCTING = 1e-6  # A; a suppressor carrying more than this conducts in normal operation
+
+
+def _find_shorts(state: DomainState, diodes: list[Diode]) -> None:
+    """Conducting diode paths from rail to rail with no resistance: a short circuit."""
+    links = nx.Graph()
+    for d in diodes:
+        if abs(state.currents.get(d.key, 0.0)) > CONDUCTING:
+            links.add_edge(d.a, d.b, key=d.key)
+    for component in nx.connected_components(links):
+        rails = [g for g in component if g in state.rails]
+        if len({round(state.rails[g], 9) for g in rails}) > 1:
+            keys = tuple(sorted(links.edges[u, v]["key"] for u, v in
+                                links.subgraph(component).edges))
+            state.shorts.append(tuple(state.branch_by_key[k] for k in keys))
+
+
+def solve_domain(domain: Domain, open_keys: frozenset[str] = frozenset()) -> DomainState:
+    """Solve a DC domain with every switching element closed but ``open_keys``."""
+    group, wire = _groups(domain, open_keys)
+    emf, r_int, rails, supply_shorts = _rails(domain, group)
+    facts, resistive, unknown = {}, [], []
+    for branch in domain.branches:
+        if branch.role in (LOAD, COIL):
+            facts[branch.key] = load_facts(branch)
+            (resistive if facts[branch.key].resistance is not None else unknown).append(branch)
+        elif branch.role == "resistor":
+            (resistive if branch.component.value("R") is not None else unknown).append(branch)
+    state = DomainState(domain, group, wire, rails, emf, r_int, {}, {}, {}, facts,
+                        resistive, unknown, supply_shorts=supply_shorts,
+                        branch_by_key={b.key: b for b in domain.branches})
+    for branch in domain.branches:
+        state.attached.setdefault(branch.a, []).append(branch)
+        state.attached.setdefault(branch.b, []).append(branch)
+    solutions = [_direct_solve(state)]
+    for index, members in enumerate(_internal_components(state)):
+        resistors, diodes = _elements(state, members)
+        nodes = sorted(members | {n for r in resistors for n in (r.a, r.b)}
+                       | {n for d in diodes for n in (d.a, d.b)})
+        fixed = {n: state.rails[n] for n in nodes if n in state.rails}
+        solutions.append(solve_dc(nodes, fixed, resistors, diodes))
+        rails_touched = frozenset(n for n in nodes if n in state.rails)
+        for g in members:
+            state.internal_of[g] = index
+        state.internal_rails[index] = rails_touched
+    all_diodes: list[Diode] = []
+    for solution in solutions:
+        state.potentials.update(solution.potentials)
+        state.currents.update(solution.currents)
+        state.diode_state.update(solution.diode_state)
+    for g in set(group.values()):
+        state.potentials.setdefault(g, 0.0)
+    all_r, all_diodes = _elements(state, set(group.values()))
+    state.models = {m.key: m for m in [*all_r, *all_diodes]}
+    for key, m in state.models.items():
+        for g in (m.a, m.b):
+            if g in state.internal_of:
+                state.comp_branches.setdefault(state.internal_of[g], set()).add(key)
+    for net, g in group.items():
+        state.group_nets.setdefault(g, []).append(net)
+    _find_shorts(state, all_diodes)
+    return state
+
+
+def shunts(state: DomainState) -> list[Branch]:
+    """Loads and resistors whose two ends lie in one zero-ohm group."""
+    return [b for b in state.resistive if state.group[b.a] == state.group[b.b]
+            and b.a != b.b]

@@ -1,0 +1,235 @@
+"""Assemble the analysis of every switching element of a design."""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+from dataclasses import dataclass, field, replace
+
+from netcheck.analysis.domain import CONDUCTING, DomainState, shunts, solve_domain
+from netcheck.analysis.loads import category_for, is_inductive, most_demanding
+from netcheck.analysis.suppression import Chain, find_chains
+from netcheck.analysis.switched import (
+    ElementAnalysis,
+    Opening,
+    SwitchedLoad,
+    Suppressor,
+    net_injections,
+    open_element,
+)
+from netcheck.analysis.zero_ohm import ZeroOhm
+from netcheck.graph import CONDUCTOR, SUPPLY, SWITCH, Branch, Domain, Graph
+from netcheck.units import Q_
+
+__all__ = ["Analysis", "analyse"]
+
+# T0.95 = 3·L/R as the spec and IEC 60947-5-1 state it (exactly: ln 20 = 2.996).
+T95_FACTOR = 3.0
+
+
+@dataclass
+class Analysis:
+    """The analysis of a design: per element, per domain, and the suppressors."""
+
+    graph: Graph
+    elements: dict[str, ElementAnalysis]
+    states: dict[str, DomainState] = field(default_factory=dict)  # domain name -> state
+    chains: dict[str, dict[frozenset[str], list[Chain]]] = field(default_factory=dict)
+    wires: dict[str, dict[str, str]] = field(default_factory=dict)
+
+    def sorted_elements(self) -> list[ElementAnalysis]:
+        """Elements sorted by name."""
+        return [self.elements[k] for k in sorted(self.elements)]
+
+
+def _wire_map(domain: Domain) -> dict[str, str]:
+    parent = {n: n for n in domain.nets}
+
+    def find(n: str) -> str:
+        while parent[n] != n:
+            parent[n] = parent[parent[n]]
+            n = parent[n]
+        return n
+
+    for branch in domain.branches:
+        if branch.role == CONDUCTOR:
+            ra, rb = find(branch.a), find(branch.b)
+            if ra != rb:
+                parent[max(ra, rb)] = min(ra, rb)
+    return {n: find(n) for n in domain.nets}
+
+
+def _degrees(graph: Graph) -> dict[str, int]:
+    return {net: len(conns) for net, conns in graph.connections.items()}
+
+
+def _suppressors_between(chains: Mapping[frozenset[str], list[Chain]],
+                         wire: Mapping[str, str], a: str, b: str, placement: str,
+                         load: str | None, currents: Mapping[str, float]) -> list[Suppressor]:
+    found = []
+    for chain in chains.get(frozenset({wire.get(a, a), wire.get(b, b)}), ()):
+        conducts = any(abs(currents.get(br.key, 0.0)) > CONDUCTING for br in chain.branches)
+        found.append(Suppressor(chain.kind, placement, chain.refs, load, chain, conducts))
+    return found
+
+
+def _load_suppressors(ctx: _Ctx, branch: Branch) -> tuple[Suppressor, ...]:
+    facts = ctx.state.facts[branch.key] if ctx.state else None
+    found = _suppressors_between(ctx.chains, ctx.wire, branch.a, branch.b, "across-load",
+                                 branch.ref, ctx.state.currents if ctx.state else {})
+    if facts is not None and facts.suppression not in ("none", ""):
+        found.append(Suppressor(facts.suppression, "built-in", (branch.ref,), branch.ref))
+    return tuple(found)
+
+
+@dataclass
+class _Ctx:
+    domain: Domain
+    state: DomainState | None
+    chains: Mapping[frozenset[str], list[Chain]]
+    wire: Mapping[str, str]
+
+
+def _switched_loads(ctx: _Ctx, opening: Opening, power: bool) -> list[SwitchedLoad]:
+    state = ctx.state
+    assert state is not None
+    loads = []
+    for key in opening.switched:
+        branch = state.branch_by_key[key]
+        facts = state.facts[key]
+        current = abs(state.currents.get(key, 0.0))
+        voltage = abs(state.net_potential(branch.a) - state.net_potential(branch.b))
+        energy = None
+        if facts.inductance is not None:
+            energy = (0.5 * facts.inductance * Q_(current, "A") ** 2).to("J")
+        loads.append(SwitchedLoad(
+            facts, Q_(current, "A"), Q_(voltage, "V"), category_for(facts.type, power),
+            energy, is_inductive(facts), _load_suppressors(ctx, branch)))
+    return loads
+
+
+def _sag(state: DomainState, current: float) -> tuple[float, str | None, float | None]:
+    """Correct a current for the supply's internal resistance (linear loads).
+
+    With only the switched circuit energised, I = G·E/(1 + G·r_int) where
+    G = I0/E is the circuit's conductance seen from the rails (Ohm's law).
+    """
+    supplies = [b for b in state.domain.branches if b.role == SUPPLY]
+    if len(supplies) != 1:
+        return current, None, None
+    ref = supplies[0].ref
+    emf, r_int = state.emf[ref], state.r_int[ref]
+    if emf <= 0 or r_int <= 0:
+        return current, ref, emf
+    conductance = abs(current) / emf
+    return current / (1.0 + conductance * r_int), ref, emf
+
+
+def _analyse_dc(ctx: _Ctx, branch: Branch, zero: ZeroOhm, injection: Mapping[str, float],
+                terminals: set[str]) -> ElementAnalysis:
+    state = ctx.state
+    assert state is not None and branch.element is not None
+    if zero.bypass_through_load(branch.key):
+        # A bypass through a load (a precharge resistor around a main contact):
+        # solve again with the bypassing elements open, as the worst case asks.
+        state = solve_domain(ctx.domain, frozenset(zero.bypass(branch.key)))
+        ctx = _Ctx(ctx.domain, state, ctx.chains, ctx.wire)
+        zero = _zero_ohm(ctx.domain, state)
+        injection = net_injections(state)
+    opening = open_element(state, zero, injection, terminals, branch)
+    power = branch.component.kind == "contactor" and len(branch.element.a) == 1
+    loads = _switched_loads(ctx, opening, power)
+    current, supply_ref, emf = _sag(state, opening.current_ab)
+    taus = [ld.facts.time_constant for ld in loads if ld.facts.time_constant is not None]
+    tau = max(taus) if taus else (Q_(0.0, "s") if loads else None)
+    energies = [ld.energy for ld in loads if ld.energy is not None]
+    across = _suppressors_between(ctx.chains, ctx.wire, branch.a, branch.b,
+                                  "across-element", None, state.currents)
+    suppression = tuple(s for ld in loads for s in ld.suppressors) + tuple(across)
+    missing = tuple(sorted({m for ld in loads for m in ld.facts.missing}))
+    shorted = {b.key for chain in state.shorts for b in chain}
+    unknown = [b.ref for b in state.unknown_resistance if b.a in opening.floating_nets
+               or b.b in opening.floating_nets]
+    supply = state.domain.supplies[0] if state.domain.supplies else None
+    return ElementAnalysis(
+        element=branch.element, component=branch.component, domain=ctx.domain.name,
+        supply="dc", voltage=Q_(abs(opening.voltage_ab), "V"),
+        current=Q_(abs(current), "A"), loads=tuple(loads),
+        load_category=most_demanding([ld.category for ld in loads]),
+        time_constant=tau, t95=(T95_FACTOR * tau) if tau is not None else None,
+        energy=sum(energies, Q_(0.0, "J")) if loads else Q_(0.0, "J"),
+        suppression=suppression, bypass=opening.bypass,
+        direction=(1 if opening.current_ab > 1e-9 else -1 if opening.current_ab < -1e-9
+                   else 0),
+        bidirectional=bool(supply is not None and supply.value("bidirectional")),
+        supply_voltage=Q_(emf, "V") if emf is not None else None, supply_ref=supply_ref,
+        missing=missing + tuple(f"{r}: resistance" for r in unknown),
+        short_circuit=any(k in shorted for k in opening.switched),
+    )
+
+
+def _series(elements: dict[str, ElementAnalysis]) -> dict[str, ElementAnalysis]:
+    """Mark elements in series: same switched loads and the same current."""
+    groups: dict[tuple, list[str]] = {}
+    for name, e in elements.items():
+        if e.supply != "dc" or not e.loads or e.current is None:
+            continue
+        loads = frozenset(ld.facts.key for ld in e.loads)
+        key = (e.domain, loads, round(float(e.current.magnitude), 9))
+        groups.setdefault(key, []).append(name)
+    out = dict(elements)
+    for names in groups.values():
+        if len(names) < 2:
+            continue
+        for name in names:
+            e = elements[name]
+            partners = [n for n in names if n not in e.bypass]
+            same = tuple(sorted(n for n in partners
+                                if elements[n].element.device == e.element.device))
+            other = tuple(sorted(n for n in partners
+                                 if elements[n].element.device != e.element.device))
+            out[name] = replace(e, series_poles=len(same), series_elements=same,
+                                other_series=other)
+    return out
+
+
+def _zero_ohm(domain: Domain, state: DomainState) -> ZeroOhm:
+    closed = [b for b in domain.branches if b.role in (SWITCH, CONDUCTOR)
+              and state.group[b.a] == state.group[b.b]]
+    return ZeroOhm(closed, shunts(state))
+
+
+def analyse(graph: Graph) -> Analysis:
+    """Analyse every switching element of the design."""
+    elements: dict[str, ElementAnalysis] = {}
+    analysis = Analysis(graph, elements)
+    degree = _degrees(graph)
+    for domain in graph.domains:
+        wire = _wire_map(domain)
+        chains = find_chains(domain.branches, degree, wire)
+        analysis.chains[domain.name] = chains
+        analysis.wires[domain.name] = wire
+        switches = [b for b in domain.branches if b.role == SWITCH]
+        kind = domain.kind
+        if kind != "dc" or not switches and not chains:
+            for branch in switches:
+                assert branch.element is not None
+                elements[branch.element.name] = ElementAnalysis(
+                    branch.element, branch.component,
+                    domain.name if domain.supplies else None, kind)
+            continue
+        state = solve_domain(domain)
+        analysis.states[domain.name] = state
+        ctx = _Ctx(domain, state, chains, wire)
+        zero = _zero_ohm(domain, state)
+        injection = net_injections(state)
+        terminals = {n for b in domain.branches if b.role == SUPPLY for n in (b.a, b.b)}
+        for branch in switches:
+            assert branch.element is not None
+            elements[branch.element.name] = _analyse_dc(ctx, branch, zero, injection,
+                                                        terminals)
+    for component in graph.netlist.components:
+        for element in component.elements:
+            if element.name not in elements:
+                elements[element.name] = ElementAnalysis(element, component, None, None)
+    analysis.elements = _series(elements)
+    return analysis

@@ -1,0 +1,138 @@
+"""Electrical facts of loads and coils: resistance, inductance, load category."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import pint
+
+from netcheck.graph import COIL, Branch
+from netcheck.units import Q_
+
+__all__ = [
+    "LoadFacts",
+    "load_facts",
+    "category_for",
+    "CONTROL_CATEGORY",
+    "POWER_CATEGORY",
+    "covers",
+    "is_inductive",
+]
+
+# Load type -> utilization category needed (parts.md, after IEC 60947-5-1
+# for control devices and IEC 60947-4-1 for power devices).
+CONTROL_CATEGORY = {
+    "resistive": "DC-12", "heater": "DC-12", "electronic": "DC-12", "capacitive": "DC-12",
+    "lamp": "DC-6", "solenoid": "DC-13", "valve": "DC-13", "brake": "DC-13",
+    "clutch": "DC-13", "coil": "DC-13", "motor": "DC-13", "economy-coil": "DC-14",
+}
+POWER_CATEGORY = {
+    "resistive": "DC-1", "heater": "DC-1", "electronic": "DC-1", "capacitive": "DC-1",
+    "lamp": "DC-6", "motor": "DC-3", "solenoid": "DC-13", "valve": "DC-13",
+    "brake": "DC-13", "clutch": "DC-13", "coil": "DC-13", "economy-coil": "DC-14",
+}
+# What a rating of each category also covers (parts.md: DC-13 covers DC-12;
+# DC-5 covers DC-3 covers DC-1).
+_COVERS = {
+    "DC-13": {"DC-13", "DC-12"},
+    "DC-12": {"DC-12"},
+    "DC-14": {"DC-14", "DC-13", "DC-12"},
+    "DC-5": {"DC-5", "DC-3", "DC-1"},
+    "DC-3": {"DC-3", "DC-1"},
+    "DC-1": {"DC-1"},
+    "DC-6": {"DC-6"},
+}
+# Ordering used to pick the most demanding category among several loads.
+_DEMAND = ["DC-1", "DC-12", "DC-6", "DC-3", "DC-5", "DC-13", "DC-14"]
+_INDUCTIVE = {"solenoid", "valve", "brake", "clutch", "coil", "motor", "economy-coil"}
+
+
+def covers(rated: str, needed: str) -> bool:
+    """Whether a rating of category ``rated`` covers a load needing ``needed``."""
+    return needed in _COVERS.get(rated, {rated})
+
+
+def most_demanding(categories: list[str]) -> str | None:
+    """The most demanding of several categories."""
+    known = [c for c in categories if c in _DEMAND]
+    return max(known, key=_DEMAND.index) if known else None
+
+
+@dataclass(frozen=True)
+class LoadFacts:
+    """What the analysis knows of one load (a ``load`` or a coil)."""
+
+    key: str
+    ref: str
+    type: str
+    resistance: pint.Quantity | None
+    inductance: pint.Quantity | None
+    time_constant: pint.Quantity | None
+    release_current: pint.Quantity | None
+    suppression: str  # built-in: none, diode, zener, varistor, rc, tvs
+    coil_supply: str | None  # for coils: dc, ac or ac/dc
+    rated_voltage: pint.Quantity | None
+    missing: tuple[str, ...]
+
+
+def is_inductive(facts: LoadFacts) -> bool:
+    """Inductive by type or by a given inductance."""
+    has_l = facts.inductance is not None and facts.inductance.magnitude > 0
+    return facts.type in _INDUCTIVE or has_l
+
+
+def _resistance_of(values: dict) -> pint.Quantity | None:
+    r, p, v, i = (values.get(k) for k in ("R", "P", "V", "I"))
+    if r is not None:
+        return r
+    if p is not None and v is not None and p.magnitude > 0:
+        return (v**2 / p).to("ohm")
+    if v is not None and i is not None and i.magnitude > 0:
+        return (v / i).to("ohm")
+    return None
+
+
+def _inductance(r: pint.Quantity | None, l_value, tau) -> tuple:
+    if l_value is not None:
+        tau_out = (l_value / r).to("s") if r is not None and r.magnitude > 0 else None
+        return l_value.to("H"), tau_out
+    if tau is not None:
+        return ((tau * r).to("H") if r is not None else None), tau.to("s")
+    return None, None
+
+
+def load_facts(branch: Branch) -> LoadFacts:
+    """Read a load's or coil's electrical facts from its merged values."""
+    component = branch.component
+    if branch.role == COIL:
+        coil = dict(component.value("coil", default={}) or {})
+        r = coil.get("resistance")
+        if r is None and coil.get("voltage") is not None and coil.get("current") is not None:
+            r = (coil["voltage"] / coil["current"]).to("ohm")
+        inductance, tau = _inductance(r, coil.get("inductance"), coil.get("time_constant"))
+        economy = bool(coil.get("economy"))
+        missing = tuple(k for k, v in (("coil.resistance", r),) if v is None)
+        return LoadFacts(
+            branch.key, component.ref, "economy-coil" if economy else "coil", r,
+            inductance, tau, coil.get("release_current"),
+            str(coil.get("suppression", "none")), str(coil.get("supply", "dc")),
+            coil.get("voltage"), missing)
+    values = dict(component.values)
+    r = _resistance_of(values)
+    inductance, tau = _inductance(r, values.get("L"), values.get("tau"))
+    missing = tuple(k for k, v in (("R (or P and V, or I and V)", r),) if v is None)
+    return LoadFacts(
+        branch.key, component.ref, str(values.get("type", "resistive")), r, inductance,
+        tau, values.get("release_current"), str(values.get("suppression", "none")),
+        None, values.get("V"), missing)
+
+
+def category_for(load_type: str, power_device: bool) -> str:
+    """The utilization category a load type needs on a control or power device."""
+    table = POWER_CATEGORY if power_device else CONTROL_CATEGORY
+    return table.get(load_type, "DC-12" if not power_device else "DC-1")
+
+
+def zero(unit: str) -> pint.Quantity:
+    """A zero quantity of ``unit``."""
+    return Q_(0.0, unit)

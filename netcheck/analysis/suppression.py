@@ -1,0 +1,104 @@
+"""Find suppressors: single parts and chains (diode + zener, R + C) between two nets."""
+
+from __future__ import annotations
+
+from collections import Counter
+from collections.abc import Iterable, Mapping, Sequence
+from dataclasses import dataclass
+
+from netcheck.graph import SUPPRESSOR_KINDS, Branch
+
+__all__ = ["Chain", "find_chains", "chain_kind"]
+
+_MAX_CHAIN = 4
+
+
+@dataclass(frozen=True)
+class Chain:
+    """A suppressor between nets ``a`` and ``b``: one part or parts in series.
+
+    ``branches`` run from ``a`` to ``b``; ``polarity`` maps each polarized
+    part's key to +1 when its anode faces ``a``, -1 when it faces ``b``.
+    """
+
+    kind: str
+    a: str
+    b: str
+    branches: tuple[Branch, ...]
+    polarity: Mapping[str, int]
+
+    @property
+    def refs(self) -> tuple[str, ...]:
+        """References of the parts in the chain."""
+        return tuple(b.ref for b in self.branches)
+
+
+def chain_kind(kinds: Iterable[str]) -> str:
+    """Name a chain by its parts: diode, diode-zener, rc, tvs, varistor, ..."""
+    count = Counter(kinds)
+    names = {
+        frozenset({"diode"}): "diode",
+        frozenset({"diode", "zener"}): "diode-zener",
+        frozenset({"diode", "tvs"}): "diode-zener",
+        frozenset({"zener"}): "zener",
+        frozenset({"tvs"}): "tvs",
+        frozenset({"varistor"}): "varistor",
+        frozenset({"rc"}): "rc",
+        frozenset({"resistor", "capacitor"}): "rc",
+        frozenset({"capacitor"}): "capacitor",
+        frozenset({"resistor"}): "resistor",
+        frozenset({"diode", "resistor"}): "diode-resistor",
+    }
+    return names.get(frozenset(count), "+".join(sorted(count)))
+
+
+def _polarity(branch: Branch, toward_a: str) -> int:
+    # Polarized branches run anode (a) -> cathode (b).
+    return 1 if branch.a == toward_a else -1
+
+
+def find_chains(branches: Sequence[Branch], degree: Mapping[str, int],
+                wire: Mapping[str, str]) -> dict[frozenset[str], list[Chain]]:
+    """Every suppressor chain, keyed by the unordered pair of wires it spans.
+
+    A chain passes through an intermediate net only where that net joins
+    exactly two connections, both of suppressor parts. ``wire`` maps a net
+    to its representative after joining nets through fuses and breakers.
+    """
+    suppressors = [b for b in branches if b.role in SUPPRESSOR_KINDS]
+    at: dict[str, list[Branch]] = {}
+    for branch in suppressors:
+        at.setdefault(branch.a, []).append(branch)
+        at.setdefault(branch.b, []).append(branch)
+
+    def inner(net: str) -> bool:
+        return degree.get(net, 0) == 2 and len(at.get(net, ())) == 2
+
+    chains: dict[frozenset[str], list[Chain]] = {}
+    seen: set[tuple[str, ...]] = set()
+    for start in suppressors:
+        for origin in (start.a, start.b):
+            if inner(origin):
+                continue
+            path, net = [start], start.b if origin == start.a else start.a
+            nets = [origin]
+            while inner(net) and len(path) < _MAX_CHAIN:
+                nets.append(net)
+                nxt = next(b for b in at[net] if b is not path[-1])
+                net = nxt.b if nxt.a == net else nxt.a
+                path.append(nxt)
+            if inner(net) or net == origin:
+                continue
+            ident = tuple(sorted(b.key for b in path))
+            if ident in seen:
+                continue
+            seen.add(ident)
+            polarity = {
+                b.key: _polarity(b, nets[i])
+                for i, b in enumerate(path)
+                if b.kind in ("diode", "zener", "tvs") and not b.component.value("bidirectional")
+            }
+            chain = Chain(chain_kind(b.kind for b in path), origin, net, tuple(path), polarity)
+            pair = frozenset({wire.get(origin, origin), wire.get(net, net)})
+            chains.setdefault(pair, []).append(chain)
+    return chains

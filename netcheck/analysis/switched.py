@@ -1,0 +1,189 @@
+"""What each switching element must break: its switched circuit and its numbers."""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+from dataclasses import dataclass, field
+
+import pint
+
+from netcheck.analysis.circuit import solve_dc
+from netcheck.analysis.domain import DomainState
+from netcheck.analysis.loads import LoadFacts
+from netcheck.analysis.suppression import Chain
+from netcheck.analysis.zero_ohm import ZeroOhm
+from netcheck.graph import SUPPLY, Branch
+from netcheck.model import Component, SwitchingElement
+
+__all__ = ["SwitchedLoad", "Suppressor", "ElementAnalysis", "Opening", "open_element",
+           "net_injections"]
+
+# A load "loses supply" when opening the element takes away more than this
+# share of its current (a modelling choice: a load merely re-routed keeps it).
+LOST_SHARE = 0.5
+_TINY = 1e-9  # A
+
+
+@dataclass(frozen=True)
+class Suppressor:
+    """A suppressor found for an element: where it sits and what it is."""
+
+    kind: str  # diode, diode-zener, zener, tvs, varistor, rc, capacitor, resistor, ...
+    placement: str  # across-load, across-element, built-in
+    refs: tuple[str, ...]
+    load: str | None  # the load's reference (across-load, built-in)
+    chain: Chain | None = None
+    conducts: bool = False  # conducts in normal operation (e.g. a reversed diode)
+
+
+@dataclass(frozen=True)
+class SwitchedLoad:
+    """One load that loses supply when the element opens."""
+
+    facts: LoadFacts
+    current: pint.Quantity  # before opening
+    voltage: pint.Quantity  # across the load before opening
+    category: str
+    energy: pint.Quantity | None
+    inductive: bool
+    suppressors: tuple[Suppressor, ...]
+
+
+@dataclass(frozen=True)
+class ElementAnalysis:
+    """Everything the rules need about one switching element."""
+
+    element: SwitchingElement
+    component: Component
+    domain: str | None
+    supply: str | None  # "dc", "ac" or None
+    voltage: pint.Quantity | None = None
+    current: pint.Quantity | None = None
+    loads: tuple[SwitchedLoad, ...] = ()
+    load_category: str | None = None
+    time_constant: pint.Quantity | None = None
+    t95: pint.Quantity | None = None
+    energy: pint.Quantity | None = None
+    suppression: tuple[Suppressor, ...] = ()
+    series_poles: int = 1
+    series_elements: tuple[str, ...] = ()  # same device, in series (this one included)
+    other_series: tuple[str, ...] = ()  # other devices' elements in series
+    bypass: tuple[str, ...] = ()
+    direction: int = 0  # +1 current a -> b, -1 b -> a, 0 none
+    bidirectional: bool = False
+    supply_voltage: pint.Quantity | None = None
+    supply_ref: str | None = None
+    missing: tuple[str, ...] = ()
+    short_circuit: bool = False
+    notes: tuple[str, ...] = field(default=())
+
+    @property
+    def name(self) -> str:
+        """The element's name, ``K1:13-14``."""
+        return self.element.name
+
+    @property
+    def is_power_device(self) -> bool:
+        """Main poles of a contactor (single-digit terminals) are power devices."""
+        return self.component.kind == "contactor" and len(self.element.a) == 1
+
+    @property
+    def inductive_loads(self) -> tuple[SwitchedLoad, ...]:
+        """The switched loads that store energy in an inductance."""
+        return tuple(load for load in self.loads if load.inductive)
+
+
+@dataclass(frozen=True)
+class Opening:
+    """The raw result of opening one element (SI floats)."""
+
+    current_ab: float  # closed-state current a -> b
+    voltage_ab: float  # V(a) - V(b) once open
+    switched: tuple[str, ...]  # keys of load branches that lose supply
+    bypass: tuple[str, ...]
+    floating_nets: frozenset[str]
+
+
+def net_injections(state: DomainState) -> dict[str, float]:
+    """Current leaving each net into non-zero-ohm branches (supplies included)."""
+    injection: dict[str, float] = {}
+    for key, current in state.currents.items():
+        branch = state.branch_by_key.get(key)
+        if branch is None:
+            continue
+        injection[branch.a] = injection.get(branch.a, 0.0) + current
+        injection[branch.b] = injection.get(branch.b, 0.0) - current
+    # A supply delivers what its rail group draws (all into its + terminal).
+    per_group: dict[str, float] = {}
+    for net, value in injection.items():
+        group = state.group[net]
+        per_group[group] = per_group.get(group, 0.0) + value
+    for branch in state.domain.branches:
+        if branch.role != SUPPLY:
+            continue
+        for net in (branch.a, branch.b):
+            group = state.group[net]
+            if group in per_group:
+                injection[net] = injection.get(net, 0.0) - per_group.pop(group)
+    return injection
+
+
+def _floating_side(state: DomainState, side: set[str], terminals: set[str],
+                   group: str) -> tuple[set[str], bool]:
+    """The side that loses its supply; the flag says it is the searched side."""
+    if group in state.rails and side & terminals:
+        return set(state.group_nets[group]) - side, False
+    return side, True
+
+
+def _region(state: DomainState, floating: set[str], group: str) -> set[str]:
+    """Branch keys whose currents can change when ``floating`` is cut off."""
+    comps = set()
+    keys: set[str] = set()
+    for net in floating:
+        for branch in state.attached.get(net, ()):
+            if branch.key not in state.models:
+                continue
+            keys.add(branch.key)
+            for end in (branch.a, branch.b):
+                comp = state.internal_of.get(state.group[end])
+                if comp is not None:
+                    comps.add(comp)
+    if group not in state.rails and group in state.internal_of:
+        comps.add(state.internal_of[group])
+    for comp in comps:
+        keys |= state.comp_branches.get(comp, set())
+    return keys
+
+
+def open_element(state: DomainState, zero: ZeroOhm, injection: Mapping[str, float],
+                 terminals: set[str], branch: Branch) -> Opening:
+    """Open one element in its worst case: series elements closed, bypasses open."""
+    bypass = zero.bypass(branch.key)
+    side, end = zero.sides(branch.key, set(bypass))
+    if not side:
+        return Opening(0.0, 0.0, (), bypass, frozenset())
+    flow = sum(injection.get(net, 0.0) for net in side)
+    current_ab = flow if end == "b" else -flow
+    group = state.group[branch.a]
+    floating, searched = _floating_side(state, side, terminals, group)
+    floating_end = end if searched else ("a" if end == "b" else "b")
+    node = "<open>"
+    rename = {net: node for net in floating}
+    keys = _region(state, floating, group)
+    models = [state.model(k, rename) for k in sorted(keys)]
+    resistors = [m for m in models if hasattr(m, "resistance")]
+    diodes = [m for m in models if not hasattr(m, "resistance")]
+    nodes = sorted({n for m in models for n in (m.a, m.b)} | {node, group})
+    fixed = {n: state.rails[n] for n in nodes if n in state.rails and n != node}
+    solution = solve_dc(nodes, fixed, resistors, diodes)  # type: ignore[arg-type]
+    v_float = solution.potentials[node]
+    v_rest = solution.potentials[group]
+    voltage_ab = (v_rest - v_float) if floating_end == "b" else (v_float - v_rest)
+    switched = tuple(
+        k for k in sorted(keys)
+        if k in state.facts
+        and abs(state.currents.get(k, 0.0)) > _TINY
+        and abs(solution.currents.get(k, 0.0)) < LOST_SHARE * abs(state.currents[k])
+    )
+    return Opening(current_ab, voltage_ab, switched, bypass, frozenset(floating))

@@ -1,0 +1,87 @@
+"""The zero-ohm graph of a group: bypass sets and the two sides of an element."""
+
+from __future__ import annotations
+
+from collections import deque
+from collections.abc import Iterable
+
+import networkx as nx
+
+from netcheck.graph import SWITCH, Branch
+
+__all__ = ["ZeroOhm"]
+
+
+class ZeroOhm:
+    """Closed switching elements and protective devices of one domain, as a graph."""
+
+    def __init__(self, branches: Iterable[Branch], shunts: Iterable[Branch] = ()) -> None:
+        """Build from zero-ohm branches; ``shunts`` are loads or resistors whose
+        two ends lie in one group: they close cycles (a precharge resistor in
+        parallel with a main contact) but carry no current in the closed state.
+        """
+        self.adjacent: dict[str, list[tuple[str, str]]] = {}
+        self.by_key: dict[str, Branch] = {}
+        self.shunt_keys: set[str] = set()
+        subdivided = nx.Graph()
+        for branch in shunts:
+            self.shunt_keys.add(branch.key)
+            subdivided.add_edge(("net", branch.a), ("edge", branch.key))
+            subdivided.add_edge(("edge", branch.key), ("net", branch.b))
+        for branch in branches:
+            self.by_key[branch.key] = branch
+            self.adjacent.setdefault(branch.a, []).append((branch.key, branch.b))
+            self.adjacent.setdefault(branch.b, []).append((branch.key, branch.a))
+            edge_node = ("edge", branch.key)
+            subdivided.add_edge(("net", branch.a), edge_node)
+            subdivided.add_edge(edge_node, ("net", branch.b))
+        self.block_of: dict[str, int] = {}
+        self.blocks: list[list[str]] = []
+        for nodes in nx.biconnected_components(subdivided):
+            if len(nodes) <= 2:
+                continue  # a bridge: its two halves are blocks of their own
+            edges = sorted(key for kind, key in nodes if kind == "edge")
+            for key in edges:
+                self.block_of[key] = len(self.blocks)
+            self.blocks.append(edges)
+
+    def bypass(self, key: str) -> tuple[str, ...]:
+        """Switching elements that could carry the current around ``key``."""
+        block = self.block_of.get(key)
+        if block is None:
+            return ()
+        return tuple(k for k in self.blocks[block]
+                     if k != key and k in self.by_key and self.by_key[k].role == SWITCH)
+
+    def bypass_through_load(self, key: str) -> bool:
+        """Whether a bypass path of ``key`` runs through a load or resistor."""
+        block = self.block_of.get(key)
+        return block is not None and any(k in self.shunt_keys for k in self.blocks[block])
+
+    def sides(self, key: str, removed: set[str]) -> tuple[set[str], str]:
+        """The smaller side of ``key`` once it and ``removed`` are open.
+
+        Returns (nets of that side, "a" or "b": the element terminal it holds).
+        The search runs from both ends in step, so it costs the smaller side.
+        """
+        branch = self.by_key[key]
+        skip = removed | {key}
+        seen = {"a": {branch.a}, "b": {branch.b}}
+        queues = {"a": deque([branch.a]), "b": deque([branch.b])}
+        if branch.a == branch.b:
+            return {branch.a}, "a"
+        while True:
+            for side in ("b", "a"):
+                queue = queues[side]
+                if not queue:
+                    return seen[side], side
+                net = queue.popleft()
+                for edge, other in self.adjacent.get(net, ()):
+                    if edge in skip:
+                        continue
+                    if other in seen["a" if side == "b" else "b"]:
+                        # Still joined around the element: nothing is switched.
+                        return set(), side
+                    if other not in seen[side]:
+                        seen[side].add(other)
+                        queues[side].append(other)

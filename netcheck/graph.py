@@ -1,0 +1,165 @@
+"""The circuit graph: nets as nodes, one edge per branch, and supply domains."""
+
+from __future__ import annotations
+
+from collections.abc import Iterator
+from dataclasses import dataclass, field
+
+import networkx as nx
+
+from netcheck.model import Component, Netlist, SwitchingElement
+
+__all__ = [
+    "Branch",
+    "Domain",
+    "Graph",
+    "build_graph",
+    "ROLE",
+    "BRANCH",
+    "SUPPRESSOR_KINDS",
+    "NON_CONDUCTING",
+]
+
+# Edge attribute keys.
+ROLE = "role"
+BRANCH = "branch"
+
+# Roles of branches.
+SUPPLY, SWITCH, CONDUCTOR, LOAD, COIL = "supply", "switch", "conductor", "load", "coil"
+SUPPRESSOR_KINDS = frozenset({"diode", "zener", "tvs", "varistor", "rc", "capacitor",
+                              "resistor"})
+# Branches that carry no current in a DC steady state and do not join domains.
+NON_CONDUCTING = frozenset({"capacitor", "rc", "varistor", "tvs"})
+
+
+@dataclass(frozen=True)
+class Branch:
+    """One conducting path of a component between two nets (``a`` to ``b``)."""
+
+    component: Component
+    role: str
+    a: str
+    b: str
+    element: SwitchingElement | None = None
+
+    @property
+    def ref(self) -> str:
+        """The component's reference."""
+        return self.component.ref
+
+    @property
+    def kind(self) -> str:
+        """The component's kind."""
+        return self.component.kind
+
+    @property
+    def key(self) -> str:
+        """A unique name: the element name, or ``REF`` (``REF:coil`` for coils)."""
+        if self.element is not None:
+            return self.element.name
+        return f"{self.ref}:coil" if self.role == COIL else self.ref
+
+
+@dataclass
+class Domain:
+    """The nets reached from one or more supplies through conducting elements."""
+
+    nets: frozenset[str]
+    supplies: tuple[Component, ...]
+    branches: list[Branch] = field(default_factory=list)
+
+    @property
+    def name(self) -> str:
+        """The reference of the domain's first supply, or the first net."""
+        return self.supplies[0].ref if self.supplies else sorted(self.nets)[0]
+
+    @property
+    def kind(self) -> str | None:
+        """``dc``, ``ac``, or None (no supply / mixed)."""
+        kinds = {supply_kind(s) for s in self.supplies}
+        return kinds.pop() if len(kinds) == 1 else None
+
+
+def supply_kind(component: Component) -> str:
+    """``dc`` or ``ac`` for a supply component."""
+    return "ac" if component.value("ac") is not None else "dc"
+
+
+def _component_branches(component: Component) -> Iterator[Branch]:
+    net = component.net_of
+    kind = component.kind
+    if kind == "supply":
+        a, b = ("+", "-") if net("+") or net("-") else ("L", "N")
+        if net(a) and net(b):
+            yield Branch(component, SUPPLY, net(a), net(b))  # type: ignore[arg-type]
+        return
+    if kind in ("relay", "contactor") and net("A1") and net("A2"):
+        yield Branch(component, COIL, net("A1"), net("A2"))  # type: ignore[arg-type]
+    for element in component.elements:
+        a, b = net(element.a), net(element.b)
+        if a and b:
+            yield Branch(component, SWITCH, a, b, element)
+    if kind in ("fuse", "breaker"):
+        for pole in component.poles:
+            a, b = net(pole.common), net(pole.no or "")
+            if a and b:
+                yield Branch(component, CONDUCTOR, a, b)
+        return
+    if kind in ("relay", "contactor", "switch", "ssr", "output"):
+        return
+    terminals = [c.terminal for c in component.connections]
+    if len(terminals) == 2:
+        order = {"1": 0, "+": 0, "A": 0, "2": 1, "-": 1, "K": 1}
+        first, second = sorted(terminals, key=lambda t: order.get(t, 2))
+        role = LOAD if kind == "load" else kind
+        yield Branch(component, role, net(first), net(second))  # type: ignore[arg-type]
+
+
+@dataclass
+class Graph:
+    """The design as a multigraph of nets, with its branches and domains."""
+
+    netlist: Netlist
+    graph: nx.MultiGraph
+    branches: list[Branch]
+    domains: list[Domain]
+    domain_of: dict[str, Domain]
+    connections: dict[str, list[tuple[Component, str]]]
+
+    def domain(self, net: str) -> Domain | None:
+        """The domain a net belongs to."""
+        return self.domain_of.get(net)
+
+
+def build_graph(netlist: Netlist) -> Graph:
+    """Build the net graph and the supply domains of a netlist."""
+    graph = nx.MultiGraph()
+    connections: dict[str, list[tuple[Component, str]]] = {}
+    for component in netlist.components:
+        for connection in component.connections:
+            connections.setdefault(connection.net, []).append((component, connection.terminal))
+            graph.add_node(connection.net)
+    branches = [b for c in netlist.components for b in _component_branches(c)]
+    joining = nx.Graph()
+    joining.add_nodes_from(graph.nodes)
+    for branch in branches:
+        graph.add_edge(branch.a, branch.b, key=branch.key, **{ROLE: branch.role,
+                                                               BRANCH: branch})
+        if branch.role not in NON_CONDUCTING:
+            joining.add_edge(branch.a, branch.b)
+    domains, domain_of = [], {}
+    supplies_at: dict[str, list[Component]] = {}
+    for branch in branches:
+        if branch.role == SUPPLY:
+            supplies_at.setdefault(branch.a, []).append(branch.component)
+    for nets in nx.connected_components(joining):
+        supplies = sorted({s.ref: s for n in nets for s in supplies_at.get(n, [])}.values(),
+                          key=lambda s: (s.span, s.ref))
+        domain = Domain(frozenset(nets), tuple(supplies))
+        domains.append(domain)
+        for net in nets:
+            domain_of[net] = domain
+    for branch in branches:
+        domain_of[branch.a].branches.append(branch)
+    domains.sort(key=lambda d: (d.name, min(d.nets)))
+    return Graph(netlist, graph, branches, domains, domain_of, connections)
