@@ -1,0 +1,1 @@
+"""Circuit analysis: pure functions, one module per topic."""
