@@ -1,0 +1,176 @@
+"""Reports: what one run found, prepared once for the text, JSON and SARIF writers.
+
+The writers (``text``, ``json``, ``sarif``) are functions of (report, catalogue)
+to text; they do no analysis and hold no rule logic.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import math
+import os
+from collections.abc import Iterable, Mapping
+from dataclasses import dataclass
+from pathlib import Path, PurePath
+from typing import Any
+
+from netcheck.catalogue import RuleMeta
+from netcheck.findings import (
+    Finding,
+    Severity,
+    fingerprint,
+    placeholders,
+    quantity_dict,
+)
+
+__all__ = [
+    "CAUTION",
+    "Report",
+    "display_path",
+    "prepare_finding",
+    "unique_rules",
+    "value_dicts",
+    "fix_dict",
+    "references",
+]
+
+# Printed once per run in text output (cli.md, "Text output").
+CAUTION = (
+    "Results depend on the rating data given; they do not replace the "
+    "manufacturer's data, a qualified person's review, or local codes."
+)
+
+
+def display_path(file: str | os.PathLike[str]) -> str:
+    """Return ``file`` relative to the working directory when inside it, posix style.
+
+    Paths outside the working directory stay absolute (there is no shorter name
+    that means the same file everywhere).
+    """
+    path = Path(file)
+    absolute = Path(os.path.abspath(path))
+    try:
+        relative = absolute.relative_to(Path(os.path.abspath(os.getcwd())))
+    except ValueError:
+        return absolute.as_posix()
+    return PurePath(relative).as_posix() or "."
+
+
+def prepare_finding(finding: Finding) -> Finding:
+    """Give a finding its display path and, if it has none, a fingerprint."""
+    file = display_path(finding.span.file) if finding.span.file else ""
+    span = dataclasses.replace(finding.span, file=file)
+    mark = finding.fingerprint or fingerprint(
+        finding.rule, file, finding.element, finding.key
+    )
+    return dataclasses.replace(finding, span=span, fingerprint=mark)
+
+
+@dataclass(frozen=True)
+class Report:
+    """The findings of one run, sorted, with the files read and what was suppressed.
+
+    ``findings`` holds waived findings too (``finding.waived`` is the reason);
+    they are shown only where a format has a place for them and never count
+    towards ``--fail-on``. Findings matched by a baseline are not kept at all;
+    ``baseline_suppressed`` says how many there were.
+    """
+
+    findings: tuple[Finding, ...]
+    files: tuple[str, ...] = ()
+    baseline_suppressed: int = 0
+
+    @classmethod
+    def build(
+        cls,
+        findings: Iterable[Finding],
+        files: Iterable[str] = (),
+        baseline_suppressed: int = 0,
+    ) -> Report:
+        """Prepare and sort the findings, sort and de-duplicate the files."""
+        # Two designs that include one sheet can both report the same finding.
+        unique = {_identity(f): f for f in map(prepare_finding, findings)}
+        prepared = sorted(unique.values(), key=_order)
+        shown = sorted({display_path(f) for f in files})
+        return cls(tuple(prepared), tuple(shown), baseline_suppressed)
+
+    @property
+    def active(self) -> tuple[Finding, ...]:
+        """The findings that are not waived."""
+        return tuple(f for f in self.findings if f.waived is None)
+
+    @property
+    def waived(self) -> tuple[Finding, ...]:
+        """The waived findings."""
+        return tuple(f for f in self.findings if f.waived is not None)
+
+    def counts(self) -> dict[str, int]:
+        """Count active findings by severity label, most severe first."""
+        counts = {s.label: 0 for s in sorted(Severity, reverse=True)}
+        for finding in self.active:
+            counts[finding.severity.label] += 1
+        return counts
+
+    def summary(self) -> dict[str, int]:
+        """Return counts by severity, the total, waived and baseline-suppressed."""
+        counts = self.counts()
+        return {
+            **counts,
+            "total": sum(counts.values()),
+            "waived": len(self.waived),
+            "baseline_suppressed": self.baseline_suppressed,
+        }
+
+
+def _order(finding: Finding) -> tuple[Any, ...]:
+    # Finding.sort_key first; severity, message and fingerprint only break ties so
+    # that equal keys can never reorder between runs.
+    return (
+        *finding.sort_key(),
+        -finding.severity,
+        finding.message,
+        finding.fingerprint,
+    )
+
+
+def _identity(finding: Finding) -> tuple[Any, ...]:
+    return (*_order(finding), finding.waived)
+
+
+def unique_rules(catalogue: Mapping[str, RuleMeta]) -> list[RuleMeta]:
+    """Return the catalogue's rules once each (aliases dropped), sorted by name."""
+    return sorted(
+        {m.name: m for m in catalogue.values()}.values(), key=lambda m: m.name
+    )
+
+
+def value_dicts(values: Mapping[str, Any]) -> dict[str, dict[str, Any]]:
+    """Each value as ``{"value", "unit", "text"}``, keyed by name in sorted order."""
+    out = {}
+    for name in sorted(values):
+        entry = quantity_dict(values[name])
+        number = entry["value"]
+        if isinstance(number, float) and not math.isfinite(number):
+            # JSON has no NaN or infinity; the text still says what it was.
+            entry = {**entry, "value": None}
+        out[name] = entry
+    return out
+
+
+def fix_dict(finding: Finding, meta: RuleMeta | None) -> dict[str, Any] | None:
+    """Return the fix as ``{"text", "values"}`` (values its templates use) or None."""
+    if finding.fix is None:
+        return None
+    used: set[str] = set()
+    if meta is not None:
+        for template in meta.fixes.values():
+            used |= placeholders(template)
+    values = {k: v for k, v in finding.values.items() if k in used}
+    return {"text": finding.fix, "values": value_dicts(values)}
+
+
+def references(finding: Finding, meta: RuleMeta | None) -> list[str]:
+    """Return the finding's references, or its rule's where it carries none."""
+    if finding.references:
+        return list(finding.references)
+    return list(meta.references) if meta is not None else []

@@ -1,0 +1,133 @@
+"""The SARIF 2.1.0 report: one run, the rule catalogue as the driver's rules.
+
+Artifact URIs are relative to the working directory under the base id
+``%SRCROOT%``; the base itself is left for the consumer to resolve so that the
+output holds no absolute path and stays byte-identical between machines.
+Waived findings are results with an ``inSource`` suppression that carries the
+waiver's reason.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+from pathlib import Path
+from typing import Any
+from urllib.parse import quote
+
+from netcheck import __version__
+from netcheck.catalogue import RuleMeta
+from netcheck.findings import Finding, Severity
+from netcheck.report import Report, fix_dict, references, unique_rules, value_dicts
+from netcheck.report.json import dump
+
+__all__ = ["SCHEMA_URI", "LEVELS", "render_sarif"]
+
+SCHEMA_URI = (
+    "https://docs.oasis-open.org/sarif/sarif/v2.1.0/errata01/os/schemas/"
+    "sarif-schema-2.1.0.json"
+)
+# rules.md: SARIF levels error, warning, note.
+LEVELS = {Severity.ERROR: "error", Severity.WARNING: "warning", Severity.INFO: "note"}
+SRCROOT = "%SRCROOT%"
+
+
+def render_sarif(report: Report, catalogue: Mapping[str, RuleMeta]) -> str:
+    """Render the report as a SARIF 2.1.0 log with one run."""
+    rules = unique_rules(catalogue)
+    index = {meta.name: i for i, meta in enumerate(rules)}
+    run = {
+        "tool": {
+            "driver": {
+                "name": "netcheck",
+                "version": __version__,
+                "semanticVersion": __version__,
+                "rules": [_descriptor(meta) for meta in rules],
+            }
+        },
+        "originalUriBaseIds": {
+            SRCROOT: {"description": {"text": "The directory netcheck was run in."}}
+        },
+        "columnKind": "unicodeCodePoints",
+        "results": [
+            _result(f, catalogue.get(f.rule), index.get(f.rule))
+            for f in report.findings
+        ],
+        "properties": {"summary": report.summary()},
+    }
+    log = {"$schema": SCHEMA_URI, "version": "2.1.0", "runs": [run]}
+    return dump(log)
+
+
+def _descriptor(meta: RuleMeta) -> dict[str, Any]:
+    return {
+        "id": meta.name,
+        "name": meta.name,
+        "shortDescription": {"text": meta.title},
+        "fullDescription": {"text": meta.rationale},
+        "help": {"text": help_text(meta)},
+        "defaultConfiguration": {"level": LEVELS[meta.severity]},
+        "properties": {"family": meta.family, "tags": [meta.family]},
+    }
+
+
+def help_text(meta: RuleMeta) -> str:
+    """Join the rationale, the references and the fix template(s) as help text."""
+    parts = [meta.rationale]
+    if meta.references:
+        parts.append("References: " + "; ".join(meta.references) + ".")
+    for variant, template in sorted(meta.fixes.items()):
+        label = "Fix" if variant == "default" else f"Fix ({variant})"
+        parts.append(f"{label}: {template}")
+    return "\n\n".join(parts)
+
+
+def _result(
+    finding: Finding, meta: RuleMeta | None, index: int | None
+) -> dict[str, Any]:
+    result: dict[str, Any] = {"ruleId": finding.rule}
+    if index is not None:
+        result["ruleIndex"] = index
+    result.update(
+        {
+            "level": LEVELS[finding.severity],
+            "message": {"text": finding.message},
+            "locations": [_location(finding)],
+            "partialFingerprints": {"netcheck/v1": finding.fingerprint},
+            "properties": {
+                "element": finding.element,
+                "values": value_dicts(finding.values),
+                "fix": fix_dict(finding, meta),
+                "references": references(finding, meta),
+            },
+        }
+    )
+    if finding.waived is not None:
+        result["suppressions"] = [
+            {"kind": "inSource", "status": "accepted", "justification": finding.waived}
+        ]
+    return result
+
+
+def _location(finding: Finding) -> dict[str, Any]:
+    span = finding.span
+    region: dict[str, int] = {"startLine": max(1, span.line)}
+    if span.column >= 1:
+        region["startColumn"] = span.column
+    if span.end_line >= span.line and span.end_line >= 1 and span.end_column >= 1:
+        if (span.end_line, span.end_column) > (span.line, span.column):
+            region["endLine"] = span.end_line
+            region["endColumn"] = span.end_column
+    return {
+        "physicalLocation": {
+            "artifactLocation": artifact_location(span.file),
+            "region": region,
+        }
+    }
+
+
+def artifact_location(file: str) -> dict[str, str]:
+    """Return a relative URI under ``%SRCROOT%``, or a ``file:`` URI outside it."""
+    path = Path(file)
+    if path.is_absolute():
+        return {"uri": path.as_uri()}
+    return {"uri": quote(path.as_posix()), "uriBaseId": SRCROOT}

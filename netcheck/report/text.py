@@ -1,0 +1,210 @@
+"""The text report: a grouped rich view on a terminal, one line a finding when piped.
+
+Waived findings are not listed in text; the summary says how many there were.
+"""
+
+from __future__ import annotations
+
+import io
+import re
+import textwrap
+from collections.abc import Mapping
+from itertools import groupby
+
+from rich.console import Console, Group, RenderableType
+from rich.padding import Padding
+from rich.table import Table
+from rich.text import Text
+
+from netcheck.catalogue import RuleMeta
+from netcheck.findings import Finding, Severity, quantity_dict
+from netcheck.report import CAUTION, Report, unique_rules
+
+__all__ = [
+    "render_plain",
+    "render_rich",
+    "summary_line",
+    "render_rules",
+    "render_explain",
+    "to_text",
+]
+
+_TRAILING = re.compile(r"[ \t]+((?:\x1b\[[0-9;]*m)*)$", re.MULTILINE)
+STYLES = {Severity.ERROR: "bold red", Severity.WARNING: "yellow", Severity.INFO: "cyan"}
+
+
+def _one_line(text: str) -> str:
+    return " ".join(text.split())
+
+
+def render_plain(report: Report) -> str:
+    """Render ``file:line:column: severity: message [rule]`` lines and a summary."""
+    lines = [
+        f"{f.span.file}:{f.span.line}:{f.span.column}: {f.severity.label}: "
+        f"{_one_line(f.message)} [{f.rule}]"
+        for f in report.active
+    ]
+    lines.append(summary_line(report))
+    lines.append(f"note: {CAUTION}")
+    return "\n".join(lines) + "\n"
+
+
+def _plural(count: int, word: str) -> str:
+    return f"{count} {word}" if count == 1 or word == "info" else f"{count} {word}s"
+
+
+def summary_line(report: Report) -> str:
+    """Summarise in one line: findings by severity, files, and what was hidden."""
+    counts = report.counts()
+    total = sum(counts.values())
+    files = _plural(len(report.files), "file") if report.files else ""
+    where = f" in {files}" if files else ""
+    if total:
+        by_severity = ", ".join(_plural(n, label) for label, n in counts.items())
+        line = f"{_plural(total, 'finding')}{where}: {by_severity}"
+    else:
+        line = f"no findings{where}"
+    hidden = []
+    if report.waived:
+        hidden.append(f"{len(report.waived)} waived")
+    if report.baseline_suppressed:
+        hidden.append(f"{report.baseline_suppressed} in the baseline")
+    return f"{line} ({', '.join(hidden)})" if hidden else line
+
+
+def _groups(findings: tuple[Finding, ...]) -> list[list[Finding]]:
+    """Group one file's findings by element, the most severe group first."""
+    by_element: dict[str, list[Finding]] = {}
+    for finding in findings:
+        by_element.setdefault(finding.element, []).append(finding)
+    groups = [
+        sorted(group, key=lambda f: (-f.severity, f.span.line, f.span.column, f.rule))
+        for group in by_element.values()
+    ]
+    return sorted(groups, key=lambda g: (-g[0].severity, g[0].span.line, g[0].element))
+
+
+def _values_text(finding: Finding) -> str:
+    return ", ".join(
+        f"{name} = {quantity_dict(finding.values[name])['text']}"
+        for name in sorted(finding.values)
+    )
+
+
+def _finding_table(group: list[Finding]) -> Table:
+    table = Table.grid(padding=(0, 1))
+    table.add_column(width=7, no_wrap=True)
+    table.add_column(overflow="fold")
+    for finding in group:
+        body = Text()
+        body.append(
+            f"{finding.span.file}:{finding.span.line}:{finding.span.column}", "dim"
+        )
+        body.append("  ")
+        body.append(_one_line(finding.message))
+        body.append(f" [{finding.rule}]", "dim")
+        if finding.values:
+            body.append("\nvalues: ", "bold")
+            body.append(_values_text(finding))
+        if finding.fix:
+            body.append("\nfix: ", "bold green")
+            body.append(_one_line(finding.fix))
+        label = Text(finding.severity.label, STYLES[finding.severity])
+        table.add_row(label, body)
+    return table
+
+
+def render_rich(report: Report, *, color: bool = True, width: int = 100) -> str:
+    """Render the grouped terminal view (file, element, most severe first)."""
+    parts: list[RenderableType] = []
+    for file, findings in groupby(report.active, key=lambda f: f.span.file):
+        parts.append(Text(file, "bold underline"))
+        for group in _groups(tuple(findings)):
+            parts.append(
+                Padding(
+                    Text(group[0].element or "(design)", "bold"),
+                    (0, 0, 0, 2),
+                    expand=False,
+                )
+            )
+            parts.append(Padding(_finding_table(group), (0, 0, 1, 4), expand=False))
+    parts.append(Text(summary_line(report), "bold"))
+    parts.append(Text(CAUTION, "italic dim"))
+    return to_text(Group(*parts), color=color, width=width)
+
+
+def to_text(renderable: RenderableType, *, color: bool, width: int) -> str:
+    """Render with rich to a string (ANSI styles only when ``color``)."""
+    buffer = io.StringIO()
+    console = Console(
+        file=buffer,
+        width=width,
+        force_terminal=color,
+        no_color=not color,
+        color_system="standard" if color else None,
+        highlight=False,
+        emoji=False,
+        soft_wrap=False,
+    )
+    console.print(renderable)
+    # Rich pads wrapped cells to the column width; trailing blanks only get in the way.
+    return _TRAILING.sub(r"\1", buffer.getvalue())
+
+
+def render_rules(
+    catalogue: Mapping[str, RuleMeta], *, terminal: bool, color: bool, width: int = 100
+) -> str:
+    """Render the rule list (name, severity, family, title) by family and name."""
+    rules = sorted(unique_rules(catalogue), key=lambda m: (m.family, m.name))
+    if not terminal:
+        rows = [("name", "severity", "family", "title")]
+        rows += [(m.name, m.severity.label, m.family, m.title) for m in rules]
+        widths = [max(len(row[i]) for row in rows) for i in range(3)]
+        lines = [
+            "  ".join(cell.ljust(w) for cell, w in zip(row[:3], widths, strict=True))
+            + "  "
+            + row[3]
+            for row in rows
+        ]
+        return "\n".join(lines) + "\n"
+    table = Table(box=None, pad_edge=False, header_style="bold")
+    for heading in ("name", "severity", "family", "title"):
+        table.add_column(heading, no_wrap=heading != "title")
+    for meta in rules:
+        severity = Text(meta.severity.label, STYLES[meta.severity])
+        table.add_row(meta.name, severity, meta.family, meta.title)
+    return to_text(table, color=color, width=width)
+
+
+def render_explain(meta: RuleMeta, asked: str) -> str:
+    """One rule: title, severity, rationale, references, templates and margins."""
+    head = meta.name if asked == meta.name else f"{meta.name} (alias: {asked})"
+    lines = [head, f"  {meta.title}", ""]
+    lines.append(f"default severity: {meta.severity.label}")
+    lines.append(f"family: {meta.family}")
+    if meta.aliases:
+        lines.append(f"aliases: {', '.join(meta.aliases)}")
+    lines += ["", "rationale:", _wrap(meta.rationale)]
+    if meta.references:
+        lines += ["", "references:", *(f"  - {r}" for r in meta.references)]
+    lines += ["", "message:", *_templates(meta.messages)]
+    if meta.fixes:
+        lines += ["", "fix:", *_templates(meta.fixes)]
+    if meta.margins:
+        lines += ["", "margins (configurable under 'margins' in netcheck.yaml):"]
+        for name in sorted(meta.margins):
+            margin = meta.margins[name]
+            lines.append(f"  {name}: {margin.default:g}  (source: {margin.source})")
+            if margin.description:
+                lines.append(f"      {margin.description}")
+    return "\n".join(lines) + "\n"
+
+
+def _wrap(text: str) -> str:
+    return textwrap.fill(text, width=86, initial_indent="  ", subsequent_indent="  ")
+
+
+def _templates(templates: Mapping[str, str]) -> list[str]:
+    if set(templates) == {"default"}:
+        return [f"  {templates['default']}"]
+    return [f"  {variant}: {text}" for variant, text in sorted(templates.items())]
