@@ -1,0 +1,5 @@
+"""``python -m netcheck``: the same as the ``netcheck`` console script."""
+
+from netcheck.cli import main
+
+raise SystemExit(main())
