@@ -1,0 +1,144 @@
+"""``netcheck size``: option parsing, exit codes, the Size JSON shape and the text."""
+
+from __future__ import annotations
+
+import argparse
+import dataclasses
+import io
+import json
+
+import pytest
+from rich.console import Console
+
+from netcheck.report.size import render_size_text, size_to_json
+from netcheck.size_cli import register
+from netcheck.sizing import size_load
+from netcheck.units import Q_
+
+SPEC = ["--voltage", "110V", "--resistance", "440ohm", "--inductance", "2.1H"]
+KINDS = ["diode", "diode-zener", "varistor", "tvs", "rc"]
+SI = {"V", "A", "s", "J", "ohm", "F"}
+
+
+def run(argv, capsys):
+    parser = argparse.ArgumentParser(prog="netcheck")
+    register(parser.add_subparsers(dest="command"))
+    args = parser.parse_args(["size", *argv])
+    code = args.func(args)
+    out, err = capsys.readouterr()
+    return code, out, err
+
+
+def assert_quantity(entry, unit):
+    assert list(entry) == ["value", "unit", "text"]
+    assert entry["unit"] == unit
+    assert isinstance(entry["value"], float)
+    assert isinstance(entry["text"], str) and entry["text"]
+
+
+def test_size_json_shape(capsys):
+    code, out, err = run([*SPEC, "--format", "json"], capsys)
+    assert code == 0 and err == ""
+    data = json.loads(out)
+    assert list(data) == ["format", "load", "options"]
+    assert data["format"] == "netcheck-size/1"
+    assert list(data["load"]) == ["current", "time_constant", "energy"]
+    for key, unit in (("current", "A"), ("time_constant", "s"), ("energy", "J")):
+        assert_quantity(data["load"][key], unit)
+    # V/R for the cli.md example (first principles)
+    assert data["load"]["current"]["value"] == pytest.approx(0.25)
+    assert [o["kind"] for o in data["options"]] == KINDS
+    for entry in data["options"]:
+        keys = ["kind", "peak_voltage", "release_time", "clamp_energy", "components"]
+        assert list(entry) == keys
+        assert_quantity(entry["peak_voltage"], "V")
+        assert_quantity(entry["release_time"], "s")
+        assert_quantity(entry["clamp_energy"], "J")
+        assert entry["components"]
+        for value in entry["components"].values():
+            assert value["unit"] in SI
+            assert_quantity(value, value["unit"])
+    rc = data["options"][4]["components"]
+    assert rc["capacitance"]["unit"] == "F" and rc["resistance"]["unit"] == "ohm"
+
+
+def test_size_json_is_deterministic(capsys):
+    first = run([*SPEC, "--format", "json"], capsys)[1]
+    second = run([*SPEC, "--format", "json"], capsys)[1]
+    assert first == second
+
+
+def test_options_reach_the_sizing(capsys):
+    argv = [
+        *SPEC,
+        "--clamp",
+        "250V",
+        "--vf",
+        "0.7V",
+        "--release-current",
+        "25mA",
+        "--format",
+        "json",
+    ]
+    data = json.loads(run(argv, capsys)[1])
+    diode, zener = data["options"][0], data["options"][1]
+    assert diode["peak_voltage"]["value"] == pytest.approx(110.7)  # Vs + Vf
+    assert zener["components"]["zener_voltage"]["value"] == pytest.approx(250)
+    assert zener["peak_voltage"]["value"] == pytest.approx(110 + 250 + 0.7)
+
+
+def test_unbounded_values_are_null_in_json():
+    result = size_load(Q_(24, "V"), Q_(48, "ohm"), Q_(0.48, "H"))
+    endless = dataclasses.replace(result.options[0], release_time=Q_(float("inf"), "s"))
+    result = dataclasses.replace(result, options=(endless, *result.options[1:]))
+    entry = json.loads(size_to_json(result))["options"][0]["release_time"]
+    assert entry == {"value": None, "unit": "s", "text": "unbounded"}
+
+
+def test_text_report_compares_options_and_cautions(capsys):
+    code, out, _ = run([*SPEC, "--no-color"], capsys)
+    assert code == 0
+    for kind in KINDS:
+        assert kind in out
+    assert "reverse voltage ≥ 1.1 kV" in out  # 10 x 110 V default margin
+    assert "do not replace the manufacturer's data" in " ".join(out.split())
+
+
+def test_render_size_text_to_a_console():
+    buffer = io.StringIO()
+    console = Console(file=buffer, width=100, no_color=True)
+    render_size_text(size_load(Q_(24, "V"), Q_(48, "ohm"), Q_(0.48, "H")), console)
+    text = buffer.getvalue()
+    assert "what to buy" in text and "I²/10 rule" in text
+
+
+@pytest.mark.parametrize(
+    ("argv", "fragment"),
+    [
+        (
+            ["--voltage", "11xV", "--resistance", "440ohm", "--inductance", "2.1H"],
+            "--voltage:",
+        ),
+        (
+            ["--voltage", "110V", "--resistance", "440V", "--inductance", "2.1H"],
+            "--resistance:",
+        ),
+        (
+            ["--voltage", "110V", "--resistance=-4ohm", "--inductance", "2.1H"],
+            "resistance must be positive",
+        ),
+        ([*SPEC, "--release-current", "3"], "--release-current:"),
+    ],
+)
+def test_bad_quantities_exit_2_without_traceback(argv, fragment, capsys):
+    code, out, err = run(argv, capsys)
+    assert code == 2 and out == ""
+    assert err.startswith("netcheck: error: ")
+    assert fragment in err
+    assert "Traceback" not in err
+
+
+def test_missing_required_option_is_a_usage_error(capsys):
+    with pytest.raises(SystemExit) as stop:
+        run(["--voltage", "24V"], capsys)
+    assert stop.value.code == 2
