@@ -54,22 +54,20 @@ def _plural(count: int, word: str) -> str:
 
 
 def summary_line(report: Report) -> str:
-    """Summarise in one line: findings by severity, files, and what was hidden."""
+    """Summarise in one line: findings by severity, files read, what was hidden."""
     counts = report.counts()
     total = sum(counts.values())
-    files = _plural(len(report.files), "file") if report.files else ""
-    where = f" in {files}" if files else ""
     if total:
         by_severity = ", ".join(_plural(n, label) for label, n in counts.items())
-        line = f"{_plural(total, 'finding')}{where}: {by_severity}"
+        line = f"{_plural(total, 'finding')}: {by_severity}"
     else:
-        line = f"no findings{where}"
-    hidden = []
+        line = "no findings"
+    notes = [f"{_plural(len(report.files), 'file')} read"] if report.files else []
     if report.waived:
-        hidden.append(f"{len(report.waived)} waived")
+        notes.append(f"{len(report.waived)} waived")
     if report.baseline_suppressed:
-        hidden.append(f"{report.baseline_suppressed} in the baseline")
-    return f"{line} ({', '.join(hidden)})" if hidden else line
+        notes.append(f"{report.baseline_suppressed} in the baseline")
+    return f"{line} ({', '.join(notes)})" if notes else line
 
 
 def _groups(findings: tuple[Finding, ...]) -> list[list[Finding]]:

@@ -128,7 +128,7 @@ def test_cli_round_trip_after_reformat(project, capsys):
     )
     assert project.run("check", "a.cnet", "--baseline", "netcheck-baseline.json") == 0
     out = capsys.readouterr().out.splitlines()
-    assert out[0] == "no findings in 1 file (3 in the baseline)"
+    assert out[0] == "no findings (1 file read, 3 in the baseline)"
     # A new finding is reported; the old ones stay quiet.
     project.write(
         "a.cnet",

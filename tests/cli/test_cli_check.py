@@ -53,7 +53,7 @@ def test_fail_on(project, fail_on, lines, status):
 def test_waived_finding_does_not_fail(project, capsys):
     project.write("a.cnet", design(ERROR + " waived=rated by test report 17"))
     assert project.run("check", "a.cnet") == 0
-    assert "(1 waived)" in capsys.readouterr().out
+    assert "(1 file read, 1 waived)" in capsys.readouterr().out
 
 
 def test_exit_2_input_error_located_without_traceback(project, capsys):
@@ -147,7 +147,7 @@ def test_piped_text_format(project, capsys):
     lines = capsys.readouterr().out.splitlines()
     assert re.fullmatch(r"a\.cnet:2:1: info: .+ \[single-connection-net\]", lines[0])
     assert re.fullmatch(r"a\.cnet:3:1: error: .+ \[dc-break-over-rating\]", lines[1])
-    assert lines[2] == "2 findings in 1 file: 1 error, 0 warnings, 1 info"
+    assert lines[2] == "2 findings: 1 error, 0 warnings, 1 info (1 file read)"
     assert lines[3] == f"note: {CAUTION}"
     assert len(lines) == 4
 

@@ -31,18 +31,19 @@ def test_plain_one_line_a_finding(report):
 
 def test_plain_summary_and_caution_last(report):
     lines = render_plain(report).splitlines()
-    assert lines[-2] == "4 findings in 2 files: 2 errors, 1 warning, 1 info (1 waived)"
+    summary = "4 findings: 2 errors, 1 warning, 1 info (2 files read, 1 waived)"
+    assert lines[-2] == summary
     assert lines[-1] == f"note: {CAUTION}"
 
 
 def test_plain_no_findings():
     lines = render_plain(Report.build([], ["a.cnet"])).splitlines()
-    assert lines == ["no findings in 1 file", f"note: {CAUTION}"]
+    assert lines == ["no findings (1 file read)", f"note: {CAUTION}"]
 
 
 def test_summary_mentions_baseline(findings):
     report = Report.build(findings[:1], ["design/top.cnet"], baseline_suppressed=3)
-    assert "(3 in the baseline)" in render_plain(report)
+    assert "(1 file read, 3 in the baseline)" in render_plain(report)
 
 
 def test_rich_groups_by_file_then_element_most_severe_first(report):
