@@ -542,9 +542,10 @@ def test_diode_zener_against_ngspice(tmp_path):
         COIL, Suppression("diode-zener", clamp_voltage=24, forward_voltage=0.7), 0.1
     )
     assert rel(ours.peak_voltage, 24 - v_top.min()) < 5e-4
-    assert rel(ours.release_time, crossing(t, i, 0.1)) < 2e-3
+    # the model diode's ~8 mV drop (0.03 %) sets these tolerances
+    assert rel(ours.release_time, crossing(t, i, 0.1)) < 1e-3
     energy = trapezoid(-v_top * i, t)  # clamp voltage times current
-    assert rel(ours.suppressor_energy, energy) < 2e-3
+    assert rel(ours.suppressor_energy, energy) < 1e-3
 
 
 @needs_ngspice
@@ -557,8 +558,8 @@ def test_rc_across_coil_against_ngspice(tmp_path):
     )
     t, v_top, i = data[:, 0], data[:, 1], data[:, 3]
     ours = transient(COIL, Suppression("rc", resistance=48, capacitance=1.6e-6), 0.05)
-    assert rel(ours.peak_voltage, 24 - v_top.min()) < 1e-3
-    assert rel(ours.release_time, crossing(t, np.abs(i), 0.05)) < 2e-3
+    assert rel(ours.peak_voltage, 24 - v_top.min()) < 1e-5
+    assert rel(ours.release_time, crossing(t, np.abs(i), 0.05)) < 1e-5
 
 
 @needs_ngspice
@@ -574,7 +575,7 @@ def test_capacitor_across_switch_against_ngspice(tmp_path):
     ours = transient(
         Load(110.0, 550.0, 2.0), Suppression("capacitor", capacitance=0.1e-6)
     )
-    assert rel(ours.peak_voltage, v_sw.max()) < 1e-3
+    assert rel(ours.peak_voltage, v_sw.max()) < 1e-5
 
 
 @needs_ngspice
@@ -589,5 +590,7 @@ def test_varistor_against_ngspice(tmp_path):
     )
     t, v_top, i = data[:, 0], data[:, 1], data[:, 3]
     ours = transient(COIL, Suppression("varistor", clamp_voltage=40), 0.05)
-    assert rel(ours.release_time, crossing(t, i, 0.05)) < 2e-3
-    assert rel(ours.suppressor_energy, trapezoid(-v_top * i, t)) < 5e-3
+    assert rel(ours.release_time, crossing(t, i, 0.05)) < 1e-5
+    assert rel(ours.suppressor_energy, trapezoid(-v_top * i, t)) < 1e-5
+    # ngspice's first sample is 10 ns after opening, when the clamp has eased a bit
+    assert rel(ours.peak_voltage, 24 - v_top.min()) < 2e-3
