@@ -1,14 +1,22 @@
-"""The pipeline: design file -> model -> analysis -> checks -> findings."""
+"""The pipeline: design file -> model -> graph -> analysis -> checks -> findings."""
 
 from __future__ import annotations
 
+import os
 from collections.abc import Mapping, Sequence
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from pathlib import Path
 
-from netcheck.findings import Finding
+from netcheck.analysis.elements import Analysis, analyse
+from netcheck.catalogue import RuleMeta, load_catalogue, verify_catalogue
+from netcheck.checks.context import CheckContext
+from netcheck.checks.registry import all_checks
+from netcheck.design import load_design
+from netcheck.findings import Finding, fill_template, fingerprint
+from netcheck.graph import build_graph
+from netcheck.model import Netlist, Waiver
 
-__all__ = ["CheckOptions", "CheckResult", "check_path"]
+__all__ = ["CheckOptions", "CheckResult", "check_path", "analyse_path", "run_checks"]
 
 
 @dataclass(frozen=True)
@@ -29,6 +37,76 @@ class CheckResult:
     files: Sequence[str]
 
 
+def _matches(waiver: Waiver, finding: Finding, catalogue: Mapping[str, RuleMeta]) -> bool:
+    meta = catalogue.get(waiver.rule)
+    if meta is None or meta.name != finding.rule:
+        return False
+    device = finding.element.split(":", 1)[0]
+    return waiver.target in (finding.element, device)
+
+
+def _apply_waivers(netlist: Netlist, findings: list[Finding],
+                   catalogue: Mapping[str, RuleMeta]) -> list[Finding]:
+    used: set[int] = set()
+    out = []
+    for finding in findings:
+        for index, waiver in enumerate(netlist.waivers):
+            if _matches(waiver, finding, catalogue):
+                used.add(index)
+                finding = replace(finding, waived=waiver.reason)
+                break
+        out.append(finding)
+    meta = catalogue["unused-waiver"]
+    for index, waiver in enumerate(netlist.waivers):
+        if index in used:
+            continue
+        known = waiver.rule in catalogue
+        values = {"rule": waiver.rule, "target": waiver.target,
+                  "why": "no such finding" if known else "no rule of that name"}
+        out.append(Finding(
+            rule=meta.name, severity=meta.severity,
+            message=fill_template(meta.message(), values), span=waiver.span,
+            element=waiver.target, values={},
+            fix=fill_template(meta.fix() or "", values) or None,
+            references=meta.references, key=waiver.rule))
+    return out
+
+
+def run_checks(netlist: Netlist, analysis: Analysis,
+               margins: Mapping[str, float] = {}) -> list[Finding]:
+    """Run every check on an analysed design and apply its waivers."""
+    catalogue = load_catalogue()
+    checks = all_checks()
+    verify_catalogue(catalogue, checks)
+    ctx = CheckContext(netlist, analysis.graph, analysis, catalogue, margins)
+    findings: list[Finding] = []
+    for rule, function in checks.items():
+        ctx.rule = rule
+        findings.extend(function(ctx))
+    findings = _apply_waivers(netlist, findings, catalogue)
+    out = []
+    for finding in findings:
+        file = _relative(finding.span.file)
+        out.append(replace(finding, fingerprint=fingerprint(
+            finding.rule, file, finding.element, finding.key)))
+    out.sort(key=Finding.sort_key)
+    return out
+
+
+def _relative(file: str) -> str:
+    return Path(file).as_posix()
+
+
+def analyse_path(path: Path, options: CheckOptions = CheckOptions()
+                 ) -> tuple[Netlist, Analysis]:
+    """Read and analyse one design; raises InputError on bad input."""
+    netlist = load_design(path, options.extra_parts, options.allow_outside,
+                          display_base=Path(os.getcwd()))
+    return netlist, analyse(build_graph(netlist))
+
+
 def check_path(path: Path, options: CheckOptions = CheckOptions()) -> CheckResult:
     """Check one top-level ``.cnet`` design; raises InputError on bad input."""
-    raise NotImplementedError("pipeline under construction")
+    netlist, analysis = analyse_path(path, options)
+    findings = run_checks(netlist, analysis, options.margins)
+    return CheckResult(netlist.file, findings, netlist.files)

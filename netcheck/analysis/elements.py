@@ -6,7 +6,10 @@ from collections.abc import Mapping
 from dataclasses import dataclass, field, replace
 
 from netcheck.analysis.domain import CONDUCTING, DomainState, shunts, solve_domain
-from netcheck.analysis.loads import category_for, is_inductive, most_demanding
+import pint
+
+from netcheck.analysis.loads import LoadFacts, category_for, is_inductive, load_facts
+from netcheck.analysis.loads import most_demanding
 from netcheck.analysis.suppression import Chain, find_chains
 from netcheck.analysis.switched import (
     ElementAnalysis,
@@ -17,13 +20,26 @@ from netcheck.analysis.switched import (
     open_element,
 )
 from netcheck.analysis.zero_ohm import ZeroOhm
-from netcheck.graph import CONDUCTOR, SUPPLY, SWITCH, Branch, Domain, Graph
+from netcheck.graph import COIL, CONDUCTOR, LOAD, SUPPLY, SWITCH, Branch, Domain, Graph
 from netcheck.units import Q_
 
 __all__ = ["Analysis", "analyse"]
 
 # T0.95 = 3·L/R as the spec and IEC 60947-5-1 state it (exactly: ln 20 = 2.996).
 T95_FACTOR = 3.0
+
+
+@dataclass(frozen=True)
+class LoadInfo:
+    """A load or coil with its domain, operating point and suppressors."""
+
+    branch: Branch
+    facts: LoadFacts
+    domain: str | None
+    supply: str | None  # dc, ac or None
+    current: pint.Quantity | None
+    voltage: pint.Quantity | None
+    suppressors: tuple[Suppressor, ...]
 
 
 @dataclass
@@ -35,6 +51,13 @@ class Analysis:
     states: dict[str, DomainState] = field(default_factory=dict)  # domain name -> state
     chains: dict[str, dict[frozenset[str], list[Chain]]] = field(default_factory=dict)
     wires: dict[str, dict[str, str]] = field(default_factory=dict)
+    loads: dict[str, LoadInfo] = field(default_factory=dict)  # by branch key
+
+    @property
+    def reversed_suppressors(self) -> set[str]:
+        """References of suppressors across a load that conduct in normal operation."""
+        return {ref for info in self.loads.values() for s in info.suppressors
+                if s.conducts for ref in s.refs}
 
     def sorted_elements(self) -> list[ElementAnalysis]:
         """Elements sorted by name."""
@@ -192,6 +215,40 @@ def _series(elements: dict[str, ElementAnalysis]) -> dict[str, ElementAnalysis]:
     return out
 
 
+def _record_loads(analysis: Analysis, domain: Domain,
+                  chains: Mapping[frozenset[str], list[Chain]], wire: Mapping[str, str]
+                  ) -> None:
+    """Loads of domains that are not solved (AC, no supply): facts and suppressors."""
+    if domain.kind == "dc":
+        return
+    ctx = _Ctx(domain, None, chains, wire)
+    for branch in domain.branches:
+        if branch.role in (LOAD, COIL):
+            facts = load_facts(branch)
+            suppressors = _suppressors_between(chains, wire, branch.a, branch.b,
+                                               "across-load", branch.ref, {})
+            if facts.suppression not in ("none", ""):
+                suppressors.append(Suppressor(facts.suppression, "built-in",
+                                              (branch.ref,), branch.ref))
+            analysis.loads[branch.key] = LoadInfo(
+                branch, facts, domain.name if domain.supplies else None, domain.kind,
+                None, None, tuple(suppressors))
+    del ctx
+
+
+def _record_dc_loads(analysis: Analysis, ctx: _Ctx) -> None:
+    state = ctx.state
+    assert state is not None
+    for key, facts in state.facts.items():
+        branch = state.branch_by_key[key]
+        current = abs(state.currents.get(key, 0.0)) if key in state.currents else None
+        voltage = abs(state.net_potential(branch.a) - state.net_potential(branch.b))
+        analysis.loads[key] = LoadInfo(
+            branch, facts, ctx.domain.name, "dc",
+            Q_(current, "A") if current is not None else None, Q_(voltage, "V"),
+            _load_suppressors(ctx, branch))
+
+
 def _zero_ohm(domain: Domain, state: DomainState) -> ZeroOhm:
     closed = [b for b in domain.branches if b.role in (SWITCH, CONDUCTOR)
               and state.group[b.a] == state.group[b.b]]
@@ -210,7 +267,8 @@ def analyse(graph: Graph) -> Analysis:
         analysis.wires[domain.name] = wire
         switches = [b for b in domain.branches if b.role == SWITCH]
         kind = domain.kind
-        if kind != "dc" or not switches and not chains:
+        _record_loads(analysis, domain, chains, wire)
+        if kind != "dc":
             for branch in switches:
                 assert branch.element is not None
                 elements[branch.element.name] = ElementAnalysis(
@@ -220,6 +278,7 @@ def analyse(graph: Graph) -> Analysis:
         state = solve_domain(domain)
         analysis.states[domain.name] = state
         ctx = _Ctx(domain, state, chains, wire)
+        _record_dc_loads(analysis, ctx)
         zero = _zero_ohm(domain, state)
         injection = net_injections(state)
         terminals = {n for b in domain.branches if b.role == SUPPLY for n in (b.a, b.b)}

@@ -1,0 +1,78 @@
+"""Network rules: supply domains, nets with one connection, shorted supplies."""
+
+from __future__ import annotations
+
+from collections.abc import Iterator
+
+from netcheck.checks.context import CheckContext
+from netcheck.checks.registry import check
+from netcheck.findings import Finding
+from netcheck.graph import supply_kind
+from netcheck.units import Q_
+
+__all__ = ["ac_dc_interconnected", "single_connection_net", "supply_short_circuit"]
+
+
+def _describe(component) -> str:  # type: ignore[no-untyped-def]
+    kind = supply_kind(component)
+    voltage = component.value(kind)
+    return f"{kind.upper()} supply {component.ref} ({voltage:~g})"
+
+
+@check("ac-dc-interconnected")
+def ac_dc_interconnected(ctx: CheckContext) -> Iterator[Finding]:
+    """Flag domains reached from AC and DC supplies, or DC supplies of other voltages."""
+    for domain in ctx.domains():
+        if len(domain.supplies) < 2:
+            continue
+        first = domain.supplies[0]
+        for other in domain.supplies[1:]:
+            same_kind = supply_kind(first) == supply_kind(other)
+            if same_kind and (supply_kind(first) == "ac"
+                              or first.value("dc") == other.value("dc")):
+                continue
+            net = min(n for n in domain.nets
+                      if n in {c.net for c in other.connections})
+            yield ctx.finding((other, net), net=net, first=_describe(first),
+                              second=_describe(other), key=first.ref)
+
+
+@check("single-connection-net")
+def single_connection_net(ctx: CheckContext) -> Iterator[Finding]:
+    """Flag nets with one connection only (usually a mistyped net name)."""
+    names = [net for net, _ in ctx.nets()]
+    for net, connections in ctx.nets():
+        if len(connections) != 1:
+            continue
+        component, terminal = connections[0]
+        similar = [n for n in names if n != net and n.lower() == net.lower()]
+        hint = f"did you mean {similar[0]}?" if similar else "check the net name"
+        yield ctx.finding((component, f"{component.ref}:{terminal}"), net=net,
+                          terminal=terminal, hint=hint, key=net)
+
+
+@check("supply-short-circuit")
+def supply_short_circuit(ctx: CheckContext) -> Iterator[Finding]:
+    """Flag paths across a supply with no load: forward-biased diodes or closed contacts."""
+    for name, state in sorted(ctx.analysis.states.items()):
+        for supply in state.supply_shorts:
+            yield ctx.finding(supply.component, message="contacts", path="closed contacts",
+                              current=_prospective(state, supply.ref, 0.0), key="contacts")
+        for chain in state.shorts:
+            across_load = any(b.ref in ctx.analysis.reversed_suppressors
+                              for b in chain)
+            if across_load:
+                continue  # freewheel-diode-reversed reports it, with the load
+            refs = ", ".join(b.ref for b in chain)
+            supply = state.domain.supplies[0]
+            vf = sum(state.models[b.key].vf for b in chain)
+            yield ctx.finding(chain[0].component, path=refs,
+                              current=_prospective(state, supply.ref, vf), key=refs)
+
+
+def _prospective(state, ref: str, drop: float):  # type: ignore[no-untyped-def]
+    """The short-circuit current E/r_int, where the supply gives r_int."""
+    emf, r_int = state.emf.get(ref, 0.0), state.r_int.get(ref, 0.0)
+    if r_int > 0:
+        return Q_((emf - drop) / r_int, "A")
+    return "limited only by the wiring (no r_int or isc given)"

@@ -1,0 +1,156 @@
+"""Suppression rules: inductive loads at opening and the suppressors fitted."""
+
+from __future__ import annotations
+
+from collections.abc import Iterator
+
+from netcheck.analysis.opening import element_transient, load_transient, zener_release
+from netcheck.analysis.switched import ElementAnalysis, SwitchedLoad, Suppressor
+from netcheck.checks.context import CheckContext
+from netcheck.checks.registry import check
+from netcheck.findings import Finding, Severity
+from netcheck.units import Q_
+
+__all__ = [
+    "inductive_load_unsuppressed",
+    "freewheel_diode_reversed",
+    "diode_on_ac_load",
+    "slow_release_suppression",
+]
+
+SEMICONDUCTOR = ("ssr", "output")
+POLARIZED = ("diode", "diode-zener", "zener", "diode-resistor")
+
+
+def effective(suppressors: tuple[Suppressor, ...]) -> tuple[Suppressor, ...]:
+    """Suppressors that act at opening: not conducting in normal operation."""
+    return tuple(s for s in suppressors if not s.conducts)
+
+
+def unsuppressed_loads(element: ElementAnalysis) -> list[SwitchedLoad]:
+    """Inductive loads with nothing across them, nothing built in, nothing across E."""
+    if any(s.placement == "across-element" and not s.conducts for s in element.suppression):
+        return []
+    return [ld for ld in element.inductive_loads if not effective(ld.suppressors)]
+
+
+def _clamp_case(ctx: CheckContext, element: ElementAnalysis) -> tuple[str, dict] | None:
+    """For a semiconductor output: ("ok"|"output", values) from its clamp data."""
+    if element.component.kind not in SEMICONDUCTOR:
+        return None
+    rating = element.component.value("clamp_energy")
+    model = element_transient(element, None)
+    needed = element.energy
+    if model is not None and model.suppressor_energy.magnitude > 0:
+        needed = model.suppressor_energy
+    if rating is not None and needed is not None and rating >= needed:
+        return "ok", {}
+    return "output", {"clamp_energy": rating if rating is not None else "not given",
+                      "clamp_needed": needed}
+
+
+@check("inductive-load-unsuppressed")
+def inductive_load_unsuppressed(ctx: CheckContext) -> Iterator[Finding]:
+    """Flag DC elements that break inductive loads with no suppression anywhere."""
+    for element in ctx.switching_elements(supply="dc"):
+        loads = unsuppressed_loads(element)
+        if not loads or element.voltage is None:
+            continue
+        case = _clamp_case(ctx, element)
+        if case is not None and case[0] == "ok":
+            continue
+        energy = sum((ld.energy for ld in loads if ld.energy is not None), Q_(0.0, "J"))
+        current = max(ld.current for ld in loads)
+        values = {"loads": ", ".join(ld.facts.ref for ld in loads), "energy": energy,
+                  "current": current, "voltage": element.voltage,
+                  "diode_voltage": element.voltage * ctx.option("diode-reverse-voltage"),
+                  "diode_current": current * ctx.option("diode-current")}
+        if case is None:
+            yield ctx.finding(element, **values)
+        else:
+            yield ctx.finding(element, message="output", severity=Severity.ERROR,
+                              **values, **case[1])
+
+
+def _polarized(suppressor: Suppressor) -> bool:
+    return suppressor.kind in POLARIZED or (
+        suppressor.kind == "tvs" and suppressor.chain is not None
+        and bool(suppressor.chain.polarity))
+
+
+@check("freewheel-diode-reversed")
+def freewheel_diode_reversed(ctx: CheckContext) -> Iterator[Finding]:
+    """Flag diodes across DC loads that conduct when the load is energised."""
+    for key, info in sorted(ctx.analysis.loads.items()):
+        if info.supply != "dc":
+            continue
+        for suppressor in info.suppressors:
+            if not (suppressor.conducts and _polarized(suppressor)):
+                continue
+            chain = suppressor.chain
+            assert chain is not None
+            diode = next(b for b in chain.branches if b.key in chain.polarity)
+            state = ctx.analysis.states[info.domain or ""]
+            shorted = any(diode in group for group in state.shorts)
+            current = _short_current(state) if shorted else Q_(
+                abs(state.currents.get(diode.key, 0.0)), "A")
+            high, low = sorted((info.branch.a, info.branch.b),
+                               key=lambda n: -state.net_potential(n))
+            yield ctx.finding(diode.component, load=info.branch.ref, current=current,
+                              voltage=info.voltage, positive=high, negative=low,
+                              key=info.branch.ref)
+
+
+def _short_current(state):  # type: ignore[no-untyped-def]
+    ref = state.domain.supplies[0].ref
+    emf, r_int = state.emf.get(ref, 0.0), state.r_int.get(ref, 0.0)
+    if r_int > 0:
+        return Q_(emf / r_int, "A")
+    return "limited only by the wiring and the supply (no r_int given)"
+
+
+@check("diode-on-ac-load")
+def diode_on_ac_load(ctx: CheckContext) -> Iterator[Finding]:
+    """Flag diodes and other polarized suppressors across loads on AC circuits."""
+    for key, info in sorted(ctx.analysis.loads.items()):
+        if info.supply != "ac":
+            continue
+        for suppressor in info.suppressors:
+            if suppressor.placement == "built-in" or not _polarized(suppressor):
+                continue
+            assert suppressor.chain is not None
+            component = suppressor.chain.branches[0].component
+            supply = ctx.graph.domain_of[info.branch.a].supplies[0]
+            voltage = supply.value("ac")
+            yield ctx.finding(component, load=info.branch.ref, kind=suppressor.kind,
+                              voltage=voltage, peak=voltage * 2**0.5,
+                              varistor_voltage=voltage * 2**0.5 * ctx.option(
+                                  "varistor-voltage"), key=info.branch.ref)
+
+
+FAST = ("fast-release", "safety")
+
+
+@check("slow-release-suppression")
+def slow_release_suppression(ctx: CheckContext) -> Iterator[Finding]:
+    """Flag fast-release or safety loads suppressed by a diode alone."""
+    seen: set[str] = set()
+    for element in ctx.switching_elements(supply="dc"):
+        for load in element.inductive_loads:
+            component = ctx.netlist.component(load.facts.ref)
+            active = effective(load.suppressors)
+            if component is None or load.facts.key in seen or not (
+                    component.tags & set(FAST)) or not active or any(
+                    s.kind != "diode" for s in active):
+                continue
+            seen.add(load.facts.key)
+            with_diode = load_transient(load, load.voltage, active[0])
+            faster = zener_release(load)
+            if with_diode is None or faster is None:
+                continue
+            yield ctx.finding(component, tag=", ".join(sorted(component.tags & set(FAST))),
+                              diode=", ".join(active[0].refs),
+                              release_diode=with_diode.release_time,
+                              release_zener=faster.release_time,
+                              zener_voltage=load.voltage,
+                              peak_zener=faster.peak_voltage, key=load.facts.key)
