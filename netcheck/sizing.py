@@ -19,7 +19,9 @@ from netcheck.analysis.snubber import (
 )
 from netcheck.analysis.transients import (
     ACROSS_ELEMENT,
+    FORWARD_VOLTAGE,
     RELEASE_FRACTION,
+    VARISTOR_EXPONENT,
     OpeningTransient,
     opening_transient,
 )
@@ -60,11 +62,9 @@ DEFAULT_MARGINS: dict[str, float] = {
 }
 # Supply-fluctuation factor of the varistor rule above, for its continuous voltage.
 SUPPLY_FLUCTUATION = 1.2
-# Metal-oxide varistor nonlinearity exponent, typically 20-50 (from memory).
-VARISTOR_EXPONENT = 25.0
 _REFERENCE = Q_(1, "mA")  # the varistor voltage is specified at 1 mA
 # Diode forward drop (spec default for netcheck size --vf).
-DEFAULT_FORWARD_VOLTAGE = Q_(0.9, "V")
+DEFAULT_FORWARD_VOLTAGE = Q_(FORWARD_VOLTAGE, "V")
 SI_UNITS = ("V", "A", "s", "J", "ohm", "F")
 _AT_OPENING = "coil current at opening"
 

@@ -79,6 +79,28 @@ def _clamped_current(
     return current * np.exp(-x) - drive * t / inductance * phi
 
 
+def _clamp_waveform(
+    resistance: float,
+    inductance: float,
+    supply: float,
+    current: float,
+    drive: float,
+    t_zero: float,
+) -> tuple[np.ndarray, np.ndarray]:
+    """Sample times and load current, up to a little past the current's zero."""
+    if math.isfinite(t_zero):
+        t = np.linspace(0.0, 1.2 * t_zero, _POINTS)
+    else:
+        # never reaches zero: show five time constants (R = 0: a clamp-limited ramp)
+        scale = max(abs(drive), supply, 1e-12)
+        tau = (
+            inductance / resistance if resistance > 0 else inductance * current / scale
+        )
+        t = np.linspace(0.0, 5 * tau, _POINTS)
+    i = _clamped_current(t, resistance, inductance, current, drive)
+    return t, np.maximum(i, 0.0)
+
+
 def clamp_transient(
     resistance: float,
     inductance: float,
@@ -99,16 +121,7 @@ def clamp_transient(
     supply_energy = supply * charge if across_element else 0.0
     energy = clamp * charge
     stored = 0.5 * inductance * current**2
-    if math.isfinite(t_zero):
-        t = np.linspace(0.0, 1.2 * t_zero, _POINTS)
-    else:
-        # never reaches zero: show five time constants (R = 0: a clamp-limited ramp)
-        scale = max(abs(drive), supply, 1e-12)
-        tau = (
-            inductance / resistance if resistance > 0 else inductance * current / scale
-        )
-        t = np.linspace(0.0, 5 * tau, _POINTS)
-    i = np.maximum(_clamped_current(t, resistance, inductance, current, drive), 0.0)
+    t, i = _clamp_waveform(resistance, inductance, supply, current, drive, t_zero)
     on = t < t_zero
     base = 0.0 if across_element else supply
     return {
@@ -134,7 +147,7 @@ def resistor_transient(
     parallel: float,
     release: float,
 ) -> dict[str, Any]:
-    """Resistor Rp across the load: τ' = L/(R + Rp), Vsw = Vs + I0·Rp (§9)."""
+    """Resistor Rp across the load: τ' = L/(R + Rp), Vsw = Vs + I0·Rp (KVL)."""
     if parallel <= 0:
         raise ValueError("a resistor across the load needs resistance > 0")
     tau = inductance / (resistance + parallel)

@@ -46,7 +46,12 @@ class _Loop:
         self.w = (a - self.s.real * np.eye(2)) @ self.u
 
     def deviation(self, t: np.ndarray) -> np.ndarray:
-        """Return z(t) - z_ss, shape (2, n)."""
+        """Return z(t) - z_ss, shape (2, n).
+
+        For a 2×2 matrix, expm(A·t) = e^(s·t)·[cosh(d·t)·I + sinh(d·t)/d·(A - s·I)]
+        with s = tr(A)/2 and d² = s² - det(A) (Cayley-Hamilton); d is imaginary for
+        a ringing loop, and sinh(d·t)/d → t as d → 0 (critical damping).
+        """
         t = np.atleast_1d(np.asarray(t, dtype=float))
         s, d = self.s, self.d
         dt = d * t

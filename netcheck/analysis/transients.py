@@ -24,6 +24,10 @@ from netcheck.units import Q_, Quantity
 
 __all__ = [
     "ACROSS_LOAD",
+    "FORWARD_VOLTAGE",
+    "VARISTOR_EXPONENT",
+    "STRAY_CAPACITANCE",
+    "RELEASE_FRACTION",
     "ACROSS_ELEMENT",
     "PLACEMENTS",
     "Load",
@@ -49,6 +53,14 @@ PLACEMENTS: dict[str, tuple[str, ...]] = {
 }
 # Release current as a fraction of the steady current (spec: netcheck size).
 RELEASE_FRACTION = 0.1
+# Diode forward drop, V: a silicon rectifier near its rated current (from memory;
+# also the spec's default for netcheck size --vf).
+FORWARD_VOLTAGE = 0.9
+# Metal-oxide varistor nonlinearity exponent: typically 20-50 (from memory).
+VARISTOR_EXPONENT = 25.0
+# Stray capacitance assumed across an unsuppressed element, F (from memory: contact
+# and wiring capacitances are tens to hundreds of pF).
+STRAY_CAPACITANCE = 100e-12
 
 
 @dataclass(frozen=True)
@@ -65,6 +77,8 @@ class Load:
         """Current when the element opens (A)."""
         if self.current is not None:
             return self.current
+        if self.resistance <= 0:
+            raise ValueError("give the current of a coil without resistance")
         return self.supply / self.resistance
 
 
@@ -76,20 +90,17 @@ class Suppression:
     the varistor's voltage at ``reference_current`` (default: the steady current).
     ``resistance`` is the series R of an rc or the resistor's value; ``capacitance``
     the rc/capacitor value, or for ``none`` the stray capacitance assumed across the
-    element. Varistor law I = Iref·(V/Vref)^exponent; metal-oxide varistors have
-    exponents of about 20-50 (from memory), 25 is taken as a moderate default.
+    element. Varistor law I = Iref·(V/Vref)^exponent.
     """
 
     kind: str = "none"
     placement: str | None = None
-    forward_voltage: float = (
-        0.9  # V; silicon rectifier near rated current (from memory)
-    )
+    forward_voltage: float = FORWARD_VOLTAGE
     clamp_voltage: float = 0.0
     reference_current: float | None = None
-    exponent: float = 25.0
+    exponent: float = VARISTOR_EXPONENT
     resistance: float = 0.0
-    capacitance: float = 100e-12  # F; assumed stray capacitance (from memory)
+    capacitance: float = STRAY_CAPACITANCE
 
     @property
     def where(self) -> str:
@@ -137,6 +148,8 @@ def _check(load: Load, suppression: Suppression, release: float) -> None:
         raise ValueError("capacitance must be > 0")
     if suppression.kind in ("tvs", "varistor") and suppression.clamp_voltage <= 0:
         raise ValueError("clamp voltage must be > 0")
+    if suppression.kind == "varistor" and suppression.exponent <= 1:
+        raise ValueError("varistor exponent must exceed 1")
 
 
 def transient(

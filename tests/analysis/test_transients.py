@@ -448,6 +448,8 @@ def test_invalid_inputs_raise():
         transient(COIL, Suppression("rc", capacitance=0.0))
     with pytest.raises(ValueError):
         transient(COIL, Suppression("bogus"))
+    with pytest.raises(ValueError):  # I0 = V/R is undefined for R = 0
+        transient(Load(24.0, 0.0, 0.48), Suppression("diode"))
 
 
 def test_quantity_wrapper_converts_units():
