@@ -26,6 +26,10 @@ class InputError(Exception):
         self.message = message
         self.span = span
 
+    def __reduce__(self):  # type: ignore[no-untyped-def]
+        # Keep message and span across processes (--jobs).
+        return (self.__class__, (self.message, self.span))
+
     def render(self) -> str:
         """Return ``file:line:col: error: message`` plus the line and a caret."""
         if self.span is None:
@@ -68,6 +72,9 @@ class InputErrors(InputError):
         )
         first = self.errors[0] if self.errors else InputError("unknown error")
         super().__init__(first.message, first.span)
+
+    def __reduce__(self):  # type: ignore[no-untyped-def]
+        return (self.__class__, (self.errors,))
 
     def render(self) -> str:
         """Render every error, one block each."""

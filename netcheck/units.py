@@ -13,6 +13,8 @@ from netcheck.source import Span
 __all__ = ["ureg", "Q_", "Quantity", "DIMENSIONS", "parse_quantity", "format_quantity"]
 
 ureg = pint.UnitRegistry(autoconvert_offset_to_baseunit=True)
+# Quantities that cross process boundaries (--jobs) unpickle into this registry.
+pint.set_application_registry(ureg)
 Q_ = ureg.Quantity
 Quantity = pint.Quantity
 

@@ -1,3 +1,10 @@
 """The checks, one module per rule family; importing this package registers them."""
 
-from netcheck.checks import network, suppression  # noqa: F401
+from netcheck.checks import (  # noqa: F401
+    arrangement,
+    coils,
+    network,
+    ratings,
+    suppression,
+    suppressors,
+)

@@ -1,0 +1,192 @@
+"""Suppressor rules: ratings of the parts fitted, and what they see in service."""
+
+from __future__ import annotations
+
+from collections.abc import Iterator
+from dataclasses import dataclass
+
+import pint
+
+from netcheck.analysis.opening import OpeningFacts, element_transient, load_transient
+from netcheck.analysis.switched import ElementAnalysis, Suppressor
+from netcheck.checks.context import CheckContext
+from netcheck.checks.registry import check
+from netcheck.checks.suppression import SEMICONDUCTOR, effective
+from netcheck.findings import Finding
+from netcheck.model import Component
+from netcheck.units import Q_
+
+__all__ = ["suppressor_underrated", "suppressor_conducts_normally",
+           "snubber_without_resistor", "peak_voltage_over_rating", "fitted_suppressors"]
+
+
+@dataclass(frozen=True)
+class Fitted:
+    """A suppressor as fitted: where, across what, and its transient at opening."""
+
+    suppressor: Suppressor
+    voltage: pint.Quantity  # across it in normal operation (or across the open element)
+    current: pint.Quantity  # the load current it takes over at opening
+    opening: OpeningFacts | None
+    about: str  # the load or element it protects
+
+
+def fitted_suppressors(ctx: CheckContext) -> list[Fitted]:
+    """Every effective suppressor of a DC element's circuit, once each."""
+    out: dict[tuple[str, ...], Fitted] = {}
+    for element in ctx.switching_elements(supply="dc"):
+        if element.voltage is None:
+            continue
+        for load in element.inductive_loads:
+            for s in effective(load.suppressors):
+                if s.placement != "built-in" and s.refs not in out:
+                    out[s.refs] = Fitted(s, load.voltage, load.current,
+                                         load_transient(load, element.voltage, s),
+                                         load.facts.ref)
+        for s in element.suppression:
+            if s.placement == "across-element" and not s.conducts and s.refs not in out:
+                current = sum((ld.current for ld in element.loads), Q_(0.0, "A"))
+                out[s.refs] = Fitted(s, element.voltage, current,
+                                     element_transient(element, s), element.name)
+    return [out[k] for k in sorted(out)]
+
+
+def _parts(fitted: Fitted) -> list[Component]:
+    chain = fitted.suppressor.chain
+    return [b.component for b in chain.branches] if chain is not None else []
+
+
+def _needs(ctx: CheckContext, fitted: Fitted, part: Component):  # type: ignore[no-untyped-def]
+    """(what, needed, rated, margin-name) for each rating of one part."""
+    v, i, opening = fitted.voltage, fitted.current, fitted.opening
+    energy = opening.suppressor_energy if opening is not None else None
+    if part.kind == "diode":
+        yield "reverse voltage", v * ctx.option("diode-reverse-voltage"), \
+            part.value("voltage_rating")
+        yield "forward current", i * ctx.option("diode-current"), part.value("current_rating")
+    elif part.kind == "zener":
+        clamp = part.value("vz")
+        if clamp is not None:
+            yield "pulse power (Vz·I0)", (clamp * i).to("W"), part.value("power")
+    elif part.kind in ("varistor", "tvs") and energy is not None:
+        margin = "varistor-energy" if part.kind == "varistor" else "tvs-energy"
+        yield "energy per opening", energy * ctx.option(margin), part.value("energy")
+    elif part.kind in ("capacitor", "rc") and opening is not None:
+        peak = opening.suppressor_peak_voltage
+        rated = part.value("voltage_rating")
+        if rated is None or rated >= peak:  # above the rating: peak-voltage-over-rating
+            yield "voltage rating", peak * ctx.option("capacitor-voltage"), rated
+
+
+@check("suppressor-underrated")
+def suppressor_underrated(ctx: CheckContext) -> Iterator[Finding]:
+    """Flag suppressors whose ratings fall short of what the circuit puts on them."""
+    for fitted in fitted_suppressors(ctx):
+        for part in _parts(fitted):
+            for what, needed, rated in _needs(ctx, fitted, part):
+                if rated is None:
+                    yield ctx.finding(part, rule="rating-data-missing", message="suppressor",
+                                      fix="suppressor", what=what, needed=needed,
+                                      key=f"{part.ref}:{what}")
+                elif rated < needed:
+                    yield ctx.finding(part, what=what, needed=needed, rated=rated,
+                                      about=fitted.about, key=what)
+
+
+def _normal_voltage(ctx: CheckContext, component: Component) -> pint.Quantity | None:
+    """The largest voltage across a part in service: energised, or across an open element."""
+    worst = None
+    for fitted in fitted_suppressors(ctx):
+        if component.ref in fitted.suppressor.refs:
+            worst = fitted.voltage if worst is None else max(worst, fitted.voltage)
+    return worst
+
+
+@check("suppressor-conducts-normally")
+def suppressor_conducts_normally(ctx: CheckContext) -> Iterator[Finding]:
+    """Flag varistors and TVS whose continuous or stand-off voltage is below the supply."""
+    for component in ctx.components("varistor", "tvs"):
+        voltage = _normal_voltage(ctx, component)
+        if voltage is None:
+            continue
+        key = "vdc_max" if component.kind == "varistor" else "standoff"
+        rated = component.value(key)
+        if rated is None:
+            yield ctx.finding(component, rule="rating-data-missing", message="suppressor",
+                              fix="suppressor", what=key, needed=voltage, key=key)
+        elif rated < voltage:
+            yield ctx.finding(component, what=key, rated=rated, voltage=voltage)
+
+
+@check("snubber-without-resistor")
+def snubber_without_resistor(ctx: CheckContext) -> Iterator[Finding]:
+    """Flag a bare capacitor across a switching element (it discharges into the contact)."""
+    for element in ctx.switching_elements(supply="dc"):
+        for s in element.suppression:
+            if s.placement != "across-element" or s.kind != "capacitor" or not s.chain:
+                continue
+            part = s.chain.branches[0].component
+            low, high = _resistor_range(element)
+            yield ctx.finding(part, contact=element.name, low=low, high=high,
+                              key=element.name)
+
+
+def _resistor_range(element: ElementAnalysis) -> tuple[pint.Quantity, pint.Quantity]:
+    """Series R bounds: at least V/I_making, at most the load resistance.
+
+    The lower bound limits the capacitor's discharge into the closing contact to its
+    making current; above the load resistance the R·I step at opening itself becomes
+    large (RC-network application notes). Without a making current, 0.5 ohm per volt
+    (common practice) stands in for the lower bound.
+    """
+    voltage = element.voltage or Q_(0.0, "V")
+    making = element.component.value("contacts", "making_current")
+    low = (voltage / making).to("ohm") if making is not None else (voltage * Q_(0.5, "ohm/V"))
+    current = element.current or Q_(0.0, "A")
+    high = (voltage / current).to("ohm") if current.magnitude > 0 else low * 10
+    return low.to("ohm"), max(high, low).to("ohm")
+
+
+def _element_peak(element: ElementAnalysis) -> OpeningFacts | None:
+    across = [s for s in element.suppression if s.placement == "across-element"
+              and not s.conducts]
+    if across:
+        return element_transient(element, across[0])
+    loads = element.inductive_loads
+    if len(loads) == 1 and effective(loads[0].suppressors):
+        s = effective(loads[0].suppressors)[0]
+        if s.placement != "built-in":
+            return element_transient(element, s)
+        return None
+    return element_transient(element, None)
+
+
+@check("peak-voltage-over-rating")
+def peak_voltage_over_rating(ctx: CheckContext) -> Iterator[Finding]:
+    """Flag opening peaks above an output's voltage_max or a snubber capacitor's rating."""
+    for element in ctx.switching_elements(supply="dc"):
+        rated = element.component.value("voltage_max")
+        if element.component.kind not in SEMICONDUCTOR or rated is None:
+            continue
+        opening = _element_peak(element)
+        peak = opening.peak_voltage if opening is not None else element.voltage
+        if peak is not None and peak > rated:
+            yield ctx.finding(element, message="output", fix="output", peak=peak,
+                              rated=rated, assumptions=_assumed(opening))
+    for fitted in fitted_suppressors(ctx):
+        for part in _parts(fitted):
+            rated = part.value("voltage_rating")
+            if part.kind not in ("capacitor", "rc") or rated is None or not fitted.opening:
+                continue
+            peak = fitted.opening.suppressor_peak_voltage
+            if peak > rated:
+                yield ctx.finding(part, message="capacitor", fix="capacitor", peak=peak,
+                                  rated=rated, assumptions="", about=fitted.about)
+
+
+def _assumed(opening: OpeningFacts | None) -> str:
+    if opening is None or not opening.assumptions:
+        return ""
+    return " (" + "; ".join(opening.assumptions) + ")"
+
+
