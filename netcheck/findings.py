@@ -68,7 +68,8 @@ def quantity_dict(value: Any) -> dict[str, Any]:
     if isinstance(value, pint.Quantity):
         unit = f"{value.units:~}"
         return {
-            "value": float(value.magnitude),
+            # 12 significant digits: exact enough, and free of solver round-off.
+            "value": float(f"{float(value.magnitude):.12g}"),
             "unit": "ohm" if unit == "Ω" else unit,
             "text": format_quantity(value),
         }

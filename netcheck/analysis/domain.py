@@ -121,8 +121,11 @@ def _rails(domain: Domain, group: dict[str, str]) -> tuple[dict, dict, dict, lis
             shorted.append(branch)
             continue
         graph.add_edge(gb, ga, rise=emf[branch.ref], tail=gb)
+    negatives = [group[b.b] for b in edges]
     for component in nx.connected_components(graph):
-        root = min(component)
+        # The first supply's negative terminal is 0 V: floating nodes, held by
+        # G_MIN, then sit at the common negative rail as they do in practice.
+        root = next((g for g in negatives if g in component), min(component))
         rails[root] = 0.0
         for u, v in nx.bfs_edges(graph, root):
             data = graph.edges[u, v]
