@@ -169,7 +169,7 @@ def _analyse_dc(ctx: _Ctx, branch: Branch, zero: ZeroOhm, injection: Mapping[str
                                   "across-element", None, state.currents)
     suppression = tuple(s for ld in loads for s in ld.suppressors) + tuple(across)
     missing = tuple(sorted({m for ld in loads for m in ld.facts.missing}))
-    shorted = {b.key for chain in state.shorts for b in chain}
+    shorted_nets = {n for chain in state.shorts for b in chain for n in (b.a, b.b)}
     unknown = [b.ref for b in state.unknown_resistance if b.a in opening.floating_nets
                or b.b in opening.floating_nets]
     supply = state.domain.supplies[0] if state.domain.supplies else None
@@ -186,7 +186,7 @@ def _analyse_dc(ctx: _Ctx, branch: Branch, zero: ZeroOhm, injection: Mapping[str
         bidirectional=bool(supply is not None and supply.value("bidirectional")),
         supply_voltage=Q_(emf, "V") if emf is not None else None, supply_ref=supply_ref,
         missing=missing + tuple(f"{r}: resistance" for r in unknown),
-        short_circuit=any(k in shorted for k in opening.switched),
+        short_circuit=bool(shorted_nets & opening.floating_nets),
     )
 
 

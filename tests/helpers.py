@@ -1,0 +1,53 @@
+"""Shared test helpers: build a design from inline text, compare quantities."""
+
+from __future__ import annotations
+
+import textwrap
+from pathlib import Path
+
+import pint
+import pytest
+
+from netcheck.analysis.elements import Analysis, analyse
+from netcheck.design import load_design
+from netcheck.graph import build_graph
+from netcheck.model import Netlist
+from netcheck.pipeline import run_checks
+
+PARTS_HEADER = """\
+format: netcheck-parts/1
+note: Illustrative values for the tests; not any manufacturer's data.
+parts:
+"""
+
+
+def write_design(tmp: Path, text: str, parts: str = "", name: str = "design.cnet") -> Path:
+    """Write a design (and an optional part library ``parts.yaml``) into ``tmp``."""
+    body = textwrap.dedent(text).lstrip("\n")
+    if parts:
+        entries = textwrap.indent(textwrap.dedent(parts).strip("\n"), "  ")
+        (tmp / "parts.yaml").write_text(PARTS_HEADER + entries + "\n", encoding="utf-8")
+        body = 'parts "parts.yaml"\n' + body
+    path = tmp / name
+    path.write_text(body, encoding="utf-8")
+    return path
+
+
+def net(tmp: Path, text: str, parts: str = "") -> tuple[Netlist, Analysis]:
+    """Read and analyse an inline design."""
+    path = write_design(tmp, text, parts)
+    netlist = load_design(path, display_base=tmp)
+    return netlist, analyse(build_graph(netlist))
+
+
+def findings_of(tmp: Path, text: str, parts: str = "") -> list:
+    """The (non-waived) findings of an inline design."""
+    netlist, analysis = net(tmp, text, parts)
+    return [f for f in run_checks(netlist, analysis) if not f.waived]
+
+
+def approx_q(actual: pint.Quantity | None, expected: float, unit: str,
+             rel: float = 1e-6, abs_: float = 0.0) -> None:
+    """Assert a quantity equals ``expected`` in ``unit`` (units-aware)."""
+    assert actual is not None, "quantity missing"
+    assert actual.to(unit).magnitude == pytest.approx(expected, rel=rel, abs=abs_)
