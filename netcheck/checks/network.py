@@ -47,8 +47,8 @@ def single_connection_net(ctx: CheckContext) -> Iterator[Finding]:
         component, terminal = connections[0]
         similar = [n for n in names if n != net and n.lower() == net.lower()]
         hint = f"did you mean {similar[0]}?" if similar else "check the net name"
-        yield ctx.finding((component, f"{component.ref}:{terminal}"), net=net,
-                          terminal=terminal, hint=hint, key=net)
+        yield ctx.finding(component, net=net, terminal=f"{component.ref}:{terminal}",
+                          hint=hint, key=net)
 
 
 @check("supply-short-circuit")
