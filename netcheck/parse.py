@@ -253,6 +253,18 @@ def decode_source(data: bytes, file: str) -> str:
     return text.removeprefix("\ufeff")
 
 
+@lru_cache(maxsize=1)
+def _examples() -> dict[str, list[str]]:
+    """The table's inputs at the start of a file and after other statements.
+
+    The parser is in a different state after earlier lines, and examples match
+    by state, so each input is also tried after a blank line and a statement.
+    """
+    prefixes = ("", "\n", "# c\n", "x y\n", 'title "t"\n')
+    return {message: [p + e for p in prefixes for e in examples]
+            for message, examples in SYNTAX_MESSAGES.items()}
+
+
 def _message(error: UnexpectedInput) -> str:
     if isinstance(error, UnexpectedCharacters):
         char = error.char
@@ -263,7 +275,7 @@ def _message(error: UnexpectedInput) -> str:
             return "unexpected white space"
         return f"unexpected character {char!r} (names use A-Z a-z 0-9 _ + - . / ~ ! *)"
     label = error.match_examples(
-        _parser().parse, SYNTAX_MESSAGES, use_accepts=True, token_type_match_fallback=True
+        _parser().parse, _examples(), use_accepts=True, token_type_match_fallback=True
     )
     if label:
         return str(label)

@@ -13,6 +13,7 @@ from netcheck.source import Span, register_text
 __all__ = ["LocatedYaml", "load_located_yaml", "MAX_NODES", "MAX_DEPTH"]
 
 MAX_NODES = 200_000
+_PLAIN_TAGS = ("tag:yaml.org,2002:map", "tag:yaml.org,2002:seq")
 MAX_DEPTH = 64
 
 
@@ -55,6 +56,9 @@ class _Builder:
                 f"YAML nested more than {MAX_DEPTH} levels", _mark_span(self.file, node)
             )
         self.spans.setdefault(path, _mark_span(self.file, node))
+        if node.tag not in _PLAIN_TAGS and not isinstance(node, yaml.ScalarNode):
+            raise self.error(f"YAML tag {node.tag!r} is not allowed here",
+                             _mark_span(self.file, node))
         if isinstance(node, yaml.MappingNode):
             return self._mapping(node, path, depth)
         if isinstance(node, yaml.SequenceNode):

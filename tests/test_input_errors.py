@@ -1,0 +1,73 @@
+"""Bad input ends in ``file:line:col: error: message``, the line, a caret, exit 2.
+
+``tests/input_errors/*.cnet`` mark each expected error with
+``# error: <fragment> @line:col``; every marked error must be reported (all of a
+file's errors together, where they can be collected), nothing else, and no
+traceback. The friendly syntax messages are pinned by their own table.
+"""
+
+from __future__ import annotations
+
+import re
+from pathlib import Path
+
+import pytest
+
+from netcheck import cli
+from netcheck.errors import InputError, InputErrors
+from netcheck.parse import SYNTAX_MESSAGES, parse_text
+
+CASES = Path(__file__).resolve().parent / "input_errors"
+MARK = re.compile(r"#\s*error:\s*(?P<text>.*?)\s*@(?P<line>\d+):(?P<col>\d+)\s*$")
+HEAD = re.compile(r"^(?P<file>[^\n]*?):(?P<line>\d+):(?P<col>\d+): error: (?P<msg>.*)$",
+                  re.M)
+
+
+def _marks(path: Path) -> list[tuple[str, int, int]]:
+    text = path.read_bytes().decode("utf-8", errors="replace")
+    return [(m["text"], int(m["line"]), int(m["col"]))
+            for m in map(MARK.search, text.splitlines()) if m]
+
+
+@pytest.mark.parametrize("path", sorted(CASES.glob("*.cnet")), ids=lambda p: p.name)
+def test_input_error_is_located(path: Path, capsys, monkeypatch) -> None:
+    monkeypatch.chdir(CASES)
+    code = cli.main(["check", path.name, "--no-color"])
+    out, err = capsys.readouterr()
+    assert code == 2
+    assert "Traceback" not in out + err
+    found = [(m["msg"], int(m["line"]), int(m["col"])) for m in HEAD.finditer(err)]
+    for fragment, line, col in _marks(path):
+        assert any(fragment in msg and (line, col) == (l_, c_) for msg, l_, c_ in found), (
+            f"missing {fragment!r} @{line}:{col}; got {found}")
+    assert len(found) == len(_marks(path)), f"unexpected errors: {found}"
+    # Each located error is followed by its source line and a caret under it.
+    lines = err.splitlines()
+    for index, line in enumerate(lines):
+        match = HEAD.match(line)
+        if match and index + 2 < len(lines) + 1:
+            caret = lines[index + 2] if index + 2 < len(lines) else ""
+            assert caret.strip().startswith("^"), f"no caret after {line!r}"
+            assert caret.index("^") == int(match["col"]) - 1
+
+
+@pytest.mark.parametrize(
+    ("message", "example"),
+    [(m, e) for m, examples in SYNTAX_MESSAGES.items() for e in examples],
+)
+def test_syntax_message_table(message: str, example: str) -> None:
+    # The table of friendly messages is its own test: each tiny input gives its message.
+    with pytest.raises(InputError) as caught:
+        parse_text(example, "t.cnet")
+    error = caught.value
+    messages = [e.message for e in error.errors] if isinstance(error, InputErrors) else [
+        error.message]
+    assert message in messages
+
+
+def test_every_syntax_error_of_a_file_is_reported() -> None:
+    text = "relay\nload Y1 R\n  1:N5\ntitle x\nswitch S1 13:A 14:B\n"
+    with pytest.raises(InputErrors) as caught:
+        parse_text(text, "t.cnet")
+    assert [(e.span.line, e.span.column) for e in caught.value.errors] == [
+        (1, 6), (2, 9), (4, 7)]
