@@ -72,6 +72,7 @@ class DomainState:
     models: dict[str, Resistor | Diode] = field(default_factory=dict)  # by branch key
     comp_branches: dict[int, set[str]] = field(default_factory=dict)
     group_nets: dict[str, list[str]] = field(default_factory=dict)
+    opened: frozenset[str] = frozenset()  # elements this state keeps open
 
     def model(self, key: str, rename: Mapping[str, str]) -> Resistor | Diode:
         """The branch's circuit model with its ends renamed (net -> node)."""
@@ -202,8 +203,13 @@ def _find_shorts(state: DomainState, diodes: list[Diode]) -> None:
             state.shorts.append(tuple(state.branch_by_key[k] for k in keys))
 
 
-def solve_domain(domain: Domain, open_keys: frozenset[str] = frozenset()) -> DomainState:
-    """Solve a DC domain with every switching element closed but ``open_keys``."""
+def solve_domain(domain: Domain, open_keys: frozenset[str] = frozenset(),
+                 opened: frozenset[str] = frozenset()) -> DomainState:
+    """Solve a DC domain with every switching element closed but ``open_keys``.
+
+    ``opened`` records the elements the state itself keeps open (changeover
+    sides), as opposed to those opened for one element's worst case.
+    """
     group, wire = _groups(domain, open_keys)
     emf, r_int, rails, supply_shorts = _rails(domain, group)
     facts, resistive, unknown = {}, [], []
@@ -215,7 +221,7 @@ def solve_domain(domain: Domain, open_keys: frozenset[str] = frozenset()) -> Dom
             (resistive if branch.component.value("R") is not None else unknown).append(branch)
     state = DomainState(domain, group, wire, rails, emf, r_int, {}, {}, {}, facts,
                         resistive, unknown, supply_shorts=supply_shorts,
-                        branch_by_key={b.key: b for b in domain.branches})
+                        branch_by_key={b.key: b for b in domain.branches}, opened=opened)
     for branch in domain.branches:
         state.attached.setdefault(branch.a, []).append(branch)
         state.attached.setdefault(branch.b, []).append(branch)

@@ -52,6 +52,8 @@ class Analysis:
     chains: dict[str, dict[frozenset[str], list[Chain]]] = field(default_factory=dict)
     wires: dict[str, dict[str, str]] = field(default_factory=dict)
     loads: dict[str, LoadInfo] = field(default_factory=dict)  # by branch key
+    # The state with changeover NC sides closed (NO sides open), where one exists.
+    alternate_states: dict[str, DomainState] = field(default_factory=dict)
 
     @property
     def reversed_suppressors(self) -> set[str]:
@@ -85,20 +87,52 @@ def _degrees(graph: Graph) -> dict[str, int]:
     return {net: len(conns) for net, conns in graph.connections.items()}
 
 
+def _passes(chain: Chain, source: str, wire: Mapping[str, str]) -> bool:
+    """Whether the chain can carry current from ``source``'s side to the other.
+
+    A plain diode must be forward in that direction; a zener or unidirectional TVS
+    conducts forward or in breakdown, so either way (diode physics).
+    """
+    from_a = wire.get(chain.a, chain.a) == wire.get(source, source)
+    for branch in chain.branches:
+        sign = chain.polarity.get(branch.key)
+        if sign is None or branch.kind != "diode":
+            continue
+        if (sign > 0) != from_a:
+            return False
+    return True
+
+
 def _suppressors_between(chains: Mapping[frozenset[str], list[Chain]],
                          wire: Mapping[str, str], a: str, b: str, placement: str,
-                         load: str | None, currents: Mapping[str, float]) -> list[Suppressor]:
+                         load: str | None, currents: Mapping[str, float],
+                         source: str | None = None) -> list[Suppressor]:
+    """Suppressors between nets ``a`` and ``b``.
+
+    ``source`` is the net the suppressor must carry current away from at opening
+    (the load's negative side, or the element's current inlet); a chain that
+    cannot (a diode + zener with its diode turned round) is not functional.
+    """
     found = []
     for chain in chains.get(frozenset({wire.get(a, a), wire.get(b, b)}), ()):
         conducts = any(abs(currents.get(br.key, 0.0)) > CONDUCTING for br in chain.branches)
-        found.append(Suppressor(chain.kind, placement, chain.refs, load, chain, conducts))
+        functional = source is None or _passes(chain, source, wire)
+        found.append(Suppressor(chain.kind, placement, chain.refs, load, chain, conducts,
+                                functional))
     return found
 
 
 def _load_suppressors(ctx: _Ctx, branch: Branch) -> tuple[Suppressor, ...]:
     facts = ctx.state.facts[branch.key] if ctx.state else None
+    low = branch.b
+    if ctx.state is not None and (ctx.state.net_potential(branch.a)
+                                  < ctx.state.net_potential(branch.b)):
+        low = branch.a
+    # At opening the load drives its current on: out of its low side, round
+    # through the suppressor, into its high side.
     found = _suppressors_between(ctx.chains, ctx.wire, branch.a, branch.b, "across-load",
-                                 branch.ref, ctx.state.currents if ctx.state else {})
+                                 branch.ref, ctx.state.currents if ctx.state else {},
+                                 source=low if ctx.state is not None else None)
     if facts is not None and facts.suppression not in ("none", ""):
         found.append(Suppressor(facts.suppression, "built-in", (branch.ref,), branch.ref))
     return tuple(found)
@@ -154,7 +188,8 @@ def _analyse_dc(ctx: _Ctx, branch: Branch, zero: ZeroOhm, injection: Mapping[str
     if zero.bypass_through_load(branch.key):
         # A bypass through a load (a precharge resistor around a main contact):
         # solve again with the bypassing elements open, as the worst case asks.
-        state = solve_domain(ctx.domain, frozenset(zero.bypass(branch.key)))
+        state = solve_domain(ctx.domain, state.opened | frozenset(zero.bypass(branch.key)),
+                             opened=state.opened)
         ctx = _Ctx(ctx.domain, state, ctx.chains, ctx.wire)
         zero = _zero_ohm(ctx.domain, state)
         injection = net_injections(state)
@@ -165,8 +200,9 @@ def _analyse_dc(ctx: _Ctx, branch: Branch, zero: ZeroOhm, injection: Mapping[str
     taus = [ld.facts.time_constant for ld in loads if ld.facts.time_constant is not None]
     tau = max(taus) if taus else (Q_(0.0, "s") if loads else None)
     energies = [ld.energy for ld in loads if ld.energy is not None]
+    inlet = branch.a if opening.current_ab >= 0 else branch.b
     across = _suppressors_between(ctx.chains, ctx.wire, branch.a, branch.b,
-                                  "across-element", None, state.currents)
+                                  "across-element", None, state.currents, source=inlet)
     suppression = tuple(s for ld in loads for s in ld.suppressors) + tuple(across)
     missing = tuple(sorted({m for ld in loads for m in ld.facts.missing}))
     shorted_nets = {n for chain in state.shorts for b in chain for n in (b.a, b.b)}
@@ -249,6 +285,28 @@ def _record_dc_loads(analysis: Analysis, ctx: _Ctx) -> None:
             _load_suppressors(ctx, branch))
 
 
+def _changeovers(switches: list[Branch]) -> tuple[set[str], set[str]]:
+    """The NO and NC elements of changeover poles (both sides connected).
+
+    The two sides of one changeover are never closed together, so the closed
+    state closes the NO sides (NC sides open) and a second state, used for the
+    NC sides' own analysis, the reverse.
+    """
+    by_common: dict[tuple[str, str], list[Branch]] = {}
+    for branch in switches:
+        assert branch.element is not None
+        if branch.element.form in ("no", "nc"):
+            by_common.setdefault((branch.ref, branch.element.a), []).append(branch)
+    no_side, nc_side = set(), set()
+    for group in by_common.values():
+        forms = {b.element.form for b in group if b.element is not None}
+        if forms == {"no", "nc"}:
+            for b in group:
+                assert b.element is not None
+                (no_side if b.element.form == "no" else nc_side).add(b.key)
+    return no_side, nc_side
+
+
 def _zero_ohm(domain: Domain, state: DomainState) -> ZeroOhm:
     closed = [b for b in domain.branches if b.role in (SWITCH, CONDUCTOR)
               and state.group[b.a] == state.group[b.b]]
@@ -275,17 +333,25 @@ def analyse(graph: Graph) -> Analysis:
                     branch.element, branch.component,
                     domain.name if domain.supplies else None, kind)
             continue
-        state = solve_domain(domain)
-        analysis.states[domain.name] = state
-        ctx = _Ctx(domain, state, chains, wire)
-        _record_dc_loads(analysis, ctx)
-        zero = _zero_ohm(domain, state)
-        injection = net_injections(state)
         terminals = {n for b in domain.branches if b.role == SUPPLY for n in (b.a, b.b)}
-        for branch in switches:
-            assert branch.element is not None
-            elements[branch.element.name] = _analyse_dc(ctx, branch, zero, injection,
-                                                        terminals)
+        no_side, nc_side = _changeovers(switches)
+        for mode, opened in (("no", nc_side), ("nc", no_side)):
+            members = [b for b in switches if (b.key in nc_side) == (mode == "nc")]
+            if mode == "nc" and not members:
+                continue
+            state = solve_domain(domain, frozenset(opened), opened=frozenset(opened))
+            ctx = _Ctx(domain, state, chains, wire)
+            if mode == "no":
+                analysis.states[domain.name] = state
+                _record_dc_loads(analysis, ctx)
+            else:
+                analysis.alternate_states[domain.name] = state
+            zero = _zero_ohm(domain, state)
+            injection = net_injections(state)
+            for branch in members:
+                assert branch.element is not None
+                elements[branch.element.name] = _analyse_dc(ctx, branch, zero, injection,
+                                                            terminals)
     for component in graph.netlist.components:
         for element in component.elements:
             if element.name not in elements:

@@ -34,6 +34,7 @@ class Suppressor:
     load: str | None  # the load's reference (across-load, built-in)
     chain: Chain | None = None
     conducts: bool = False  # conducts in normal operation (e.g. a reversed diode)
+    functional: bool = True  # can carry the load's current at opening
 
 
 @dataclass(frozen=True)

@@ -54,8 +54,13 @@ def single_connection_net(ctx: CheckContext) -> Iterator[Finding]:
 @check("supply-short-circuit")
 def supply_short_circuit(ctx: CheckContext) -> Iterator[Finding]:
     """Flag paths across a supply with no load: forward-biased diodes or closed contacts."""
-    for name, state in sorted(ctx.analysis.states.items()):
+    states = [*ctx.analysis.states.items(), *ctx.analysis.alternate_states.items()]
+    reported: set[str] = set()
+    for name, state in sorted(states, key=lambda item: item[0]):
         for supply in state.supply_shorts:
+            if supply.ref in reported:
+                continue
+            reported.add(supply.ref)
             yield ctx.finding(supply.component, message="contacts", path="closed contacts",
                               current=_prospective(state, supply.ref, 0.0), key="contacts")
         for chain in state.shorts:

@@ -24,12 +24,12 @@ POLARIZED = ("diode", "diode-zener", "zener", "diode-resistor")
 
 def effective(suppressors: tuple[Suppressor, ...]) -> tuple[Suppressor, ...]:
     """Suppressors that act at opening: not conducting in normal operation."""
-    return tuple(s for s in suppressors if not s.conducts)
+    return tuple(s for s in suppressors if not s.conducts and s.functional)
 
 
 def unsuppressed_loads(element: ElementAnalysis) -> list[SwitchedLoad]:
     """Inductive loads with nothing across them, nothing built in, nothing across E."""
-    if any(s.placement == "across-element" and not s.conducts for s in element.suppression):
+    if effective(tuple(s for s in element.suppression if s.placement == "across-element")):
         return []
     return [ld for ld in element.inductive_loads if not effective(ld.suppressors)]
 

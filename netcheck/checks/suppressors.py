@@ -44,7 +44,8 @@ def fitted_suppressors(ctx: CheckContext) -> list[Fitted]:
                                          load_transient(load, element.voltage, s),
                                          load.facts.ref)
         for s in element.suppression:
-            if s.placement == "across-element" and not s.conducts and s.refs not in out:
+            if s.placement == "across-element" and s in effective(element.suppression) \
+                    and s.refs not in out:
                 current = sum((ld.current for ld in element.loads), Q_(0.0, "A"))
                 out[s.refs] = Fitted(s, element.voltage, current,
                                      element_transient(element, s), element.name)
@@ -149,7 +150,7 @@ def _resistor_range(element: ElementAnalysis) -> tuple[pint.Quantity, pint.Quant
 
 def _element_peak(element: ElementAnalysis) -> OpeningFacts | None:
     across = [s for s in element.suppression if s.placement == "across-element"
-              and not s.conducts]
+              and s.functional and not s.conducts]
     if across:
         return element_transient(element, across[0])
     loads = element.inductive_loads
