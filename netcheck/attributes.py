@@ -85,8 +85,16 @@ _CHOICES: dict[str, object] = {
     "blowout": ("none", "permanent-magnet", "series-coil"),
 }
 
-COIL_KEYS = ("supply", "voltage", "resistance", "inductance", "time_constant",
-             "suppression", "economy", "release_current")
+COIL_KEYS = (
+    "supply",
+    "voltage",
+    "resistance",
+    "inductance",
+    "time_constant",
+    "suppression",
+    "economy",
+    "release_current",
+)
 CONTACT_KEYS = ("form", "voltage_max", "polarized", "making_current", "blowout")
 
 _COMMON = ("part", "tags")

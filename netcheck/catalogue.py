@@ -66,7 +66,9 @@ def _variants(value: Any) -> dict[str, str]:
 
 def _rule(entry: Mapping[str, Any], family: str) -> RuleMeta:
     margins = {
-        name: Margin(name, float(m["default"]), str(m["source"]), str(m.get("about", "")))
+        name: Margin(
+            name, float(m["default"]), str(m["source"]), str(m.get("about", ""))
+        )
         for name, m in (entry.get("margins") or {}).items()
     }
     return RuleMeta(

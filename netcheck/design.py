@@ -36,8 +36,13 @@ from netcheck.model import (
     SwitchingElement,
     Waiver,
 )
-from netcheck.parse import ComponentStatement, FileStatement, WaiveStatement, decode_source
-from netcheck.parse import parse_text
+from netcheck.parse import (
+    ComponentStatement,
+    FileStatement,
+    WaiveStatement,
+    decode_source,
+    parse_text,
+)
 from netcheck.parts import load_library
 from netcheck.poles import check_terminals, elements_of, infer_poles, poles_from_part
 from netcheck.source import Span
@@ -71,9 +76,13 @@ class _Reader:
     def resolve(self, base: Path, text: str, span: Span, what: str) -> Path | None:
         target = (base.parent / text).resolve()
         if not self.allow_outside and not target.is_relative_to(self.root):
-            self.errors.append(IncludeError(
-                f"{what} {text!r} is outside the design's folder "
-                f"({self.display(self.root)}); --allow-outside permits it", span))
+            self.errors.append(
+                IncludeError(
+                    f"{what} {text!r} is outside the design's folder "
+                    f"({self.display(self.root)}); --allow-outside permits it",
+                    span,
+                )
+            )
             return None
         if not target.is_file():
             self.errors.append(IncludeError(f"{what} {text!r} not found", span))
@@ -87,12 +96,14 @@ class _Reader:
             self.errors.append(IncludeError(f"include cycle: {cycle}", span))
             return
         if len(chain) > MAX_INCLUDE_DEPTH:
-            self.errors.append(IncludeError(
-                f"includes nested deeper than {MAX_INCLUDE_DEPTH}", span))
+            self.errors.append(
+                IncludeError(f"includes nested deeper than {MAX_INCLUDE_DEPTH}", span)
+            )
             return
         if path.stat().st_size > MAX_FILE_BYTES:
-            self.errors.append(InputError(
-                f"{display} is larger than {MAX_FILE_BYTES} bytes", span))
+            self.errors.append(
+                InputError(f"{display} is larger than {MAX_FILE_BYTES} bytes", span)
+            )
             return
         self.files.append(display)
         try:
@@ -111,22 +122,35 @@ class _Reader:
             self.statements.append(statement)
         elif isinstance(statement, WaiveStatement):
             if not statement.reason.strip():
-                self.errors.append(InputError(
-                    "a waiver needs a non-empty reason", statement.reason_span))
-            self.waivers.append(Waiver(statement.rule, statement.target,
-                                       statement.reason, statement.span))
+                self.errors.append(
+                    InputError(
+                        "a waiver needs a non-empty reason", statement.reason_span
+                    )
+                )
+            self.waivers.append(
+                Waiver(
+                    statement.rule, statement.target, statement.reason, statement.span
+                )
+            )
         elif isinstance(statement, FileStatement):
             self.file_statement(statement, path, chain)
 
-    def file_statement(self, statement: FileStatement, path: Path,
-                       chain: tuple[Path, ...]) -> None:
+    def file_statement(
+        self, statement: FileStatement, path: Path, chain: tuple[Path, ...]
+    ) -> None:
         if statement.keyword == "title":
             if self.title_span is not None:
-                self.errors.append(InputError(
-                    f"a second title (the first is at {self.title_span})", statement.span))
+                self.errors.append(
+                    InputError(
+                        f"a second title (the first is at {self.title_span})",
+                        statement.span,
+                    )
+                )
             self.title, self.title_span = statement.text, statement.span
         elif statement.keyword == "parts":
-            target = self.resolve(path, statement.text, statement.text_span, "part library")
+            target = self.resolve(
+                path, statement.text, statement.text_span, "part library"
+            )
             if target is not None:
                 self.libraries.append((target, statement.text_span))
         else:
@@ -153,7 +177,9 @@ def _parse_value(key: str, text: str, span: Span, quoted: bool) -> Any:
     assert isinstance(allowed, tuple)
     if text not in allowed:
         raise QuantityError(
-            f"{key}={text} is not one of {', '.join(allowed)}{_close(text, allowed)}", span)
+            f"{key}={text} is not one of {', '.join(allowed)}{_close(text, allowed)}",
+            span,
+        )
     if allowed == ("yes", "no"):
         return text == "yes"
     return text
@@ -171,7 +197,9 @@ def _allowed_keys(kind: str) -> list[str]:
 def _merge(part: Part | None, attributes: Sequence[Attribute]) -> dict[str, Any]:
     values: dict[str, Any] = {}
     if part is not None:
-        values = {k: (dict(v) if isinstance(v, Mapping) else v) for k, v in part.data.items()}
+        values = {
+            k: (dict(v) if isinstance(v, Mapping) else v) for k, v in part.data.items()
+        }
     for attribute in attributes:
         if "." in attribute.key:
             group, key = attribute.key.split(".", 1)
@@ -191,9 +219,13 @@ class _Builder:
         out = []
         for raw in statement.attributes:
             if raw.key not in allowed:
-                self.errors.append(InputError(
-                    f"{statement.kind} has no attribute {raw.key!r}"
-                    f"{_close(raw.key, allowed)} (known: {', '.join(allowed)})", raw.span))
+                self.errors.append(
+                    InputError(
+                        f"{statement.kind} has no attribute {raw.key!r}"
+                        f"{_close(raw.key, allowed)} (known: {', '.join(allowed)})",
+                        raw.span,
+                    )
+                )
                 continue
             try:
                 value = _parse_value(raw.key, raw.text, raw.value_span, raw.quoted)
@@ -203,19 +235,27 @@ class _Builder:
             out.append(Attribute(raw.key, value, raw.text, raw.span))
         return out
 
-    def part(self, statement: ComponentStatement, attributes: list[Attribute]) -> Part | None:
+    def part(
+        self, statement: ComponentStatement, attributes: list[Attribute]
+    ) -> Part | None:
         name = next((a.value for a in attributes if a.key == "part"), None)
         if name is None:
             return None
         part = self.parts.get(name)
         span = next(a.span for a in attributes if a.key == "part")
         if part is None:
-            self.errors.append(PartsError(
-                f"unknown part {name!r}{_close(name, sorted(self.parts))}", span))
+            self.errors.append(
+                PartsError(
+                    f"unknown part {name!r}{_close(name, sorted(self.parts))}", span
+                )
+            )
             return None
         if part.kind != statement.kind:
-            self.errors.append(PartsError(
-                f"part {name!r} is a {part.kind}, not a {statement.kind}", span))
+            self.errors.append(
+                PartsError(
+                    f"part {name!r} is a {part.kind}, not a {statement.kind}", span
+                )
+            )
             return None
         return part
 
@@ -224,16 +264,21 @@ class _Builder:
         out = []
         for terminal, net, span in statement.connections:
             if terminal in seen:
-                self.errors.append(InputError(
-                    f"terminal {terminal!r} of {statement.ref} is connected twice "
-                    f"(first at {seen[terminal]})", span))
+                self.errors.append(
+                    InputError(
+                        f"terminal {terminal!r} of {statement.ref} is connected twice "
+                        f"(first at {seen[terminal]})",
+                        span,
+                    )
+                )
                 continue
             seen[terminal] = span
             out.append(Connection(terminal, net, span))
         return tuple(out)
 
-    def check_fixed_terminals(self, statement: ComponentStatement,
-                              connections: Sequence[Connection]) -> None:
+    def check_fixed_terminals(
+        self, statement: ComponentStatement, connections: Sequence[Connection]
+    ) -> None:
         sets = KIND_TERMINALS[statement.kind]
         if sets is None:
             return
@@ -243,13 +288,21 @@ class _Builder:
         names = " or ".join(" ".join(s) for s in sets)
         for connection in connections:
             if not any(connection.terminal in s and used <= set(s) for s in sets):
-                self.errors.append(InputError(
-                    f"{statement.kind} {statement.ref} has terminals {names}; "
-                    f"{connection.terminal!r} is not one of them", connection.span))
+                self.errors.append(
+                    InputError(
+                        f"{statement.kind} {statement.ref} has terminals {names}; "
+                        f"{connection.terminal!r} is not one of them",
+                        connection.span,
+                    )
+                )
                 return
 
-    def poles(self, statement: ComponentStatement, part: Part | None,
-              connections: Sequence[Connection]) -> tuple[tuple, tuple]:
+    def poles(
+        self,
+        statement: ComponentStatement,
+        part: Part | None,
+        connections: Sequence[Connection],
+    ) -> tuple[tuple, tuple]:
         kind = statement.kind
         used = [c.terminal for c in connections]
         spans = {c.terminal: c.span for c in connections}
@@ -260,44 +313,63 @@ class _Builder:
             return (), self.output_elements(statement, connections)
         if part is not None and part.data.get("poles"):
             poles = poles_from_part(part.data["poles"])
-            self.errors.extend(check_terminals(statement.ref, poles, used, has_coil, spans))
+            self.errors.extend(
+                check_terminals(statement.ref, poles, used, has_coil, spans)
+            )
         else:
             poles, unexplained = infer_poles(used, has_coil)
             for terminal in unexplained:
-                self.errors.append(InputError(
-                    f"terminal {terminal!r} of {statement.ref} fits no pole of the "
-                    "terminal-marking convention (A1/A2 coil; 11-12 NC, 13-14 NO, "
-                    "11/12/14 changeover; 1-2, 3-4, 5-6 main poles); give the part's "
-                    "poles", spans[terminal]))
+                self.errors.append(
+                    InputError(
+                        f"terminal {terminal!r} of {statement.ref} fits no pole of the "
+                        "terminal-marking convention (A1/A2 coil; 11-12 NC, 13-14 NO, "
+                        "11/12/14 changeover; 1-2, 3-4, 5-6 main poles); give the "
+                        "part's poles",
+                        spans[terminal],
+                    )
+                )
         elements = elements_of(statement.ref, poles, set(used), statement.span)
         return tuple(poles), tuple(elements)
 
-    def protective_poles(self, statement: ComponentStatement,
-                         connections: Sequence[Connection]) -> tuple[tuple, tuple]:
+    def protective_poles(
+        self, statement: ComponentStatement, connections: Sequence[Connection]
+    ) -> tuple[tuple, tuple]:
         poles, unexplained = infer_poles([c.terminal for c in connections], False)
         spans = {c.terminal: c.span for c in connections}
         for terminal in unexplained:
-            self.errors.append(InputError(
-                f"terminal {terminal!r} of {statement.ref}: a {statement.kind} has "
-                "terminals 1 2 per pole (3 4, 5 6 for more poles)", spans[terminal]))
+            self.errors.append(
+                InputError(
+                    f"terminal {terminal!r} of {statement.ref}: a {statement.kind} has "
+                    "terminals 1 2 per pole (3 4, 5 6 for more poles)",
+                    spans[terminal],
+                )
+            )
         return tuple(poles), ()
 
-    def output_elements(self, statement: ComponentStatement,
-                        connections: Sequence[Connection]) -> tuple:
+    def output_elements(
+        self, statement: ComponentStatement, connections: Sequence[Connection]
+    ) -> tuple:
         if statement.kind not in ("ssr", "output") or len(connections) != 2:
             return ()
         terminals = [c.terminal for c in connections]
         for first, second in (("+", "-"), ("1", "2"), ("Q", "M")):
             if set(terminals) == {first, second}:
-                return (SwitchingElement(statement.ref, first, second, "output",
-                                         statement.span),)
+                return (
+                    SwitchingElement(
+                        statement.ref, first, second, "output", statement.span
+                    ),
+                )
         return ()
 
     def component(self, statement: ComponentStatement) -> Component | None:
         if statement.kind not in KINDS:
-            self.errors.append(UnknownKindError(
-                f"unknown kind {statement.kind!r}{_close(statement.kind, KINDS)} "
-                f"(known kinds: {', '.join(KINDS)})", statement.kind_span))
+            self.errors.append(
+                UnknownKindError(
+                    f"unknown kind {statement.kind!r}{_close(statement.kind, KINDS)} "
+                    f"(known kinds: {', '.join(KINDS)})",
+                    statement.kind_span,
+                )
+            )
             return None
         attributes = self.attributes(statement)
         part = self.part(statement, attributes)
@@ -306,8 +378,18 @@ class _Builder:
         poles, elements = self.poles(statement, part, connections)
         values = _merge(part, attributes)
         tags = frozenset(values.get("tags", ()))
-        return Component(statement.kind, statement.ref, statement.span, connections,
-                         tuple(attributes), part, values, tags, poles, elements)
+        return Component(
+            statement.kind,
+            statement.ref,
+            statement.span,
+            connections,
+            tuple(attributes),
+            part,
+            values,
+            tags,
+            poles,
+            elements,
+        )
 
 
 def _libraries(reader: _Reader, extra: Sequence[Path]) -> dict[str, Part]:
@@ -324,8 +406,12 @@ def _libraries(reader: _Reader, extra: Sequence[Path]) -> dict[str, Part]:
     return parts
 
 
-def load_design(path: Path, extra_parts: Sequence[Path] = (),
-                allow_outside: bool = False, display_base: Path | None = None) -> Netlist:
+def load_design(
+    path: Path,
+    extra_parts: Sequence[Path] = (),
+    allow_outside: bool = False,
+    display_base: Path | None = None,
+) -> Netlist:
     """Read the design whose top file is ``path``; raise InputErrors on bad input."""
     top = path.resolve()
     reader = _Reader(top.parent, allow_outside, (display_base or Path.cwd()).resolve())
@@ -341,9 +427,13 @@ def load_design(path: Path, extra_parts: Sequence[Path] = (),
     seen: dict[str, Span] = {}
     for statement in reader.statements:
         if statement.ref in seen:
-            reader.errors.append(InputError(
-                f"reference {statement.ref!r} is defined twice (first at "
-                f"{seen[statement.ref]})", statement.ref_span))
+            reader.errors.append(
+                InputError(
+                    f"reference {statement.ref!r} is defined twice (first at "
+                    f"{seen[statement.ref]})",
+                    statement.ref_span,
+                )
+            )
             continue
         seen[statement.ref] = statement.span
         component = builder.component(statement)
@@ -351,8 +441,14 @@ def load_design(path: Path, extra_parts: Sequence[Path] = (),
             components.append(component)
     if reader.errors:
         raise InputErrors(reader.errors)
-    return Netlist(reader.display(top), reader.title, tuple(components),
-                   tuple(reader.waivers), tuple(reader.files), parts)
+    return Netlist(
+        reader.display(top),
+        reader.title,
+        tuple(components),
+        tuple(reader.waivers),
+        tuple(reader.files),
+        parts,
+    )
 
 
 def read_design_text(text: str, file: str = "design.cnet") -> Netlist:

@@ -46,9 +46,9 @@ def _text(value: Any) -> str:
 
 
 def fill_template(template: str, values: Mapping[str, Any]) -> str:
-    """Fill ``{name}`` placeholders with formatted values; KeyError if one is missing."""
+    """Fill ``{name}`` placeholders with formatted values (KeyError if missing)."""
     out = []
-    for literal, name, spec, _conv in string.Formatter().parse(template):
+    for literal, name, _spec, _conv in string.Formatter().parse(template):
         out.append(literal)
         if name is None:
             continue
@@ -104,4 +104,10 @@ class Finding:
 
     def sort_key(self) -> tuple[Any, ...]:
         """Deterministic order: file, line, column, rule, element."""
-        return (self.span.file, self.span.line, self.span.column, self.rule, self.element)
+        return (
+            self.span.file,
+            self.span.line,
+            self.span.column,
+            self.rule,
+            self.element,
+        )

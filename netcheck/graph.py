@@ -26,8 +26,9 @@ BRANCH = "branch"
 
 # Roles of branches.
 SUPPLY, SWITCH, CONDUCTOR, LOAD, COIL = "supply", "switch", "conductor", "load", "coil"
-SUPPRESSOR_KINDS = frozenset({"diode", "zener", "tvs", "varistor", "rc", "capacitor",
-                              "resistor"})
+SUPPRESSOR_KINDS = frozenset(
+    {"diode", "zener", "tvs", "varistor", "rc", "capacitor", "resistor"}
+)
 # Branches that carry no current in a DC steady state and do not join domains.
 NON_CONDUCTING = frozenset({"capacitor", "rc", "varistor", "tvs"})
 
@@ -137,14 +138,17 @@ def build_graph(netlist: Netlist) -> Graph:
     connections: dict[str, list[tuple[Component, str]]] = {}
     for component in netlist.components:
         for connection in component.connections:
-            connections.setdefault(connection.net, []).append((component, connection.terminal))
+            connections.setdefault(connection.net, []).append(
+                (component, connection.terminal)
+            )
             graph.add_node(connection.net)
     branches = [b for c in netlist.components for b in _component_branches(c)]
     joining = nx.Graph()
     joining.add_nodes_from(graph.nodes)
     for branch in branches:
-        graph.add_edge(branch.a, branch.b, key=branch.key, **{ROLE: branch.role,
-                                                               BRANCH: branch})
+        graph.add_edge(
+            branch.a, branch.b, key=branch.key, **{ROLE: branch.role, BRANCH: branch}
+        )
         if branch.role not in NON_CONDUCTING:
             joining.add_edge(branch.a, branch.b)
     domains, domain_of = [], {}
@@ -153,8 +157,10 @@ def build_graph(netlist: Netlist) -> Graph:
         if branch.role == SUPPLY:
             supplies_at.setdefault(branch.a, []).append(branch.component)
     for nets in nx.connected_components(joining):
-        supplies = sorted({s.ref: s for n in nets for s in supplies_at.get(n, [])}.values(),
-                          key=lambda s: (s.span, s.ref))
+        supplies = sorted(
+            {s.ref: s for n in nets for s in supplies_at.get(n, [])}.values(),
+            key=lambda s: (s.span, s.ref),
+        )
         domain = Domain(frozenset(nets), tuple(supplies))
         domains.append(domain)
         for net in nets:

@@ -22,8 +22,9 @@ def run_inspect(args: argparse.Namespace) -> int:
     if args.format == "json":
         text = render_inspect_json(entries)
     else:
-        text = render_inspect_text(display_path(args.file), entries,
-                                   color=bool(getattr(args, "color", False)))
+        text = render_inspect_text(
+            display_path(args.file), entries, color=bool(getattr(args, "color", False))
+        )
     if args.output:
         write_text_atomic(args.output, text)
     else:

@@ -38,11 +38,15 @@ SYNTAX_MESSAGES: dict[str, list[str]] = {
         "relay K1 A1:N3 A2",
         "load Y1 R=10ohm R",
     ],
-    "expected a net name after ':'": ["relay K1 A1:", "relay K1 A1:\n", 'relay K1 A1:"x"'],
+    "expected a net name after ':'": [
+        "relay K1 A1:",
+        "relay K1 A1:\n",
+        'relay K1 A1:"x"',
+    ],
     "expected a value after '='": ["load Y1 R=", "load Y1 R=\n", "load Y1 R=10ohm="],
     "'title', 'parts' and 'include' take one quoted string": [
-        'title foo',
-        'parts x.yaml',
+        "title foo",
+        "parts x.yaml",
         'include "a" "b"',
         "title",
         'title "a" b',
@@ -67,7 +71,7 @@ _CHARACTER_HINTS = {
 
 @dataclass(frozen=True)
 class RawAttribute:
-    """``key=value`` as written: the value's text, unquoted, and whether it was quoted."""
+    """``key=value`` as written: the value's text, unquoted, and if it was quoted."""
 
     key: str
     text: str
@@ -261,8 +265,10 @@ def _examples() -> dict[str, list[str]]:
     by state, so each input is also tried after a blank line and a statement.
     """
     prefixes = ("", "\n", "# c\n", "x y\n", 'title "t"\n')
-    return {message: [p + e for p in prefixes for e in examples]
-            for message, examples in SYNTAX_MESSAGES.items()}
+    return {
+        message: [p + e for p in prefixes for e in examples]
+        for message, examples in SYNTAX_MESSAGES.items()
+    }
 
 
 def _message(error: UnexpectedInput) -> str:
@@ -308,10 +314,14 @@ def _error_span(file: str, error: UnexpectedInput, text: str) -> Span:
 def _statement_lines(lines: list[str], line: int) -> range:
     """The lines of the statement that holds ``line`` (1-based, inclusive range)."""
     first = line
-    while first > 1 and (not lines[first - 1][:1].strip() or lines[first - 1][0] == "#"):
+    while first > 1 and (
+        not lines[first - 1][:1].strip() or lines[first - 1][0] == "#"
+    ):
         first -= 1
     last = line
-    while last < len(lines) and (lines[last][:1] in (" ", "\t") or not lines[last].strip()):
+    while last < len(lines) and (
+        lines[last][:1] in (" ", "\t") or not lines[last].strip()
+    ):
         last += 1
     return range(first, last + 1)
 

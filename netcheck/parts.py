@@ -70,7 +70,8 @@ def _schema_message(error: jsonschema.ValidationError) -> tuple[tuple[Any, ...],
     if "propertyNames" in error.schema_path and error.validator == "enum":
         allowed = _known(error.validator_value)
         return (*path, error.instance), (
-            f"unknown key {error.instance!r} for this kind of part (known keys: {allowed})"
+            f"unknown key {error.instance!r} for this kind of part "
+            f"(known keys: {allowed})"
         )
     if error.validator == "enum":
         return path, f"{error.instance!r} is not one of {_known(error.validator_value)}"
@@ -114,7 +115,11 @@ def _convert(value: Any, key: str | None) -> Any:
         return {k: _convert(v, k) for k, v in value.items()}
     if isinstance(value, list):
         return tuple(_convert(v, key) for v in value)
-    if key in QUANTITY_KEYS and key not in _NON_QUANTITY and isinstance(value, (str, int, float)):
+    if (
+        key in QUANTITY_KEYS
+        and key not in _NON_QUANTITY
+        and isinstance(value, (str, int, float))
+    ):
         if isinstance(value, (int, float)):
             return parse_quantity(str(value), QUANTITY_KEYS[key])
         return parse_quantity(value, QUANTITY_KEYS[key])
@@ -127,15 +132,18 @@ def parse_library(text: str, file: str) -> dict[str, Part]:
     """Parse and validate a part library's text; raise InputErrors on problems."""
     doc = load_located_yaml(text, file, PartsError)
     if not isinstance(doc.data, dict):
-        raise PartsError("a part library is a mapping with 'format' and 'parts'",
-                         doc.span(()))
+        raise PartsError(
+            "a part library is a mapping with 'format' and 'parts'", doc.span(())
+        )
     errors = _validate(doc)
     if errors:
         raise InputErrors(errors)
     parts = {}
     for name, data in doc.data["parts"].items():
         converted = _convert(data, None)
-        parts[name] = Part(name, converted["kind"], converted, doc.span(("parts", name)), file)
+        parts[name] = Part(
+            name, converted["kind"], converted, doc.span(("parts", name)), file
+        )
     return parts
 
 
@@ -143,7 +151,9 @@ def load_library(path: Path, display: str) -> dict[str, Part]:
     """Read a part library file (``display`` is the name used in messages)."""
     size = path.stat().st_size
     if size > MAX_LIBRARY_BYTES:
-        raise PartsError(f"part library is {size} bytes; the limit is {MAX_LIBRARY_BYTES}")
+        raise PartsError(
+            f"part library is {size} bytes; the limit is {MAX_LIBRARY_BYTES}"
+        )
     data = path.read_bytes()
     try:
         text = data.decode("utf-8").removeprefix("\ufeff")

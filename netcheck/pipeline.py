@@ -37,7 +37,9 @@ class CheckResult:
     files: Sequence[str]
 
 
-def _matches(waiver: Waiver, finding: Finding, catalogue: Mapping[str, RuleMeta]) -> bool:
+def _matches(
+    waiver: Waiver, finding: Finding, catalogue: Mapping[str, RuleMeta]
+) -> bool:
     meta = catalogue.get(waiver.rule)
     if meta is None or meta.name != finding.rule:
         return False
@@ -45,8 +47,9 @@ def _matches(waiver: Waiver, finding: Finding, catalogue: Mapping[str, RuleMeta]
     return waiver.target in (finding.element, device)
 
 
-def _apply_waivers(netlist: Netlist, findings: list[Finding],
-                   catalogue: Mapping[str, RuleMeta]) -> list[Finding]:
+def _apply_waivers(
+    netlist: Netlist, findings: list[Finding], catalogue: Mapping[str, RuleMeta]
+) -> list[Finding]:
     used: set[int] = set()
     out = []
     for finding in findings:
@@ -61,19 +64,30 @@ def _apply_waivers(netlist: Netlist, findings: list[Finding],
         if index in used:
             continue
         known = waiver.rule in catalogue
-        values = {"rule": waiver.rule, "target": waiver.target,
-                  "why": "no such finding" if known else "no rule of that name"}
-        out.append(Finding(
-            rule=meta.name, severity=meta.severity,
-            message=fill_template(meta.message(), values), span=waiver.span,
-            element=waiver.target, values={},
-            fix=fill_template(meta.fix() or "", values) or None,
-            references=meta.references, key=waiver.rule))
+        values = {
+            "rule": waiver.rule,
+            "target": waiver.target,
+            "why": "no such finding" if known else "no rule of that name",
+        }
+        out.append(
+            Finding(
+                rule=meta.name,
+                severity=meta.severity,
+                message=fill_template(meta.message(), values),
+                span=waiver.span,
+                element=waiver.target,
+                values={},
+                fix=fill_template(meta.fix() or "", values) or None,
+                references=meta.references,
+                key=waiver.rule,
+            )
+        )
     return out
 
 
-def run_checks(netlist: Netlist, analysis: Analysis,
-               margins: Mapping[str, float] = {}) -> list[Finding]:
+def run_checks(
+    netlist: Netlist, analysis: Analysis, margins: Mapping[str, float] = {}
+) -> list[Finding]:
     """Run every check on an analysed design and apply its waivers."""
     catalogue = load_catalogue()
     checks = all_checks()
@@ -87,8 +101,14 @@ def run_checks(netlist: Netlist, analysis: Analysis,
     out = []
     for finding in findings:
         file = _relative(finding.span.file)
-        out.append(replace(finding, fingerprint=fingerprint(
-            finding.rule, file, finding.element, finding.key)))
+        out.append(
+            replace(
+                finding,
+                fingerprint=fingerprint(
+                    finding.rule, file, finding.element, finding.key
+                ),
+            )
+        )
     out.sort(key=Finding.sort_key)
     return out
 
@@ -97,11 +117,13 @@ def _relative(file: str) -> str:
     return Path(file).as_posix()
 
 
-def analyse_path(path: Path, options: CheckOptions = CheckOptions()
-                 ) -> tuple[Netlist, Analysis]:
+def analyse_path(
+    path: Path, options: CheckOptions = CheckOptions()
+) -> tuple[Netlist, Analysis]:
     """Read and analyse one design; raises InputError on bad input."""
-    netlist = load_design(path, options.extra_parts, options.allow_outside,
-                          display_base=Path(os.getcwd()))
+    netlist = load_design(
+        path, options.extra_parts, options.allow_outside, display_base=Path(os.getcwd())
+    )
     return netlist, analyse(build_graph(netlist))
 
 

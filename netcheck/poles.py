@@ -46,7 +46,9 @@ def _auxiliary(sequence: str, units: set[str]) -> tuple[list[Pole], set[str]]:
     return poles, used
 
 
-def infer_poles(terminals: Iterable[str], has_coil: bool) -> tuple[list[Pole], list[str]]:
+def infer_poles(
+    terminals: Iterable[str], has_coil: bool
+) -> tuple[list[Pole], list[str]]:
     """Infer poles from terminal numbers; return (poles, unexplained terminals)."""
     groups: dict[str, set[str]] = {}
     main: set[str] = set()
@@ -86,19 +88,27 @@ def poles_from_part(entries: Sequence[dict]) -> list[Pole]:
     ]
 
 
-def elements_of(device: str, poles: Sequence[Pole], used: set[str], span: Span
-                ) -> list[SwitchingElement]:
+def elements_of(
+    device: str, poles: Sequence[Pole], used: set[str], span: Span
+) -> list[SwitchingElement]:
     """The switching elements of the poles whose terminals are connected."""
     elements = []
     for pole in poles:
         for form, other in (("nc", pole.nc), ("no", pole.no)):
             if other is not None and pole.common in used and other in used:
-                elements.append(SwitchingElement(device, pole.common, other, form, span))
+                elements.append(
+                    SwitchingElement(device, pole.common, other, form, span)
+                )
     return elements
 
 
-def check_terminals(ref: str, poles: Sequence[Pole], used: Iterable[str],
-                    has_coil: bool, spans: dict[str, Span]) -> list[InputError]:
+def check_terminals(
+    ref: str,
+    poles: Sequence[Pole],
+    used: Iterable[str],
+    has_coil: bool,
+    spans: dict[str, Span],
+) -> list[InputError]:
     """Errors for connected terminals that no pole (or coil) explains."""
     known = {t for p in poles for t in (p.common, p.no, p.nc) if t}
     if has_coil:
@@ -106,7 +116,11 @@ def check_terminals(ref: str, poles: Sequence[Pole], used: Iterable[str],
     errors: list[InputError] = []
     for terminal in used:
         if terminal not in known:
-            errors.append(InputError(
-                f"terminal {terminal!r} of {ref} is not a terminal of its poles "
-                f"({', '.join(sorted(known)) or 'none'})", spans[terminal]))
+            errors.append(
+                InputError(
+                    f"terminal {terminal!r} of {ref} is not a terminal of its poles "
+                    f"({', '.join(sorted(known)) or 'none'})",
+                    spans[terminal],
+                )
+            )
     return errors

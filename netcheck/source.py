@@ -44,7 +44,7 @@ def _line_of(span: Span) -> str | None:
 
 
 def excerpt(span: Span) -> str:
-    """Return the source line of ``span`` and a caret under its column ('' if unknown)."""
+    """Return the source line of ``span`` and a caret under it ('' if unknown)."""
     line = _line_of(span)
     if line is None:
         return ""

@@ -39,8 +39,10 @@ _UNIT = re.compile(r"\A[A-Za-zΩµμ%°]+\Z")
 _LIMIT = 1e15
 
 
-def parse_quantity(text: str, dimension: str, span: Span | None = None) -> pint.Quantity:
-    """Parse ``24V``/``"48 ohm"`` into a quantity of ``dimension`` or raise QuantityError."""
+def parse_quantity(
+    text: str, dimension: str, span: Span | None = None
+) -> pint.Quantity:
+    """Parse ``24V`` or ``"48 ohm"`` as a ``dimension``; raise QuantityError if not."""
     match = _NUMBER.match(text)
     if match is None:
         raise QuantityError(f"expected a {dimension} such as '24V', got {text!r}", span)

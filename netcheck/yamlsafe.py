@@ -57,17 +57,22 @@ class _Builder:
             )
         self.spans.setdefault(path, _mark_span(self.file, node))
         if node.tag not in _PLAIN_TAGS and not isinstance(node, yaml.ScalarNode):
-            raise self.error(f"YAML tag {node.tag!r} is not allowed here",
-                             _mark_span(self.file, node))
+            raise self.error(
+                f"YAML tag {node.tag!r} is not allowed here",
+                _mark_span(self.file, node),
+            )
         if isinstance(node, yaml.MappingNode):
             return self._mapping(node, path, depth)
         if isinstance(node, yaml.SequenceNode):
             return [
-                self.build(item, (*path, i), depth + 1) for i, item in enumerate(node.value)
+                self.build(item, (*path, i), depth + 1)
+                for i, item in enumerate(node.value)
             ]
         return yaml.SafeLoader.construct_object(_LOADER, node)  # type: ignore[arg-type]
 
-    def _mapping(self, node: yaml.MappingNode, path: tuple[Any, ...], depth: int) -> dict:
+    def _mapping(
+        self, node: yaml.MappingNode, path: tuple[Any, ...], depth: int
+    ) -> dict:
         out: dict[Any, Any] = {}
         for key_node, value_node in node.value:
             if key_node.tag == "tag:yaml.org,2002:merge":
@@ -77,7 +82,8 @@ class _Builder:
                 )
             if not isinstance(key_node, yaml.ScalarNode):
                 raise self.error(
-                    "a mapping key must be a plain value", _mark_span(self.file, key_node)
+                    "a mapping key must be a plain value",
+                    _mark_span(self.file, key_node),
                 )
             # The key as written: YAML 1.1 would read 'no:' as False.
             key = key_node.value

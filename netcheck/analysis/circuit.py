@@ -62,11 +62,19 @@ def _diode_current(d: Diode, state: str, va: float, vb: float) -> float:
     return 0.0
 
 
-def _stamp(matrix: np.ndarray, rhs: np.ndarray, index: Mapping[str, int],
-           fixed: Mapping[str, float], a: str, b: str, g: float, offset: float) -> None:
+def _stamp(
+    matrix: np.ndarray,
+    rhs: np.ndarray,
+    index: Mapping[str, int],
+    fixed: Mapping[str, float],
+    a: str,
+    b: str,
+    g: float,
+    offset: float,
+) -> None:
     """Stamp a branch with current g*(Va - Vb - offset) from a to b."""
     ia, ib = index.get(a), index.get(b)
-    for node, sign, i in ((a, 1.0, ia), (b, -1.0, ib)):
+    for _node, sign, i in ((a, 1.0, ia), (b, -1.0, ib)):
         if i is None:
             continue
         rhs[i] += sign * g * offset
@@ -77,9 +85,13 @@ def _stamp(matrix: np.ndarray, rhs: np.ndarray, index: Mapping[str, int],
                 matrix[i, j] += sign * osign * g
 
 
-def _linear_solve(nodes: Sequence[str], fixed: Mapping[str, float],
-                  resistors: Sequence[Resistor], diodes: Sequence[Diode],
-                  states: Mapping[str, str]) -> dict[str, float]:
+def _linear_solve(
+    nodes: Sequence[str],
+    fixed: Mapping[str, float],
+    resistors: Sequence[Resistor],
+    diodes: Sequence[Diode],
+    states: Mapping[str, str],
+) -> dict[str, float]:
     index = {n: i for i, n in enumerate(nodes)}
     size = len(nodes)
     matrix = np.eye(size) * G_MIN
@@ -110,8 +122,12 @@ def _next_state(d: Diode, state: str, va: float, vb: float) -> str:
     return "off"
 
 
-def solve_dc(nodes: Sequence[str], fixed: Mapping[str, float],
-             resistors: Sequence[Resistor], diodes: Sequence[Diode] = ()) -> Solution:
+def solve_dc(
+    nodes: Sequence[str],
+    fixed: Mapping[str, float],
+    resistors: Sequence[Resistor],
+    diodes: Sequence[Diode] = (),
+) -> Solution:
     """Solve the DC operating point; ``fixed`` nodes have given potentials.
 
     Diode states are found by iteration from all-off, one state change at a
@@ -134,7 +150,11 @@ def solve_dc(nodes: Sequence[str], fixed: Mapping[str, float],
         changes.sort(reverse=True)
         _, key, new = changes[0]
         states[key] = new
-    currents = {r.key: (potentials[r.a] - potentials[r.b]) / r.resistance for r in resistors}
+    currents = {
+        r.key: (potentials[r.a] - potentials[r.b]) / r.resistance for r in resistors
+    }
     for d in diodes:
-        currents[d.key] = _diode_current(d, states[d.key], potentials[d.a], potentials[d.b])
+        currents[d.key] = _diode_current(
+            d, states[d.key], potentials[d.a], potentials[d.b]
+        )
     return Solution(potentials, currents, states)

@@ -19,10 +19,18 @@ from netcheck.analysis.circuit import Diode, Resistor, Solution, solve_dc
 from netcheck.analysis.loads import LoadFacts, load_facts
 from netcheck.graph import COIL, CONDUCTOR, LOAD, SUPPLY, SWITCH, Branch, Domain
 
-__all__ = ["DomainState", "solve_domain", "UnionFind", "DEFAULT_VF", "CONDUCTING",
-           "shunts"]
+__all__ = [
+    "DomainState",
+    "solve_domain",
+    "UnionFind",
+    "DEFAULT_VF",
+    "CONDUCTING",
+    "shunts",
+]
 
-DEFAULT_VF = 0.7  # V; a silicon diode's forward drop where the part gives none (common practice)
+DEFAULT_VF = (
+    0.7  # V; a silicon diode's forward drop where the part gives none (common practice)
+)
 
 
 class UnionFind:
@@ -94,8 +102,9 @@ def _vf(branch: Branch) -> float:
     return float(value.to("V").magnitude) if value is not None else DEFAULT_VF
 
 
-def _groups(domain: Domain, open_keys: frozenset[str]) -> tuple[dict[str, str],
-                                                                  dict[str, str]]:
+def _groups(
+    domain: Domain, open_keys: frozenset[str]
+) -> tuple[dict[str, str], dict[str, str]]:
     groups, wires = UnionFind(), UnionFind()
     for net in domain.nets:
         groups.find(net)
@@ -105,7 +114,10 @@ def _groups(domain: Domain, open_keys: frozenset[str]) -> tuple[dict[str, str],
             groups.union(branch.a, branch.b)
         if branch.role == CONDUCTOR:
             wires.union(branch.a, branch.b)
-    return ({n: groups.find(n) for n in domain.nets}, {n: wires.find(n) for n in domain.nets})
+    return (
+        {n: groups.find(n) for n in domain.nets},
+        {n: wires.find(n) for n in domain.nets},
+    )
 
 
 def _rails(domain: Domain, group: dict[str, str]) -> tuple[dict, dict, dict, list]:
@@ -137,8 +149,9 @@ def _rails(domain: Domain, group: dict[str, str]) -> tuple[dict, dict, dict, lis
 
 def _internal_components(state: DomainState) -> list[set[str]]:
     graph = nx.Graph()
-    for branch in state.resistive + [b for b in state.domain.branches
-                                     if b.kind in ("diode", "zener", "tvs")]:
+    for branch in state.resistive + [
+        b for b in state.domain.branches if b.kind in ("diode", "zener", "tvs")
+    ]:
         ga, gb = state.group[branch.a], state.group[branch.b]
         for g in (ga, gb):
             if g not in state.rails:
@@ -163,8 +176,15 @@ def _elements(state: DomainState, groups: Iterable[str]) -> tuple[list, list]:
             ga, gb = state.group[branch.a], state.group[branch.b]
             if ga in members or gb in members:
                 vz = branch.component.value("vz") if branch.kind == "zener" else None
-                diodes.append(Diode(branch.key, ga, gb, _vf(branch),
-                                    float(vz.to("V").magnitude) if vz is not None else None))
+                diodes.append(
+                    Diode(
+                        branch.key,
+                        ga,
+                        gb,
+                        _vf(branch),
+                        float(vz.to("V").magnitude) if vz is not None else None,
+                    )
+                )
     return resistors, diodes
 
 
@@ -186,7 +206,9 @@ def _direct_solve(state: DomainState) -> Solution:
     return solve_dc(list(rails), state.rails, resistors, diodes)
 
 
-CONDUCTING = 1e-6  # A; a suppressor carrying more than this conducts in normal operation
+CONDUCTING = (
+    1e-6  # A; a suppressor carrying more than this conducts in normal operation
+)
 
 
 def _find_shorts(state: DomainState, diodes: list[Diode]) -> None:
@@ -198,13 +220,19 @@ def _find_shorts(state: DomainState, diodes: list[Diode]) -> None:
     for component in nx.connected_components(links):
         rails = [g for g in component if g in state.rails]
         if len({round(state.rails[g], 9) for g in rails}) > 1:
-            keys = tuple(sorted(links.edges[u, v]["key"] for u, v in
-                                links.subgraph(component).edges))
+            keys = tuple(
+                sorted(
+                    links.edges[u, v]["key"] for u, v in links.subgraph(component).edges
+                )
+            )
             state.shorts.append(tuple(state.branch_by_key[k] for k in keys))
 
 
-def solve_domain(domain: Domain, open_keys: frozenset[str] = frozenset(),
-                 opened: frozenset[str] = frozenset()) -> DomainState:
+def solve_domain(
+    domain: Domain,
+    open_keys: frozenset[str] = frozenset(),
+    opened: frozenset[str] = frozenset(),
+) -> DomainState:
     """Solve a DC domain with every switching element closed but ``open_keys``.
 
     ``opened`` records the elements the state itself keeps open (changeover
@@ -216,20 +244,41 @@ def solve_domain(domain: Domain, open_keys: frozenset[str] = frozenset(),
     for branch in domain.branches:
         if branch.role in (LOAD, COIL):
             facts[branch.key] = load_facts(branch)
-            (resistive if facts[branch.key].resistance is not None else unknown).append(branch)
+            (resistive if facts[branch.key].resistance is not None else unknown).append(
+                branch
+            )
         elif branch.role == "resistor":
-            (resistive if branch.component.value("R") is not None else unknown).append(branch)
-    state = DomainState(domain, group, wire, rails, emf, r_int, {}, {}, {}, facts,
-                        resistive, unknown, supply_shorts=supply_shorts,
-                        branch_by_key={b.key: b for b in domain.branches}, opened=opened)
+            (resistive if branch.component.value("R") is not None else unknown).append(
+                branch
+            )
+    state = DomainState(
+        domain,
+        group,
+        wire,
+        rails,
+        emf,
+        r_int,
+        {},
+        {},
+        {},
+        facts,
+        resistive,
+        unknown,
+        supply_shorts=supply_shorts,
+        branch_by_key={b.key: b for b in domain.branches},
+        opened=opened,
+    )
     for branch in domain.branches:
         state.attached.setdefault(branch.a, []).append(branch)
         state.attached.setdefault(branch.b, []).append(branch)
     solutions = [_direct_solve(state)]
     for index, members in enumerate(_internal_components(state)):
         resistors, diodes = _elements(state, members)
-        nodes = sorted(members | {n for r in resistors for n in (r.a, r.b)}
-                       | {n for d in diodes for n in (d.a, d.b)})
+        nodes = sorted(
+            members
+            | {n for r in resistors for n in (r.a, r.b)}
+            | {n for d in diodes for n in (d.a, d.b)}
+        )
         fixed = {n: state.rails[n] for n in nodes if n in state.rails}
         solutions.append(solve_dc(nodes, fixed, resistors, diodes))
         rails_touched = frozenset(n for n in nodes if n in state.rails)
@@ -257,5 +306,8 @@ def solve_domain(domain: Domain, open_keys: frozenset[str] = frozenset(),
 
 def shunts(state: DomainState) -> list[Branch]:
     """Loads and resistors whose two ends lie in one zero-ohm group."""
-    return [b for b in state.resistive if state.group[b.a] == state.group[b.b]
-            and b.a != b.b]
+    return [
+        b
+        for b in state.resistive
+        if state.group[b.a] == state.group[b.b] and b.a != b.b
+    ]

@@ -5,17 +5,22 @@ from __future__ import annotations
 from collections.abc import Mapping
 from dataclasses import dataclass, field, replace
 
-from netcheck.analysis.domain import CONDUCTING, DomainState, shunts, solve_domain
 import pint
 
-from netcheck.analysis.loads import LoadFacts, category_for, is_inductive, load_facts
-from netcheck.analysis.loads import most_demanding
+from netcheck.analysis.domain import CONDUCTING, DomainState, shunts, solve_domain
+from netcheck.analysis.loads import (
+    LoadFacts,
+    category_for,
+    is_inductive,
+    load_facts,
+    most_demanding,
+)
 from netcheck.analysis.suppression import Chain, find_chains
 from netcheck.analysis.switched import (
     ElementAnalysis,
     Opening,
-    SwitchedLoad,
     Suppressor,
+    SwitchedLoad,
     net_injections,
     open_element,
 )
@@ -58,8 +63,13 @@ class Analysis:
     @property
     def reversed_suppressors(self) -> set[str]:
         """References of suppressors across a load that conduct in normal operation."""
-        return {ref for info in self.loads.values() for s in info.suppressors
-                if s.conducts for ref in s.refs}
+        return {
+            ref
+            for info in self.loads.values()
+            for s in info.suppressors
+            if s.conducts
+            for ref in s.refs
+        }
 
     def sorted_elements(self) -> list[ElementAnalysis]:
         """Elements sorted by name."""
@@ -103,10 +113,16 @@ def _passes(chain: Chain, source: str, wire: Mapping[str, str]) -> bool:
     return True
 
 
-def _suppressors_between(chains: Mapping[frozenset[str], list[Chain]],
-                         wire: Mapping[str, str], a: str, b: str, placement: str,
-                         load: str | None, currents: Mapping[str, float],
-                         source: str | None = None) -> list[Suppressor]:
+def _suppressors_between(
+    chains: Mapping[frozenset[str], list[Chain]],
+    wire: Mapping[str, str],
+    a: str,
+    b: str,
+    placement: str,
+    load: str | None,
+    currents: Mapping[str, float],
+    source: str | None = None,
+) -> list[Suppressor]:
     """Suppressors between nets ``a`` and ``b``.
 
     ``source`` is the net the suppressor must carry current away from at opening
@@ -115,26 +131,41 @@ def _suppressors_between(chains: Mapping[frozenset[str], list[Chain]],
     """
     found = []
     for chain in chains.get(frozenset({wire.get(a, a), wire.get(b, b)}), ()):
-        conducts = any(abs(currents.get(br.key, 0.0)) > CONDUCTING for br in chain.branches)
+        conducts = any(
+            abs(currents.get(br.key, 0.0)) > CONDUCTING for br in chain.branches
+        )
         functional = source is None or _passes(chain, source, wire)
-        found.append(Suppressor(chain.kind, placement, chain.refs, load, chain, conducts,
-                                functional))
+        found.append(
+            Suppressor(
+                chain.kind, placement, chain.refs, load, chain, conducts, functional
+            )
+        )
     return found
 
 
 def _load_suppressors(ctx: _Ctx, branch: Branch) -> tuple[Suppressor, ...]:
     facts = ctx.state.facts[branch.key] if ctx.state else None
     low = branch.b
-    if ctx.state is not None and (ctx.state.net_potential(branch.a)
-                                  < ctx.state.net_potential(branch.b)):
+    if ctx.state is not None and (
+        ctx.state.net_potential(branch.a) < ctx.state.net_potential(branch.b)
+    ):
         low = branch.a
     # At opening the load drives its current on: out of its low side, round
     # through the suppressor, into its high side.
-    found = _suppressors_between(ctx.chains, ctx.wire, branch.a, branch.b, "across-load",
-                                 branch.ref, ctx.state.currents if ctx.state else {},
-                                 source=low if ctx.state is not None else None)
+    found = _suppressors_between(
+        ctx.chains,
+        ctx.wire,
+        branch.a,
+        branch.b,
+        "across-load",
+        branch.ref,
+        ctx.state.currents if ctx.state else {},
+        source=low if ctx.state is not None else None,
+    )
     if facts is not None and facts.suppression not in ("none", ""):
-        found.append(Suppressor(facts.suppression, "built-in", (branch.ref,), branch.ref))
+        found.append(
+            Suppressor(facts.suppression, "built-in", (branch.ref,), branch.ref)
+        )
     return tuple(found)
 
 
@@ -158,9 +189,17 @@ def _switched_loads(ctx: _Ctx, opening: Opening, power: bool) -> list[SwitchedLo
         energy = None
         if facts.inductance is not None:
             energy = (0.5 * facts.inductance * Q_(current, "A") ** 2).to("J")
-        loads.append(SwitchedLoad(
-            facts, Q_(current, "A"), Q_(voltage, "V"), category_for(facts.type, power),
-            energy, is_inductive(facts), _load_suppressors(ctx, branch)))
+        loads.append(
+            SwitchedLoad(
+                facts,
+                Q_(current, "A"),
+                Q_(voltage, "V"),
+                category_for(facts.type, power),
+                energy,
+                is_inductive(facts),
+                _load_suppressors(ctx, branch),
+            )
+        )
     return loads
 
 
@@ -181,15 +220,23 @@ def _sag(state: DomainState, current: float) -> tuple[float, str | None, float |
     return current / (1.0 + conductance * r_int), ref, emf
 
 
-def _analyse_dc(ctx: _Ctx, branch: Branch, zero: ZeroOhm, injection: Mapping[str, float],
-                terminals: set[str]) -> ElementAnalysis:
+def _analyse_dc(
+    ctx: _Ctx,
+    branch: Branch,
+    zero: ZeroOhm,
+    injection: Mapping[str, float],
+    terminals: set[str],
+) -> ElementAnalysis:
     state = ctx.state
     assert state is not None and branch.element is not None
     if zero.bypass_through_load(branch.key):
         # A bypass through a load (a precharge resistor around a main contact):
         # solve again with the bypassing elements open, as the worst case asks.
-        state = solve_domain(ctx.domain, state.opened | frozenset(zero.bypass(branch.key)),
-                             opened=state.opened)
+        state = solve_domain(
+            ctx.domain,
+            state.opened | frozenset(zero.bypass(branch.key)),
+            opened=state.opened,
+        )
         ctx = _Ctx(ctx.domain, state, ctx.chains, ctx.wire)
         zero = _zero_ohm(ctx.domain, state)
         injection = net_injections(state)
@@ -197,30 +244,51 @@ def _analyse_dc(ctx: _Ctx, branch: Branch, zero: ZeroOhm, injection: Mapping[str
     power = branch.component.kind == "contactor" and len(branch.element.a) == 1
     loads = _switched_loads(ctx, opening, power)
     current, supply_ref, emf = _sag(state, opening.current_ab)
-    taus = [ld.facts.time_constant for ld in loads if ld.facts.time_constant is not None]
+    taus = [
+        ld.facts.time_constant for ld in loads if ld.facts.time_constant is not None
+    ]
     tau = max(taus) if taus else (Q_(0.0, "s") if loads else None)
     energies = [ld.energy for ld in loads if ld.energy is not None]
     inlet = branch.a if opening.current_ab >= 0 else branch.b
-    across = _suppressors_between(ctx.chains, ctx.wire, branch.a, branch.b,
-                                  "across-element", None, state.currents, source=inlet)
+    across = _suppressors_between(
+        ctx.chains,
+        ctx.wire,
+        branch.a,
+        branch.b,
+        "across-element",
+        None,
+        state.currents,
+        source=inlet,
+    )
     suppression = tuple(s for ld in loads for s in ld.suppressors) + tuple(across)
     missing = tuple(sorted({m for ld in loads for m in ld.facts.missing}))
     shorted_nets = {n for chain in state.shorts for b in chain for n in (b.a, b.b)}
-    unknown = [b.ref for b in state.unknown_resistance if b.a in opening.floating_nets
-               or b.b in opening.floating_nets]
+    unknown = [
+        b.ref
+        for b in state.unknown_resistance
+        if b.a in opening.floating_nets or b.b in opening.floating_nets
+    ]
     supply = state.domain.supplies[0] if state.domain.supplies else None
     return ElementAnalysis(
-        element=branch.element, component=branch.component, domain=ctx.domain.name,
-        supply="dc", voltage=Q_(abs(opening.voltage_ab), "V"),
-        current=Q_(abs(current), "A"), loads=tuple(loads),
+        element=branch.element,
+        component=branch.component,
+        domain=ctx.domain.name,
+        supply="dc",
+        voltage=Q_(abs(opening.voltage_ab), "V"),
+        current=Q_(abs(current), "A"),
+        loads=tuple(loads),
         load_category=most_demanding([ld.category for ld in loads]),
-        time_constant=tau, t95=(T95_FACTOR * tau) if tau is not None else None,
+        time_constant=tau,
+        t95=(T95_FACTOR * tau) if tau is not None else None,
         energy=sum(energies, Q_(0.0, "J")) if loads else Q_(0.0, "J"),
-        suppression=suppression, bypass=opening.bypass,
-        direction=(1 if opening.current_ab > 1e-9 else -1 if opening.current_ab < -1e-9
-                   else 0),
+        suppression=suppression,
+        bypass=opening.bypass,
+        direction=(
+            1 if opening.current_ab > 1e-9 else -1 if opening.current_ab < -1e-9 else 0
+        ),
         bidirectional=bool(supply is not None and supply.value("bidirectional")),
-        supply_voltage=Q_(emf, "V") if emf is not None else None, supply_ref=supply_ref,
+        supply_voltage=Q_(emf, "V") if emf is not None else None,
+        supply_ref=supply_ref,
         missing=missing + tuple(f"{r}: resistance" for r in unknown),
         short_circuit=bool(shorted_nets & opening.floating_nets),
     )
@@ -242,18 +310,32 @@ def _series(elements: dict[str, ElementAnalysis]) -> dict[str, ElementAnalysis]:
         for name in names:
             e = elements[name]
             partners = [n for n in names if n not in e.bypass]
-            same = tuple(sorted(n for n in partners
-                                if elements[n].element.device == e.element.device))
-            other = tuple(sorted(n for n in partners
-                                 if elements[n].element.device != e.element.device))
-            out[name] = replace(e, series_poles=len(same), series_elements=same,
-                                other_series=other)
+            same = tuple(
+                sorted(
+                    n
+                    for n in partners
+                    if elements[n].element.device == e.element.device
+                )
+            )
+            other = tuple(
+                sorted(
+                    n
+                    for n in partners
+                    if elements[n].element.device != e.element.device
+                )
+            )
+            out[name] = replace(
+                e, series_poles=len(same), series_elements=same, other_series=other
+            )
     return out
 
 
-def _record_loads(analysis: Analysis, domain: Domain,
-                  chains: Mapping[frozenset[str], list[Chain]], wire: Mapping[str, str]
-                  ) -> None:
+def _record_loads(
+    analysis: Analysis,
+    domain: Domain,
+    chains: Mapping[frozenset[str], list[Chain]],
+    wire: Mapping[str, str],
+) -> None:
     """Loads of domains that are not solved (AC, no supply): facts and suppressors."""
     if domain.kind == "dc":
         return
@@ -261,14 +343,22 @@ def _record_loads(analysis: Analysis, domain: Domain,
     for branch in domain.branches:
         if branch.role in (LOAD, COIL):
             facts = load_facts(branch)
-            suppressors = _suppressors_between(chains, wire, branch.a, branch.b,
-                                               "across-load", branch.ref, {})
+            suppressors = _suppressors_between(
+                chains, wire, branch.a, branch.b, "across-load", branch.ref, {}
+            )
             if facts.suppression not in ("none", ""):
-                suppressors.append(Suppressor(facts.suppression, "built-in",
-                                              (branch.ref,), branch.ref))
+                suppressors.append(
+                    Suppressor(facts.suppression, "built-in", (branch.ref,), branch.ref)
+                )
             analysis.loads[branch.key] = LoadInfo(
-                branch, facts, domain.name if domain.supplies else None, domain.kind,
-                None, None, tuple(suppressors))
+                branch,
+                facts,
+                domain.name if domain.supplies else None,
+                domain.kind,
+                None,
+                None,
+                tuple(suppressors),
+            )
     del ctx
 
 
@@ -280,9 +370,14 @@ def _record_dc_loads(analysis: Analysis, ctx: _Ctx) -> None:
         current = abs(state.currents.get(key, 0.0)) if key in state.currents else None
         voltage = abs(state.net_potential(branch.a) - state.net_potential(branch.b))
         analysis.loads[key] = LoadInfo(
-            branch, facts, ctx.domain.name, "dc",
-            Q_(current, "A") if current is not None else None, Q_(voltage, "V"),
-            _load_suppressors(ctx, branch))
+            branch,
+            facts,
+            ctx.domain.name,
+            "dc",
+            Q_(current, "A") if current is not None else None,
+            Q_(voltage, "V"),
+            _load_suppressors(ctx, branch),
+        )
 
 
 def _changeovers(switches: list[Branch]) -> tuple[set[str], set[str]]:
@@ -308,8 +403,11 @@ def _changeovers(switches: list[Branch]) -> tuple[set[str], set[str]]:
 
 
 def _zero_ohm(domain: Domain, state: DomainState) -> ZeroOhm:
-    closed = [b for b in domain.branches if b.role in (SWITCH, CONDUCTOR)
-              and state.group[b.a] == state.group[b.b]]
+    closed = [
+        b
+        for b in domain.branches
+        if b.role in (SWITCH, CONDUCTOR) and state.group[b.a] == state.group[b.b]
+    ]
     return ZeroOhm(closed, shunts(state))
 
 
@@ -330,8 +428,11 @@ def analyse(graph: Graph) -> Analysis:
             for branch in switches:
                 assert branch.element is not None
                 elements[branch.element.name] = ElementAnalysis(
-                    branch.element, branch.component,
-                    domain.name if domain.supplies else None, kind)
+                    branch.element,
+                    branch.component,
+                    domain.name if domain.supplies else None,
+                    kind,
+                )
             continue
         terminals = {n for b in domain.branches if b.role == SUPPLY for n in (b.a, b.b)}
         no_side, nc_side = _changeovers(switches)
@@ -350,8 +451,9 @@ def analyse(graph: Graph) -> Analysis:
             injection = net_injections(state)
             for branch in members:
                 assert branch.element is not None
-                elements[branch.element.name] = _analyse_dc(ctx, branch, zero, injection,
-                                                            terminals)
+                elements[branch.element.name] = _analyse_dc(
+                    ctx, branch, zero, injection, terminals
+                )
     for component in graph.netlist.components:
         for element in component.elements:
             if element.name not in elements:

@@ -21,10 +21,14 @@ def element_rating(element: ElementAnalysis) -> Assessment | None:
         return None
     if not element.loads or element.voltage is None or element.load_category is None:
         return None
-    return assess_breaking(element.component.value("contacts"), voltage=element.voltage,
-                           current=element.current, needed=element.load_category,
-                           time_constant=element.time_constant,
-                           poles=max(1, element.series_poles))
+    return assess_breaking(
+        element.component.value("contacts"),
+        voltage=element.voltage,
+        current=element.current,
+        needed=element.load_category,
+        time_constant=element.time_constant,
+        poles=max(1, element.series_poles),
+    )
 
 
 def _rating_dict(verdict: Assessment | None) -> dict[str, Any] | None:
@@ -36,7 +40,9 @@ def _rating_dict(verdict: Assessment | None) -> dict[str, Any] | None:
         "source": used.source,
         "label": used.label,
         "category": used.category,
-        "rated_voltage": quantity_dict(used.rated_voltage) if used.rated_voltage else None,
+        "rated_voltage": quantity_dict(used.rated_voltage)
+        if used.rated_voltage
+        else None,
         "allowed_current": quantity_dict(used.allowed_current.to("A")),
         "margin": round(verdict.margin, 6) if verdict.margin is not None else None,
         "poles": verdict.poles,
@@ -60,8 +66,13 @@ def _entry(element: ElementAnalysis) -> dict[str, Any]:
     entry["load_category"] = element.load_category
     entry["series_poles"] = element.series_poles
     entry["suppression"] = [
-        {"kind": s.kind, "placement": s.placement, "parts": list(s.refs),
-         "load": s.load, "conducts_normally": s.conducts}
+        {
+            "kind": s.kind,
+            "placement": s.placement,
+            "parts": list(s.refs),
+            "load": s.load,
+            "conducts_normally": s.conducts,
+        }
         for s in element.suppression
     ]
     entry["rating"] = _rating_dict(element_rating(element))
@@ -69,5 +80,5 @@ def _entry(element: ElementAnalysis) -> dict[str, Any]:
 
 
 def inspect_elements(analysis: Analysis) -> list[dict[str, Any]]:
-    """One entry per switching element, sorted by element name (cli.md, inspect JSON)."""
+    """One entry per switching element, sorted by name (cli.md, inspect JSON)."""
     return [_entry(e) for e in analysis.sorted_elements()]

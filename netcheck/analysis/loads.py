@@ -22,14 +22,32 @@ __all__ = [
 # Load type -> utilization category needed (parts.md, after IEC 60947-5-1
 # for control devices and IEC 60947-4-1 for power devices).
 CONTROL_CATEGORY = {
-    "resistive": "DC-12", "heater": "DC-12", "electronic": "DC-12", "capacitive": "DC-12",
-    "lamp": "DC-6", "solenoid": "DC-13", "valve": "DC-13", "brake": "DC-13",
-    "clutch": "DC-13", "coil": "DC-13", "motor": "DC-13", "economy-coil": "DC-14",
+    "resistive": "DC-12",
+    "heater": "DC-12",
+    "electronic": "DC-12",
+    "capacitive": "DC-12",
+    "lamp": "DC-6",
+    "solenoid": "DC-13",
+    "valve": "DC-13",
+    "brake": "DC-13",
+    "clutch": "DC-13",
+    "coil": "DC-13",
+    "motor": "DC-13",
+    "economy-coil": "DC-14",
 }
 POWER_CATEGORY = {
-    "resistive": "DC-1", "heater": "DC-1", "electronic": "DC-1", "capacitive": "DC-1",
-    "lamp": "DC-6", "motor": "DC-3", "solenoid": "DC-13", "valve": "DC-13",
-    "brake": "DC-13", "clutch": "DC-13", "coil": "DC-13", "economy-coil": "DC-14",
+    "resistive": "DC-1",
+    "heater": "DC-1",
+    "electronic": "DC-1",
+    "capacitive": "DC-1",
+    "lamp": "DC-6",
+    "motor": "DC-3",
+    "solenoid": "DC-13",
+    "valve": "DC-13",
+    "brake": "DC-13",
+    "clutch": "DC-13",
+    "coil": "DC-13",
+    "economy-coil": "DC-14",
 }
 # What a rating of each category also covers (parts.md: DC-13 covers DC-12;
 # DC-5 covers DC-3 covers DC-1).
@@ -109,24 +127,47 @@ def load_facts(branch: Branch) -> LoadFacts:
     if branch.role == COIL:
         coil = dict(component.value("coil", default={}) or {})
         r = coil.get("resistance")
-        if r is None and coil.get("voltage") is not None and coil.get("current") is not None:
+        if (
+            r is None
+            and coil.get("voltage") is not None
+            and coil.get("current") is not None
+        ):
             r = (coil["voltage"] / coil["current"]).to("ohm")
-        inductance, tau = _inductance(r, coil.get("inductance"), coil.get("time_constant"))
+        inductance, tau = _inductance(
+            r, coil.get("inductance"), coil.get("time_constant")
+        )
         economy = bool(coil.get("economy"))
         missing = tuple(k for k, v in (("coil.resistance", r),) if v is None)
         return LoadFacts(
-            branch.key, component.ref, "economy-coil" if economy else "coil", r,
-            inductance, tau, coil.get("release_current"),
-            str(coil.get("suppression", "none")), str(coil.get("supply", "dc")),
-            coil.get("voltage"), missing)
+            branch.key,
+            component.ref,
+            "economy-coil" if economy else "coil",
+            r,
+            inductance,
+            tau,
+            coil.get("release_current"),
+            str(coil.get("suppression", "none")),
+            str(coil.get("supply", "dc")),
+            coil.get("voltage"),
+            missing,
+        )
     values = dict(component.values)
     r = _resistance_of(values)
     inductance, tau = _inductance(r, values.get("L"), values.get("tau"))
     missing = tuple(k for k, v in (("R (or P and V, or I and V)", r),) if v is None)
     return LoadFacts(
-        branch.key, component.ref, str(values.get("type", "resistive")), r, inductance,
-        tau, values.get("release_current"), str(values.get("suppression", "none")),
-        None, values.get("V"), missing)
+        branch.key,
+        component.ref,
+        str(values.get("type", "resistive")),
+        r,
+        inductance,
+        tau,
+        values.get("release_current"),
+        str(values.get("suppression", "none")),
+        None,
+        values.get("V"),
+        missing,
+    )
 
 
 def category_for(load_type: str, power_device: bool) -> str:

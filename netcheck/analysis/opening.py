@@ -11,7 +11,7 @@ from dataclasses import dataclass, replace
 
 import pint
 
-from netcheck.analysis.switched import ElementAnalysis, SwitchedLoad, Suppressor
+from netcheck.analysis.switched import ElementAnalysis, Suppressor, SwitchedLoad
 from netcheck.analysis.transients import (
     ACROSS_ELEMENT,
     ACROSS_LOAD,
@@ -23,8 +23,16 @@ from netcheck.analysis.transients import (
 from netcheck.model import Component
 from netcheck.units import Q_
 
-__all__ = ["OpeningFacts", "model_load", "model_suppression", "load_transient",
-           "element_load", "element_transient", "zener_release", "DEFAULT_FORWARD_VOLTAGE"]
+__all__ = [
+    "OpeningFacts",
+    "model_load",
+    "model_suppression",
+    "load_transient",
+    "element_load",
+    "element_transient",
+    "zener_release",
+    "DEFAULT_FORWARD_VOLTAGE",
+]
 
 DEFAULT_FORWARD_VOLTAGE = 0.9  # V (spec default of netcheck size --vf)
 
@@ -41,15 +49,21 @@ class OpeningFacts:
     assumptions: tuple[str, ...]
 
 
-def _si(value: pint.Quantity | None, unit: str, default: float | None = None) -> float | None:
+def _si(
+    value: pint.Quantity | None, unit: str, default: float | None = None
+) -> float | None:
     return float(value.to(unit).magnitude) if value is not None else default
 
 
 def _facts(result: Transient) -> OpeningFacts:
-    return OpeningFacts(Q_(result.peak_voltage, "V"), Q_(result.release_time, "s"),
-                        Q_(result.suppressor_energy, "J"),
-                        Q_(result.suppressor_peak_voltage, "V"),
-                        result.conducts_continuously, result.assumptions)
+    return OpeningFacts(
+        Q_(result.peak_voltage, "V"),
+        Q_(result.release_time, "s"),
+        Q_(result.suppressor_energy, "J"),
+        Q_(result.suppressor_peak_voltage, "V"),
+        result.conducts_continuously,
+        result.assumptions,
+    )
 
 
 def model_load(load: SwitchedLoad, supply: pint.Quantity) -> Load | None:
@@ -66,8 +80,9 @@ def _parts(suppressor: Suppressor) -> dict[str, Component]:
     return {b.kind: b.component for b in suppressor.chain.branches}
 
 
-def model_suppression(suppressor: Suppressor | None, element: Component | None = None
-                      ) -> Suppression:
+def model_suppression(
+    suppressor: Suppressor | None, element: Component | None = None
+) -> Suppression:
     """The transient model of a suppressor found by the analysis (or none)."""
     if suppressor is None:
         clamp = element.value("clamp_voltage") if element is not None else None
@@ -75,15 +90,26 @@ def model_suppression(suppressor: Suppressor | None, element: Component | None =
             return Suppression("tvs", ACROSS_ELEMENT, clamp_voltage=_si(clamp, "V"))
         return Suppression("none", ACROSS_ELEMENT)
     parts = _parts(suppressor)
-    placement = ACROSS_ELEMENT if suppressor.placement == "across-element" else ACROSS_LOAD
-    vf = _si(next((p.value("vf") for p in parts.values() if p.value("vf") is not None),
-                  None), "V", DEFAULT_FORWARD_VOLTAGE)
+    placement = (
+        ACROSS_ELEMENT if suppressor.placement == "across-element" else ACROSS_LOAD
+    )
+    vf = _si(
+        next(
+            (p.value("vf") for p in parts.values() if p.value("vf") is not None), None
+        ),
+        "V",
+        DEFAULT_FORWARD_VOLTAGE,
+    )
     kind = suppressor.kind
     if kind == "diode-zener":
         zener = parts.get("zener") or parts.get("tvs")
         vz = (zener.value("vz") or zener.value("vclamp")) if zener else None
-        return Suppression("diode-zener", placement, forward_voltage=vf,
-                           clamp_voltage=_si(vz, "V", 0.0))
+        return Suppression(
+            "diode-zener",
+            placement,
+            forward_voltage=vf,
+            clamp_voltage=_si(vz, "V", 0.0),
+        )
     if kind in ("tvs", "varistor", "zener"):
         part = next(iter(parts.values()), None)
         clamp = None
@@ -96,11 +122,17 @@ def model_suppression(suppressor: Suppressor | None, element: Component | None =
         r_part = parts.get("resistor") or parts.get("rc")
         c = part.value("C") if part else None
         r = r_part.value("R") if r_part and kind == "rc" else None
-        return Suppression(kind, placement, resistance=_si(r, "ohm", 0.0) or 0.0,
-                           capacitance=_si(c, "F", 100e-12) or 100e-12)
+        return Suppression(
+            kind,
+            placement,
+            resistance=_si(r, "ohm", 0.0) or 0.0,
+            capacitance=_si(c, "F", 100e-12) or 100e-12,
+        )
     if kind == "resistor":
         r = parts["resistor"].value("R")
-        return Suppression("resistor", ACROSS_LOAD, resistance=_si(r, "ohm", 0.0) or 0.0)
+        return Suppression(
+            "resistor", ACROSS_LOAD, resistance=_si(r, "ohm", 0.0) or 0.0
+        )
     if kind in ("diode", "diode-resistor"):
         return Suppression("diode", ACROSS_LOAD, forward_voltage=vf)
     return Suppression("none", ACROSS_ELEMENT)
@@ -111,9 +143,12 @@ def _release(load: SwitchedLoad) -> float | None:
     return _si(value, "A") if value is not None else None
 
 
-def load_transient(load: SwitchedLoad, supply: pint.Quantity,
-                   suppressor: Suppressor | None, element: Component | None = None
-                   ) -> OpeningFacts | None:
+def load_transient(
+    load: SwitchedLoad,
+    supply: pint.Quantity,
+    suppressor: Suppressor | None,
+    element: Component | None = None,
+) -> OpeningFacts | None:
     """The opening transient of one load with one suppressor (None if not modelled)."""
     model = model_load(load, supply)
     if model is None:
@@ -141,26 +176,36 @@ def element_load(analysis: ElementAnalysis) -> SwitchedLoad | None:
     base = max(loads, key=lambda ld: ld.energy or Q_(0.0, "J"))
     resistance = (analysis.voltage / current).to("ohm")
     inductance = (2 * energy / current**2).to("H")
-    facts = replace(base.facts, resistance=resistance, inductance=inductance,
-                    time_constant=(inductance / resistance).to("s"))
+    facts = replace(
+        base.facts,
+        resistance=resistance,
+        inductance=inductance,
+        time_constant=(inductance / resistance).to("s"),
+    )
     return replace(base, facts=facts, current=current, energy=energy)
 
 
-def element_transient(analysis: ElementAnalysis, suppressor: Suppressor | None
-                      ) -> OpeningFacts | None:
-    """The transient at the element: its loads with ``suppressor`` (or its own clamp)."""
+def element_transient(
+    analysis: ElementAnalysis, suppressor: Suppressor | None
+) -> OpeningFacts | None:
+    """The transient at the element: its loads with ``suppressor`` or its clamp."""
     load = element_load(analysis)
     if load is None or analysis.voltage is None:
         return None
     return load_transient(load, analysis.voltage, suppressor, analysis.component)
 
 
-def zener_release(load: SwitchedLoad, forward_voltage: float = DEFAULT_FORWARD_VOLTAGE
-                  ) -> OpeningFacts | None:
+def zener_release(
+    load: SwitchedLoad, forward_voltage: float = DEFAULT_FORWARD_VOLTAGE
+) -> OpeningFacts | None:
     """The faster clamp the spec asks for: diode + zener at the supply voltage."""
     model = model_load(load, load.voltage)
     if model is None:
         return None
-    suppression = Suppression("diode-zener", ACROSS_LOAD, forward_voltage=forward_voltage,
-                              clamp_voltage=model.supply)
+    suppression = Suppression(
+        "diode-zener",
+        ACROSS_LOAD,
+        forward_voltage=forward_voltage,
+        clamp_voltage=model.supply,
+    )
     return _facts(transient(model, suppression, _release(load)))

@@ -57,8 +57,9 @@ def _polarity(branch: Branch, toward_a: str) -> int:
     return 1 if branch.a == toward_a else -1
 
 
-def find_chains(branches: Sequence[Branch], degree: Mapping[str, int],
-                wire: Mapping[str, str]) -> dict[frozenset[str], list[Chain]]:
+def find_chains(
+    branches: Sequence[Branch], degree: Mapping[str, int], wire: Mapping[str, str]
+) -> dict[frozenset[str], list[Chain]]:
     """Every suppressor chain, keyed by the unordered pair of wires it spans.
 
     A chain passes through an intermediate net only where that net joins
@@ -96,9 +97,12 @@ def find_chains(branches: Sequence[Branch], degree: Mapping[str, int],
             polarity = {
                 b.key: _polarity(b, nets[i])
                 for i, b in enumerate(path)
-                if b.kind in ("diode", "zener", "tvs") and not b.component.value("bidirectional")
+                if b.kind in ("diode", "zener", "tvs")
+                and not b.component.value("bidirectional")
             }
-            chain = Chain(chain_kind(b.kind for b in path), origin, net, tuple(path), polarity)
+            chain = Chain(
+                chain_kind(b.kind for b in path), origin, net, tuple(path), polarity
+            )
             pair = frozenset({wire.get(origin, origin), wire.get(net, net)})
             chains.setdefault(pair, []).append(chain)
     return chains

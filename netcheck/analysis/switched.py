@@ -15,8 +15,14 @@ from netcheck.analysis.zero_ohm import ZeroOhm
 from netcheck.graph import SUPPLY, Branch
 from netcheck.model import Component, SwitchingElement
 
-__all__ = ["SwitchedLoad", "Suppressor", "ElementAnalysis", "Opening", "open_element",
-           "net_injections"]
+__all__ = [
+    "SwitchedLoad",
+    "Suppressor",
+    "ElementAnalysis",
+    "Opening",
+    "open_element",
+    "net_injections",
+]
 
 # A load "loses supply" when opening the element takes away more than this
 # share of its current (a modelling choice: a load merely re-routed keeps it).
@@ -129,8 +135,9 @@ def net_injections(state: DomainState) -> dict[str, float]:
     return injection
 
 
-def _floating_side(state: DomainState, side: set[str], terminals: set[str],
-                   group: str) -> tuple[set[str], bool]:
+def _floating_side(
+    state: DomainState, side: set[str], terminals: set[str], group: str
+) -> tuple[set[str], bool]:
     """The side that loses its supply; the flag says it is the searched side."""
     if group in state.rails and side & terminals:
         return set(state.group_nets[group]) - side, False
@@ -157,8 +164,13 @@ def _region(state: DomainState, floating: set[str], group: str) -> set[str]:
     return keys
 
 
-def open_element(state: DomainState, zero: ZeroOhm, injection: Mapping[str, float],
-                 terminals: set[str], branch: Branch) -> Opening:
+def open_element(
+    state: DomainState,
+    zero: ZeroOhm,
+    injection: Mapping[str, float],
+    terminals: set[str],
+    branch: Branch,
+) -> Opening:
     """Open one element in its worst case: series elements closed, bypasses open."""
     bypass = zero.bypass(branch.key)
     side, end = zero.sides(branch.key, set(bypass))
@@ -182,7 +194,8 @@ def open_element(state: DomainState, zero: ZeroOhm, injection: Mapping[str, floa
     v_rest = solution.potentials[group]
     voltage_ab = (v_rest - v_float) if floating_end == "b" else (v_float - v_rest)
     switched = tuple(
-        k for k in sorted(keys)
+        k
+        for k in sorted(keys)
         if k in state.facts
         and abs(state.currents.get(k, 0.0)) > _TINY
         and abs(solution.currents.get(k, 0.0)) < LOST_SHARE * abs(state.currents[k])

@@ -15,10 +15,14 @@ __all__ = ["ZeroOhm"]
 class ZeroOhm:
     """Closed switching elements and protective devices of one domain, as a graph."""
 
-    def __init__(self, branches: Iterable[Branch], shunts: Iterable[Branch] = ()) -> None:
-        """Build from zero-ohm branches; ``shunts`` are loads or resistors whose
-        two ends lie in one group: they close cycles (a precharge resistor in
-        parallel with a main contact) but carry no current in the closed state.
+    def __init__(
+        self, branches: Iterable[Branch], shunts: Iterable[Branch] = ()
+    ) -> None:
+        """Build from zero-ohm branches and the group's shunts.
+
+        ``shunts`` are loads or resistors whose two ends lie in one group: they
+        close cycles (a precharge resistor in parallel with a main contact) but
+        carry no current in the closed state.
         """
         self.adjacent: dict[str, list[tuple[str, str]]] = {}
         self.by_key: dict[str, Branch] = {}
@@ -50,13 +54,18 @@ class ZeroOhm:
         block = self.block_of.get(key)
         if block is None:
             return ()
-        return tuple(k for k in self.blocks[block]
-                     if k != key and k in self.by_key and self.by_key[k].role == SWITCH)
+        return tuple(
+            k
+            for k in self.blocks[block]
+            if k != key and k in self.by_key and self.by_key[k].role == SWITCH
+        )
 
     def bypass_through_load(self, key: str) -> bool:
         """Whether a bypass path of ``key`` runs through a load or resistor."""
         block = self.block_of.get(key)
-        return block is not None and any(k in self.shunt_keys for k in self.blocks[block])
+        return block is not None and any(
+            k in self.shunt_keys for k in self.blocks[block]
+        )
 
     def sides(self, key: str, removed: set[str]) -> tuple[set[str], str]:
         """The smaller side of ``key`` once it and ``removed`` are open.

@@ -10,14 +10,20 @@ from netcheck.checks.ratings import arrangement_lead, assessment, rating_values
 from netcheck.checks.registry import check
 from netcheck.findings import Finding
 
-__all__ = ["polarized_pole_reversed", "polarized_pole_bidirectional", "is_polarized",
-           "series_poles_underrated", "series_poles_not_ganged"]
+__all__ = [
+    "polarized_pole_reversed",
+    "polarized_pole_bidirectional",
+    "is_polarized",
+    "series_poles_underrated",
+    "series_poles_not_ganged",
+]
 
 
 def is_polarized(element: ElementAnalysis) -> bool:
     """Whether the element's contacts are marked polarized."""
     return bool(element.component.value("contacts", "polarized", default=False)) or (
-        element.component.value("contacts", "blowout") == "permanent-magnet")
+        element.component.value("contacts", "blowout") == "permanent-magnet"
+    )
 
 
 @check("polarized-pole-reversed")
@@ -25,8 +31,12 @@ def polarized_pole_reversed(ctx: CheckContext) -> Iterator[Finding]:
     """Flag polarized poles whose current flows against their marked direction."""
     for element in ctx.switching_elements(supply="dc"):
         if is_polarized(element) and element.direction < 0:
-            yield ctx.finding(element, current=element.current, inlet=element.element.a,
-                              outlet=element.element.b)
+            yield ctx.finding(
+                element,
+                current=element.current,
+                inlet=element.element.a,
+                outlet=element.element.b,
+            )
 
 
 @check("polarized-pole-bidirectional")
@@ -34,8 +44,11 @@ def polarized_pole_bidirectional(ctx: CheckContext) -> Iterator[Finding]:
     """Flag polarized poles on a supply whose current can reverse (battery charging)."""
     for element in ctx.switching_elements(supply="dc"):
         if is_polarized(element) and element.bidirectional:
-            yield ctx.finding(element, supply=element.supply_ref or element.domain,
-                              inlet=element.element.a)
+            yield ctx.finding(
+                element,
+                supply=element.supply_ref or element.domain,
+                inlet=element.element.a,
+            )
 
 
 def _can_break_alone(ctx: CheckContext, element: ElementAnalysis) -> bool | None:
@@ -53,7 +66,7 @@ def _can_break_alone(ctx: CheckContext, element: ElementAnalysis) -> bool | None
 
 @check("series-poles-underrated")
 def series_poles_underrated(ctx: CheckContext) -> Iterator[Finding]:
-    """Flag series poles of one device that do not reach the voltage or current needed."""
+    """Flag series poles of one device that do not reach the voltage or current."""
     for element in ctx.switching_elements(supply="dc"):
         if element.series_poles < 2 or not arrangement_lead(element) or element.missing:
             continue
@@ -61,8 +74,12 @@ def series_poles_underrated(ctx: CheckContext) -> Iterator[Finding]:
         if verdict is None or verdict.status not in ("current-over", "voltage-over"):
             continue
         fix = "poles" if verdict.poles_needed else "default"
-        yield ctx.finding(element, fix=fix, poles_list=", ".join(element.series_elements),
-                          **rating_values(element, verdict))
+        yield ctx.finding(
+            element,
+            fix=fix,
+            poles_list=", ".join(element.series_elements),
+            **rating_values(element, verdict),
+        )
 
 
 @check("series-poles-not-ganged")
@@ -72,8 +89,9 @@ def series_poles_not_ganged(ctx: CheckContext) -> Iterator[Finding]:
     for element in ctx.switching_elements(supply="dc"):
         if not element.other_series:
             continue
-        group = tuple(sorted({element.name, *element.other_series,
-                              *element.series_elements}))
+        group = tuple(
+            sorted({element.name, *element.other_series, *element.series_elements})
+        )
         if group in done:
             continue
         done.add(group)
@@ -84,6 +102,11 @@ def series_poles_not_ganged(ctx: CheckContext) -> Iterator[Finding]:
         verdicts = [_can_break_alone(ctx, m) for m in leads.values()]
         if any(v is None or v for v in verdicts):
             continue
-        yield ctx.finding(ctx.analysis.elements[group[0]], members=", ".join(group),
-                          devices=", ".join(sorted(leads)), current=element.current,
-                          voltage=element.voltage, key=",".join(group))
+        yield ctx.finding(
+            ctx.analysis.elements[group[0]],
+            members=", ".join(group),
+            devices=", ".join(sorted(leads)),
+            current=element.current,
+            voltage=element.voltage,
+            key=",".join(group),
+        )

@@ -18,7 +18,7 @@ DEFAULT_RANGE = (0.85, 1.10)
 
 
 def _coils(ctx: CheckContext):  # type: ignore[no-untyped-def]
-    for key, info in sorted(ctx.analysis.loads.items()):
+    for _key, info in sorted(ctx.analysis.loads.items()):
         if info.branch.role == COIL and info.supply in ("ac", "dc"):
             yield info
 
@@ -36,16 +36,23 @@ def coil_supply_mismatch(ctx: CheckContext) -> Iterator[Finding]:
         if info.supply == "dc":
             resistance = info.facts.resistance
             if resistance is None:
-                yield ctx.finding(component, message="ac-on-dc-no-r", voltage=voltage,
-                                  fix="ac-on-dc")
+                yield ctx.finding(
+                    component, message="ac-on-dc-no-r", voltage=voltage, fix="ac-on-dc"
+                )
                 continue
-            yield ctx.finding(component, message="ac-on-dc", fix="ac-on-dc",
-                              voltage=voltage, resistance=resistance,
-                              current=(voltage / resistance).to("A"),
-                              power=(voltage**2 / resistance).to("W"))
+            yield ctx.finding(
+                component,
+                message="ac-on-dc",
+                fix="ac-on-dc",
+                voltage=voltage,
+                resistance=resistance,
+                current=(voltage / resistance).to("A"),
+                power=(voltage**2 / resistance).to("W"),
+            )
         else:
-            yield ctx.finding(component, message="dc-on-ac", fix="dc-on-ac",
-                              voltage=voltage)
+            yield ctx.finding(
+                component, message="dc-on-ac", fix="dc-on-ac", voltage=voltage
+            )
 
 
 def _range(info) -> tuple[float, float]:  # type: ignore[no-untyped-def]
@@ -73,7 +80,13 @@ def coil_voltage_out_of_range(ctx: CheckContext) -> Iterator[Finding]:
         ratio = float((applied / rated).to("").magnitude)
         if low <= ratio <= high:
             continue
-        yield ctx.finding(info.branch.component, applied=applied, rated=rated,
-                          percent=Q_(round(ratio * 100, 1), ""), low=Q_(low * 100, ""),
-                          high=Q_(high * 100, ""), low_voltage=rated * low,
-                          high_voltage=rated * high)
+        yield ctx.finding(
+            info.branch.component,
+            applied=applied,
+            rated=rated,
+            percent=Q_(round(ratio * 100, 1), ""),
+            low=Q_(low * 100, ""),
+            high=Q_(high * 100, ""),
+            low_voltage=rated * low,
+            high_voltage=rated * high,
+        )

@@ -29,7 +29,9 @@ class CheckContext:
     margins: Mapping[str, float]
     rule: str = ""
 
-    def switching_elements(self, supply: str | None = None) -> Iterator[ElementAnalysis]:
+    def switching_elements(
+        self, supply: str | None = None
+    ) -> Iterator[ElementAnalysis]:
         """Switching elements sorted by name, optionally of one supply kind."""
         for element in self.analysis.sorted_elements():
             if supply is None or element.supply == supply:
@@ -62,9 +64,17 @@ class CheckContext:
             return float(self.margins[name])
         return all_margins(self.catalogue)[name].default
 
-    def finding(self, anchor: Anchor, *, message: str = "default", fix: str = "default",
-                key: str = "", severity: Severity | None = None, rule: str | None = None,
-                **values: Any) -> Finding:
+    def finding(
+        self,
+        anchor: Anchor,
+        *,
+        message: str = "default",
+        fix: str = "default",
+        key: str = "",
+        severity: Severity | None = None,
+        rule: str | None = None,
+        **values: Any,
+    ) -> Finding:
         """A finding of the current rule, its templates filled from ``values``.
 
         ``severity`` raises or lowers the rule's default where the rule's YAML

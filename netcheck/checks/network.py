@@ -21,20 +21,25 @@ def _describe(component) -> str:  # type: ignore[no-untyped-def]
 
 @check("ac-dc-interconnected")
 def ac_dc_interconnected(ctx: CheckContext) -> Iterator[Finding]:
-    """Flag domains reached from AC and DC supplies, or DC supplies of other voltages."""
+    """Flag domains fed by AC and DC supplies, or by DC supplies of other voltages."""
     for domain in ctx.domains():
         if len(domain.supplies) < 2:
             continue
         first = domain.supplies[0]
         for other in domain.supplies[1:]:
             same_kind = supply_kind(first) == supply_kind(other)
-            if same_kind and (supply_kind(first) == "ac"
-                              or first.value("dc") == other.value("dc")):
+            if same_kind and (
+                supply_kind(first) == "ac" or first.value("dc") == other.value("dc")
+            ):
                 continue
-            net = min(n for n in domain.nets
-                      if n in {c.net for c in other.connections})
-            yield ctx.finding((other, net), net=net, first=_describe(first),
-                              second=_describe(other), key=first.ref)
+            net = min(n for n in domain.nets if n in {c.net for c in other.connections})
+            yield ctx.finding(
+                (other, net),
+                net=net,
+                first=_describe(first),
+                second=_describe(other),
+                key=first.ref,
+            )
 
 
 @check("single-connection-net")
@@ -47,32 +52,45 @@ def single_connection_net(ctx: CheckContext) -> Iterator[Finding]:
         component, terminal = connections[0]
         similar = [n for n in names if n != net and n.lower() == net.lower()]
         hint = f"did you mean {similar[0]}?" if similar else "check the net name"
-        yield ctx.finding(component, net=net, terminal=f"{component.ref}:{terminal}",
-                          hint=hint, key=net)
+        yield ctx.finding(
+            component,
+            net=net,
+            terminal=f"{component.ref}:{terminal}",
+            hint=hint,
+            key=net,
+        )
 
 
 @check("supply-short-circuit")
 def supply_short_circuit(ctx: CheckContext) -> Iterator[Finding]:
-    """Flag paths across a supply with no load: forward-biased diodes or closed contacts."""
+    """Flag paths across a supply with no load: forward diodes or closed contacts."""
     states = [*ctx.analysis.states.items(), *ctx.analysis.alternate_states.items()]
     reported: set[str] = set()
-    for name, state in sorted(states, key=lambda item: item[0]):
+    for _name, state in sorted(states, key=lambda item: item[0]):
         for supply in state.supply_shorts:
             if supply.ref in reported:
                 continue
             reported.add(supply.ref)
-            yield ctx.finding(supply.component, message="contacts", path="closed contacts",
-                              current=_prospective(state, supply.ref, 0.0), key="contacts")
+            yield ctx.finding(
+                supply.component,
+                message="contacts",
+                path="closed contacts",
+                current=_prospective(state, supply.ref, 0.0),
+                key="contacts",
+            )
         for chain in state.shorts:
-            across_load = any(b.ref in ctx.analysis.reversed_suppressors
-                              for b in chain)
+            across_load = any(b.ref in ctx.analysis.reversed_suppressors for b in chain)
             if across_load:
                 continue  # freewheel-diode-reversed reports it, with the load
             refs = ", ".join(b.ref for b in chain)
             supply = state.domain.supplies[0]
             vf = sum(state.models[b.key].vf for b in chain)
-            yield ctx.finding(chain[0].component, path=refs,
-                              current=_prospective(state, supply.ref, vf), key=refs)
+            yield ctx.finding(
+                chain[0].component,
+                path=refs,
+                current=_prospective(state, supply.ref, vf),
+                key=refs,
+            )
 
 
 def _prospective(state, ref: str, drop: float):  # type: ignore[no-untyped-def]

@@ -1,10 +1,11 @@
-"""Rating rules: can each DC switching element break what it must break?"""
+"""Rating rules: whether each DC switching element can break what it must."""
 
 from __future__ import annotations
 
 from collections.abc import Iterator
 
-from netcheck.analysis.ratings import Assessment, assess_breaking
+from netcheck.analysis.inspect import element_rating
+from netcheck.analysis.ratings import Assessment
 from netcheck.analysis.switched import ElementAnalysis
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
@@ -21,16 +22,16 @@ __all__ = [
     "time_constant_over_rating",
     "rating_data_missing",
     "ac_output_on_dc",
-    "MECHANICAL",
 ]
-
-MECHANICAL = ("relay", "contactor", "switch")
 
 
 def breaks_something(element: ElementAnalysis) -> bool:
     """Whether the element carries current that it must break."""
-    return bool(element.loads) and element.current is not None and \
-        element.current.magnitude > 1e-9
+    return (
+        bool(element.loads)
+        and element.current is not None
+        and element.current.magnitude > 1e-9
+    )
 
 
 def arrangement_lead(element: ElementAnalysis) -> bool:
@@ -40,14 +41,9 @@ def arrangement_lead(element: ElementAnalysis) -> bool:
 
 def assessment(ctx: CheckContext, element: ElementAnalysis) -> Assessment | None:
     """The rating verdict for a mechanical element (its series arrangement if any)."""
-    if element.component.kind not in MECHANICAL or not breaks_something(element):
+    if not breaks_something(element):
         return None
-    if element.voltage is None or element.load_category is None:
-        return None
-    return assess_breaking(element.component.value("contacts"), voltage=element.voltage,
-                           current=element.current, needed=element.load_category,
-                           time_constant=element.time_constant,
-                           poles=max(1, element.series_poles))
+    return element_rating(element)
 
 
 def _judged(ctx: CheckContext) -> Iterator[tuple[ElementAnalysis, Assessment]]:
@@ -60,16 +56,21 @@ def _judged(ctx: CheckContext) -> Iterator[tuple[ElementAnalysis, Assessment]]:
 
 
 def rating_values(element: ElementAnalysis, verdict: Assessment) -> dict:
+    """The values every rating message and fix template may use."""
     used = verdict.used
     return {
-        "voltage": element.voltage, "current": element.current,
+        "voltage": element.voltage,
+        "current": element.current,
         "category": element.load_category,
-        "allowed": verdict.allowed_current if verdict.allowed_current is not None else "none",
+        "allowed": verdict.allowed_current
+        if verdict.allowed_current is not None
+        else "none",
         "rating": used.label if used is not None else "none",
         "poles": verdict.poles,
         "poles_needed": verdict.poles_needed or "no number of these",
         "assumed": " (series rating assumed: V/n per pole, not rated)"
-        if verdict.assumed_series else "",
+        if verdict.assumed_series
+        else "",
     }
 
 
@@ -80,8 +81,13 @@ def dc_break_ac_only(ctx: CheckContext) -> Iterator[Finding]:
         if verdict.status == "ac-only":
             rows = element.component.value("contacts", "ratings", default=()) or ()
             rated = ", ".join(sorted({str(r["category"]) for r in rows})) or "AC"
-            yield ctx.finding(element, voltage=element.voltage, current=element.current,
-                              category=element.load_category, rated=rated)
+            yield ctx.finding(
+                element,
+                voltage=element.voltage,
+                current=element.current,
+                category=element.load_category,
+                rated=rated,
+            )
 
 
 @check("dc-break-over-rating")
@@ -93,10 +99,19 @@ def dc_break_over_rating(ctx: CheckContext) -> Iterator[Finding]:
             yield ctx.finding(element, fix=fix, **rating_values(element, verdict))
     for element in ctx.switching_elements(supply="dc"):
         limit = element.component.value("current_max")
-        if element.component.kind in ("ssr", "output") and limit is not None and \
-                element.current is not None and element.current > limit:
-            yield ctx.finding(element, message="output", fix="output",
-                              current=element.current, allowed=limit)
+        if (
+            element.component.kind in ("ssr", "output")
+            and limit is not None
+            and element.current is not None
+            and element.current > limit
+        ):
+            yield ctx.finding(
+                element,
+                message="output",
+                fix="output",
+                current=element.current,
+                allowed=limit,
+            )
 
 
 @check("dc-voltage-over-rating")
@@ -105,14 +120,27 @@ def dc_voltage_over_rating(ctx: CheckContext) -> Iterator[Finding]:
     for element, verdict in _judged(ctx):
         if verdict.status == "voltage-over" and verdict.poles == 1:
             fix = "poles" if verdict.poles_needed else "default"
-            top = verdict.max_dc_voltage if verdict.max_dc_voltage is not None else "none"
-            yield ctx.finding(element, fix=fix, top=top, **rating_values(element, verdict))
+            top = (
+                verdict.max_dc_voltage if verdict.max_dc_voltage is not None else "none"
+            )
+            yield ctx.finding(
+                element, fix=fix, top=top, **rating_values(element, verdict)
+            )
     for element in ctx.switching_elements(supply="dc"):
         limit = element.component.value("voltage_max")
-        if element.component.kind in ("ssr", "output") and limit is not None and \
-                element.voltage is not None and element.voltage > limit:
-            yield ctx.finding(element, message="output", fix="output", top=limit,
-                              voltage=element.voltage)
+        if (
+            element.component.kind in ("ssr", "output")
+            and limit is not None
+            and element.voltage is not None
+            and element.voltage > limit
+        ):
+            yield ctx.finding(
+                element,
+                message="output",
+                fix="output",
+                top=limit,
+                voltage=element.voltage,
+            )
 
 
 @check("category-mismatch")
@@ -121,8 +149,12 @@ def category_mismatch(ctx: CheckContext) -> Iterator[Finding]:
     for element, verdict in _judged(ctx):
         if verdict.category_mismatch and verdict.status not in ("ac-only", "no-data"):
             rated = ", ".join(verdict.rated_categories) or "none"
-            yield ctx.finding(element, category=element.load_category, rated=rated,
-                              rating=verdict.used.label if verdict.used else "none")
+            yield ctx.finding(
+                element,
+                category=element.load_category,
+                rated=rated,
+                rating=verdict.used.label if verdict.used else "none",
+            )
 
 
 @check("time-constant-over-rating")
@@ -133,36 +165,63 @@ def time_constant_over_rating(ctx: CheckContext) -> Iterator[Finding]:
         if not verdict.time_constant_over or used is None:
             continue
         limit = used.tau_limit if used.tau_limit is not None else "none"
-        yield ctx.finding(element, tau=element.time_constant, t95=element.t95,
-                          tau_limit=limit,
-                          t95_limit=used.t95_limit if used.t95_limit is not None else "none",
-                          rating=used.label)
+        yield ctx.finding(
+            element,
+            tau=element.time_constant,
+            t95=element.t95,
+            tau_limit=limit,
+            t95_limit=used.t95_limit if used.t95_limit is not None else "none",
+            rating=used.label,
+        )
 
 
 @check("rating-data-missing")
 def rating_data_missing(ctx: CheckContext) -> Iterator[Finding]:
     """Flag DC switching elements that cannot be verified for lack of data."""
     for element in ctx.switching_elements(supply="dc"):
-        if not arrangement_lead(element) or not breaks_something(element) and \
-                not element.missing:
+        if (
+            not arrangement_lead(element)
+            or not breaks_something(element)
+            and not element.missing
+        ):
             continue
         if element.missing:
-            yield ctx.finding(element, message="circuit", fix="circuit",
-                              what="; ".join(element.missing))
+            yield ctx.finding(
+                element,
+                message="circuit",
+                fix="circuit",
+                what="; ".join(element.missing),
+            )
             continue
         verdict = assessment(ctx, element)
         if verdict is not None and verdict.status == "no-data":
             what = ", ".join(verdict.missing) or "DC breaking ratings"
-            yield ctx.finding(element, what=what, voltage=element.voltage,
-                              current=element.current, category=element.load_category)
-        elif element.component.kind == "ssr" and element.component.value("output") is None:
-            yield ctx.finding(element, what="output (ac or dc)", voltage=element.voltage,
-                              current=element.current, category=element.load_category)
+            yield ctx.finding(
+                element,
+                what=what,
+                voltage=element.voltage,
+                current=element.current,
+                category=element.load_category,
+            )
+        elif (
+            element.component.kind == "ssr"
+            and element.component.value("output") is None
+        ):
+            yield ctx.finding(
+                element,
+                what="output (ac or dc)",
+                voltage=element.voltage,
+                current=element.current,
+                category=element.load_category,
+            )
 
 
 @check("ac-output-on-dc")
 def ac_output_on_dc(ctx: CheckContext) -> Iterator[Finding]:
     """Flag AC-only (thyristor or triac) solid-state outputs in a DC circuit."""
     for element in ctx.switching_elements(supply="dc"):
-        if element.component.kind == "ssr" and element.component.value("output") == "ac":
+        if (
+            element.component.kind == "ssr"
+            and element.component.value("output") == "ac"
+        ):
             yield ctx.finding(element, voltage=element.voltage, current=element.current)

@@ -5,7 +5,7 @@ from __future__ import annotations
 from collections.abc import Iterator
 
 from netcheck.analysis.opening import element_transient, load_transient, zener_release
-from netcheck.analysis.switched import ElementAnalysis, SwitchedLoad, Suppressor
+from netcheck.analysis.switched import ElementAnalysis, Suppressor, SwitchedLoad
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding, Severity
@@ -29,7 +29,9 @@ def effective(suppressors: tuple[Suppressor, ...]) -> tuple[Suppressor, ...]:
 
 def unsuppressed_loads(element: ElementAnalysis) -> list[SwitchedLoad]:
     """Inductive loads with nothing across them, nothing built in, nothing across E."""
-    if effective(tuple(s for s in element.suppression if s.placement == "across-element")):
+    if effective(
+        tuple(s for s in element.suppression if s.placement == "across-element")
+    ):
         return []
     return [ld for ld in element.inductive_loads if not effective(ld.suppressors)]
 
@@ -45,8 +47,10 @@ def _clamp_case(ctx: CheckContext, element: ElementAnalysis) -> tuple[str, dict]
         needed = model.suppressor_energy
     if rating is not None and needed is not None and rating >= needed:
         return "ok", {}
-    return "output", {"clamp_energy": rating if rating is not None else "not given",
-                      "clamp_needed": needed}
+    return "output", {
+        "clamp_energy": rating if rating is not None else "not given",
+        "clamp_needed": needed,
+    }
 
 
 @check("inductive-load-unsuppressed")
@@ -61,27 +65,34 @@ def inductive_load_unsuppressed(ctx: CheckContext) -> Iterator[Finding]:
             continue
         energy = sum((ld.energy for ld in loads if ld.energy is not None), Q_(0.0, "J"))
         current = max(ld.current for ld in loads)
-        values = {"loads": ", ".join(ld.facts.ref for ld in loads), "energy": energy,
-                  "current": current, "voltage": element.voltage,
-                  "diode_voltage": element.voltage * ctx.option("diode-reverse-voltage"),
-                  "diode_current": current * ctx.option("diode-current")}
+        values = {
+            "loads": ", ".join(ld.facts.ref for ld in loads),
+            "energy": energy,
+            "current": current,
+            "voltage": element.voltage,
+            "diode_voltage": element.voltage * ctx.option("diode-reverse-voltage"),
+            "diode_current": current * ctx.option("diode-current"),
+        }
         if case is None:
             yield ctx.finding(element, **values)
         else:
-            yield ctx.finding(element, message="output", severity=Severity.ERROR,
-                              **values, **case[1])
+            yield ctx.finding(
+                element, message="output", severity=Severity.ERROR, **values, **case[1]
+            )
 
 
 def _polarized(suppressor: Suppressor) -> bool:
     return suppressor.kind in POLARIZED or (
-        suppressor.kind == "tvs" and suppressor.chain is not None
-        and bool(suppressor.chain.polarity))
+        suppressor.kind == "tvs"
+        and suppressor.chain is not None
+        and bool(suppressor.chain.polarity)
+    )
 
 
 @check("freewheel-diode-reversed")
 def freewheel_diode_reversed(ctx: CheckContext) -> Iterator[Finding]:
     """Flag diodes across DC loads that conduct when the load is energised."""
-    for key, info in sorted(ctx.analysis.loads.items()):
+    for _key, info in sorted(ctx.analysis.loads.items()):
         if info.supply != "dc":
             continue
         for suppressor in info.suppressors:
@@ -92,13 +103,23 @@ def freewheel_diode_reversed(ctx: CheckContext) -> Iterator[Finding]:
             diode = next(b for b in chain.branches if b.key in chain.polarity)
             state = ctx.analysis.states[info.domain or ""]
             shorted = any(diode in group for group in state.shorts)
-            current = _short_current(state) if shorted else Q_(
-                abs(state.currents.get(diode.key, 0.0)), "A")
-            high, low = sorted((info.branch.a, info.branch.b),
-                               key=lambda n: -state.net_potential(n))
-            yield ctx.finding(diode.component, load=info.branch.ref, current=current,
-                              voltage=info.voltage, positive=high, negative=low,
-                              key=info.branch.ref)
+            current = (
+                _short_current(state)
+                if shorted
+                else Q_(abs(state.currents.get(diode.key, 0.0)), "A")
+            )
+            high, low = sorted(
+                (info.branch.a, info.branch.b), key=lambda n: -state.net_potential(n)
+            )
+            yield ctx.finding(
+                diode.component,
+                load=info.branch.ref,
+                current=current,
+                voltage=info.voltage,
+                positive=high,
+                negative=low,
+                key=info.branch.ref,
+            )
 
 
 def _short_current(state):  # type: ignore[no-untyped-def]
@@ -112,7 +133,7 @@ def _short_current(state):  # type: ignore[no-untyped-def]
 @check("diode-on-ac-load")
 def diode_on_ac_load(ctx: CheckContext) -> Iterator[Finding]:
     """Flag diodes and other polarized suppressors across loads on AC circuits."""
-    for key, info in sorted(ctx.analysis.loads.items()):
+    for _key, info in sorted(ctx.analysis.loads.items()):
         if info.supply != "ac":
             continue
         for suppressor in info.suppressors:
@@ -122,10 +143,15 @@ def diode_on_ac_load(ctx: CheckContext) -> Iterator[Finding]:
             component = suppressor.chain.branches[0].component
             supply = ctx.graph.domain_of[info.branch.a].supplies[0]
             voltage = supply.value("ac")
-            yield ctx.finding(component, load=info.branch.ref, kind=suppressor.kind,
-                              voltage=voltage, peak=voltage * 2**0.5,
-                              varistor_voltage=voltage * 2**0.5 * ctx.option(
-                                  "varistor-voltage"), key=info.branch.ref)
+            yield ctx.finding(
+                component,
+                load=info.branch.ref,
+                kind=suppressor.kind,
+                voltage=voltage,
+                peak=voltage * 2**0.5,
+                varistor_voltage=voltage * 2**0.5 * ctx.option("varistor-voltage"),
+                key=info.branch.ref,
+            )
 
 
 FAST = ("fast-release", "safety")
@@ -139,18 +165,26 @@ def slow_release_suppression(ctx: CheckContext) -> Iterator[Finding]:
         for load in element.inductive_loads:
             component = ctx.netlist.component(load.facts.ref)
             active = effective(load.suppressors)
-            if component is None or load.facts.key in seen or not (
-                    component.tags & set(FAST)) or not active or any(
-                    s.kind != "diode" for s in active):
+            if (
+                component is None
+                or load.facts.key in seen
+                or not (component.tags & set(FAST))
+                or not active
+                or any(s.kind != "diode" for s in active)
+            ):
                 continue
             seen.add(load.facts.key)
             with_diode = load_transient(load, load.voltage, active[0])
             faster = zener_release(load)
             if with_diode is None or faster is None:
                 continue
-            yield ctx.finding(component, tag=", ".join(sorted(component.tags & set(FAST))),
-                              diode=", ".join(active[0].refs),
-                              release_diode=with_diode.release_time,
-                              release_zener=faster.release_time,
-                              zener_voltage=load.voltage,
-                              peak_zener=faster.peak_voltage, key=load.facts.key)
+            yield ctx.finding(
+                component,
+                tag=", ".join(sorted(component.tags & set(FAST))),
+                diode=", ".join(active[0].refs),
+                release_diode=with_diode.release_time,
+                release_zener=faster.release_time,
+                zener_voltage=load.voltage,
+                peak_zener=faster.peak_voltage,
+                key=load.facts.key,
+            )

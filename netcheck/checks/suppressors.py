@@ -16,8 +16,13 @@ from netcheck.findings import Finding
 from netcheck.model import Component
 from netcheck.units import Q_
 
-__all__ = ["suppressor_underrated", "suppressor_conducts_normally",
-           "snubber_without_resistor", "peak_voltage_over_rating", "fitted_suppressors"]
+__all__ = [
+    "suppressor_underrated",
+    "suppressor_conducts_normally",
+    "snubber_without_resistor",
+    "peak_voltage_over_rating",
+    "fitted_suppressors",
+]
 
 
 @dataclass(frozen=True)
@@ -40,15 +45,27 @@ def fitted_suppressors(ctx: CheckContext) -> list[Fitted]:
         for load in element.inductive_loads:
             for s in effective(load.suppressors):
                 if s.placement != "built-in" and s.refs not in out:
-                    out[s.refs] = Fitted(s, load.voltage, load.current,
-                                         load_transient(load, element.voltage, s),
-                                         load.facts.ref)
+                    out[s.refs] = Fitted(
+                        s,
+                        load.voltage,
+                        load.current,
+                        load_transient(load, element.voltage, s),
+                        load.facts.ref,
+                    )
         for s in element.suppression:
-            if s.placement == "across-element" and s in effective(element.suppression) \
-                    and s.refs not in out:
+            if (
+                s.placement == "across-element"
+                and s in effective(element.suppression)
+                and s.refs not in out
+            ):
                 current = sum((ld.current for ld in element.loads), Q_(0.0, "A"))
-                out[s.refs] = Fitted(s, element.voltage, current,
-                                     element_transient(element, s), element.name)
+                out[s.refs] = Fitted(
+                    s,
+                    element.voltage,
+                    current,
+                    element_transient(element, s),
+                    element.name,
+                )
     return [out[k] for k in sorted(out)]
 
 
@@ -62,9 +79,16 @@ def _needs(ctx: CheckContext, fitted: Fitted, part: Component):  # type: ignore[
     v, i, opening = fitted.voltage, fitted.current, fitted.opening
     energy = opening.suppressor_energy if opening is not None else None
     if part.kind == "diode":
-        yield "reverse voltage", v * ctx.option("diode-reverse-voltage"), \
-            part.value("voltage_rating")
-        yield "forward current", i * ctx.option("diode-current"), part.value("current_rating")
+        yield (
+            "reverse voltage",
+            v * ctx.option("diode-reverse-voltage"),
+            part.value("voltage_rating"),
+        )
+        yield (
+            "forward current",
+            i * ctx.option("diode-current"),
+            part.value("current_rating"),
+        )
     elif part.kind == "zener":
         clamp = part.value("vz")
         if clamp is not None:
@@ -86,16 +110,28 @@ def suppressor_underrated(ctx: CheckContext) -> Iterator[Finding]:
         for part in _parts(fitted):
             for what, needed, rated in _needs(ctx, fitted, part):
                 if rated is None:
-                    yield ctx.finding(part, rule="rating-data-missing", message="suppressor",
-                                      fix="suppressor", what=what, needed=needed,
-                                      key=f"{part.ref}:{what}")
+                    yield ctx.finding(
+                        part,
+                        rule="rating-data-missing",
+                        message="suppressor",
+                        fix="suppressor",
+                        what=what,
+                        needed=needed,
+                        key=f"{part.ref}:{what}",
+                    )
                 elif rated < needed:
-                    yield ctx.finding(part, what=what, needed=needed, rated=rated,
-                                      about=fitted.about, key=what)
+                    yield ctx.finding(
+                        part,
+                        what=what,
+                        needed=needed,
+                        rated=rated,
+                        about=fitted.about,
+                        key=what,
+                    )
 
 
 def _normal_voltage(ctx: CheckContext, component: Component) -> pint.Quantity | None:
-    """The largest voltage across a part in service: energised, or across an open element."""
+    """The largest voltage on a part in service: energised or across an open element."""
     worst = None
     for fitted in fitted_suppressors(ctx):
         if component.ref in fitted.suppressor.refs:
@@ -105,7 +141,7 @@ def _normal_voltage(ctx: CheckContext, component: Component) -> pint.Quantity | 
 
 @check("suppressor-conducts-normally")
 def suppressor_conducts_normally(ctx: CheckContext) -> Iterator[Finding]:
-    """Flag varistors and TVS whose continuous or stand-off voltage is below the supply."""
+    """Flag varistors and TVS whose continuous or stand-off voltage is too low."""
     for component in ctx.components("varistor", "tvs"):
         voltage = _normal_voltage(ctx, component)
         if voltage is None:
@@ -113,23 +149,31 @@ def suppressor_conducts_normally(ctx: CheckContext) -> Iterator[Finding]:
         key = "vdc_max" if component.kind == "varistor" else "standoff"
         rated = component.value(key)
         if rated is None:
-            yield ctx.finding(component, rule="rating-data-missing", message="suppressor",
-                              fix="suppressor", what=key, needed=voltage, key=key)
+            yield ctx.finding(
+                component,
+                rule="rating-data-missing",
+                message="suppressor",
+                fix="suppressor",
+                what=key,
+                needed=voltage,
+                key=key,
+            )
         elif rated < voltage:
             yield ctx.finding(component, what=key, rated=rated, voltage=voltage)
 
 
 @check("snubber-without-resistor")
 def snubber_without_resistor(ctx: CheckContext) -> Iterator[Finding]:
-    """Flag a bare capacitor across a switching element (it discharges into the contact)."""
+    """Flag a bare capacitor across a switching element (it discharges into it)."""
     for element in ctx.switching_elements(supply="dc"):
         for s in element.suppression:
             if s.placement != "across-element" or s.kind != "capacitor" or not s.chain:
                 continue
             part = s.chain.branches[0].component
             low, high = _resistor_range(element)
-            yield ctx.finding(part, contact=element.name, low=low, high=high,
-                              key=element.name)
+            yield ctx.finding(
+                part, contact=element.name, low=low, high=high, key=element.name
+            )
 
 
 def _resistor_range(element: ElementAnalysis) -> tuple[pint.Quantity, pint.Quantity]:
@@ -142,15 +186,22 @@ def _resistor_range(element: ElementAnalysis) -> tuple[pint.Quantity, pint.Quant
     """
     voltage = element.voltage or Q_(0.0, "V")
     making = element.component.value("contacts", "making_current")
-    low = (voltage / making).to("ohm") if making is not None else (voltage * Q_(0.5, "ohm/V"))
+    low = (
+        (voltage / making).to("ohm")
+        if making is not None
+        else (voltage * Q_(0.5, "ohm/V"))
+    )
     current = element.current or Q_(0.0, "A")
     high = (voltage / current).to("ohm") if current.magnitude > 0 else low * 10
     return low.to("ohm"), max(high, low).to("ohm")
 
 
 def _element_peak(element: ElementAnalysis) -> OpeningFacts | None:
-    across = [s for s in element.suppression if s.placement == "across-element"
-              and s.functional and not s.conducts]
+    across = [
+        s
+        for s in element.suppression
+        if s.placement == "across-element" and s.functional and not s.conducts
+    ]
     if across:
         return element_transient(element, across[0])
     loads = element.inductive_loads
@@ -164,7 +215,7 @@ def _element_peak(element: ElementAnalysis) -> OpeningFacts | None:
 
 @check("peak-voltage-over-rating")
 def peak_voltage_over_rating(ctx: CheckContext) -> Iterator[Finding]:
-    """Flag opening peaks above an output's voltage_max or a snubber capacitor's rating."""
+    """Flag opening peaks above an output's or a snubber capacitor's rating."""
     for element in ctx.switching_elements(supply="dc"):
         rated = element.component.value("voltage_max")
         if element.component.kind not in SEMICONDUCTOR or rated is None:
@@ -172,22 +223,37 @@ def peak_voltage_over_rating(ctx: CheckContext) -> Iterator[Finding]:
         opening = _element_peak(element)
         peak = opening.peak_voltage if opening is not None else element.voltage
         if peak is not None and peak > rated:
-            yield ctx.finding(element, message="output", fix="output", peak=peak,
-                              rated=rated, assumptions=_assumed(opening))
+            yield ctx.finding(
+                element,
+                message="output",
+                fix="output",
+                peak=peak,
+                rated=rated,
+                assumptions=_assumed(opening),
+            )
     for fitted in fitted_suppressors(ctx):
         for part in _parts(fitted):
             rated = part.value("voltage_rating")
-            if part.kind not in ("capacitor", "rc") or rated is None or not fitted.opening:
+            if (
+                part.kind not in ("capacitor", "rc")
+                or rated is None
+                or not fitted.opening
+            ):
                 continue
             peak = fitted.opening.suppressor_peak_voltage
             if peak > rated:
-                yield ctx.finding(part, message="capacitor", fix="capacitor", peak=peak,
-                                  rated=rated, assumptions="", about=fitted.about)
+                yield ctx.finding(
+                    part,
+                    message="capacitor",
+                    fix="capacitor",
+                    peak=peak,
+                    rated=rated,
+                    assumptions="",
+                    about=fitted.about,
+                )
 
 
 def _assumed(opening: OpeningFacts | None) -> str:
     if opening is None or not opening.assumptions:
         return ""
     return " (" + "; ".join(opening.assumptions) + ")"
-
-
