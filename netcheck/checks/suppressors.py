@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 from collections.abc import Iterator
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 import pint
 
@@ -59,14 +59,46 @@ def fitted_suppressors(ctx: CheckContext) -> list[Fitted]:
                 and s.refs not in out
             ):
                 current = sum((ld.current for ld in element.loads), Q_(0.0, "A"))
-                out[s.refs] = Fitted(
-                    s,
-                    element.voltage,
-                    current,
-                    element_transient(element, s),
-                    element.name,
-                )
+                opening = _with_load_clamp(element, element_transient(element, s))
+                out[s.refs] = Fitted(s, element.voltage, current, opening, element.name)
     return [out[k] for k in sorted(out)]
+
+
+def _load_clamp(element: ElementAnalysis) -> OpeningFacts | None:
+    """The opening as the loads' own clamps shape it, if every inductive load has one.
+
+    A freewheel diode (or zener, TVS, varistor) across the load takes the load's
+    current at opening; the element then sees the supply plus that clamp (KVL)
+    and a snubber across the element no longer rings with the load.
+    """
+    loads = element.inductive_loads
+    clamps = [
+        s
+        for ld in loads
+        for s in effective(ld.suppressors)
+        if s.placement != "built-in" and s.kind not in ("rc", "capacitor")
+    ]
+    if not loads or len(clamps) < len(loads):
+        return None
+    peaks = [element_transient(element, s) for s in clamps]
+    known = [p for p in peaks if p is not None]
+    return max(known, key=lambda p: p.peak_voltage) if known else None
+
+
+def _with_load_clamp(
+    element: ElementAnalysis, own: OpeningFacts | None
+) -> OpeningFacts | None:
+    """An across-element snubber's stress when the loads clamp themselves first."""
+    clamped = _load_clamp(element)
+    if clamped is None or (
+        own is not None and own.peak_voltage <= clamped.peak_voltage
+    ):
+        return own
+    return replace(
+        clamped,
+        suppressor_energy=Q_(0.0, "J"),
+        suppressor_peak_voltage=clamped.peak_voltage,
+    )
 
 
 def _parts(fitted: Fitted) -> list[Component]:
@@ -203,7 +235,7 @@ def _element_peak(element: ElementAnalysis) -> OpeningFacts | None:
         if s.placement == "across-element" and s.functional and not s.conducts
     ]
     if across:
-        return element_transient(element, across[0])
+        return _with_load_clamp(element, element_transient(element, across[0]))
     loads = element.inductive_loads
     if len(loads) == 1 and effective(loads[0].suppressors):
         s = effective(loads[0].suppressors)[0]
