@@ -1,0 +1,207 @@
+"""The rule catalogue against the checks, the case folders and the case findings.
+
+Every rule of ``rules/*.yaml`` has a registered check (``unused-waiver`` is raised
+by the pipeline itself) and a case folder, complete metadata, margins with a
+default and a source, and templates whose placeholders the findings of the cases
+supply. The findings come from running every case of ``tests/cases`` (shared with
+``test_cases.py``, which caches them).
+"""
+
+from __future__ import annotations
+
+import re
+from collections.abc import Iterator
+
+import pytest
+from test_cases import CASES, case_files, run_case
+
+from netcheck.catalogue import RuleMeta, load_catalogue
+from netcheck.checks.registry import all_checks
+from netcheck.findings import Finding, Severity
+
+PIPELINE_RULES = {"unused-waiver"}  # raised by the pipeline, not by a check
+KEBAB = re.compile(r"\A[a-z][a-z0-9]*(?:-[a-z0-9]+)*\Z")
+
+# Rule -> why its findings do not carry the values its templates use.
+VALUES_NOT_CARRIED = {
+    "unused-waiver": (
+        "the pipeline fills the unused-waiver templates from rule/target/why but "
+        "stores values={} on the finding, so JSON/SARIF carry none of them"
+    ),
+}
+# Rule -> why a finding's fix is not the variant of the same name as its message.
+FIX_VARIANT_WRONG = {
+    "supply-short-circuit": (
+        "the closed-contacts finding uses message 'contacts' but the default fix "
+        "('reverse or remove the diode(s) closed contacts ...'): network.py "
+        "supply_short_circuit passes message='contacts' without fix='contacts'"
+    ),
+}
+
+
+def rules() -> dict[str, RuleMeta]:
+    """Each rule once, by its name (aliases dropped)."""
+    return {meta.name: meta for meta in load_catalogue().values()}
+
+
+def case_findings() -> Iterator[Finding]:
+    for path in case_files():
+        yield from run_case(path)
+
+
+def findings_of(rule: str) -> list[Finding]:
+    return [f for f in case_findings() if f.rule == rule]
+
+
+def _pattern(template: str) -> re.Pattern[str]:
+    """A template as a regular expression: literal text, any text per placeholder."""
+    parts = re.split(r"\{[^{}]*\}", template)
+    return re.compile(".*?".join(re.escape(p) for p in parts), re.DOTALL)
+
+
+def message_variants(meta: RuleMeta, finding: Finding) -> set[str]:
+    """The message variants whose template could have produced the finding."""
+    return {
+        name
+        for name, template in meta.messages.items()
+        if _pattern(template).fullmatch(finding.message)
+    }
+
+
+# --- the catalogue and the checks -------------------------------------------------
+
+
+def test_every_rule_has_a_check_and_every_check_a_rule() -> None:
+    names = set(rules())
+    checks = set(all_checks())
+    assert names - checks == PIPELINE_RULES, sorted(names - checks - PIPELINE_RULES)
+    assert checks <= names, sorted(checks - names)
+    assert not (checks & PIPELINE_RULES)
+
+
+def test_every_rule_has_a_case_folder() -> None:
+    folders = {p.name for p in CASES.iterdir() if p.is_dir()}
+    assert set(rules()) <= folders, sorted(set(rules()) - folders)
+
+
+@pytest.mark.parametrize("name", sorted(rules()))
+def test_rule_metadata_is_complete(name: str) -> None:
+    meta = rules()[name]
+    assert KEBAB.match(meta.name), meta.name
+    assert all(KEBAB.match(alias) for alias in meta.aliases), meta.aliases
+    assert isinstance(meta.severity, Severity)
+    assert meta.family and meta.title.strip() and meta.rationale.strip()
+    assert meta.references and all(str(r).strip() for r in meta.references)
+    assert meta.messages and all(t.strip() for t in meta.messages.values())
+    assert "default" in meta.messages or len(meta.messages) > 1
+    assert all(t.strip() for t in meta.fixes.values())
+
+
+@pytest.mark.parametrize("name", sorted(rules()))
+def test_margins_have_a_default_and_a_source(name: str) -> None:
+    for margin in rules()[name].margins.values():
+        assert KEBAB.match(margin.name), margin.name
+        assert margin.default > 0, (margin.name, margin.default)
+        assert margin.source.strip(), margin.name
+
+
+def test_margin_names_are_unique() -> None:
+    seen: dict[str, str] = {}
+    for meta in rules().values():
+        for margin in meta.margins:
+            assert margin not in seen, f"{margin} in {seen.get(margin)} and {meta.name}"
+            seen[margin] = meta.name
+
+
+# --- templates against the findings of the cases -----------------------------------
+
+
+def test_case_findings_have_filled_templates() -> None:
+    unfilled = [
+        f"{f.rule}@{f.span.file}:{f.span.line}: {text}"
+        for f in case_findings()
+        for text in (f.message, f.fix or "")
+        if "{" in text or "}" in text
+    ]
+    assert not unfilled, "\n".join(unfilled)
+
+
+@pytest.mark.parametrize("name", sorted(rules()))
+def test_every_rule_is_raised_by_some_case(name: str) -> None:
+    assert findings_of(name), f"no case raises {name}"
+
+
+def _params(known: dict[str, str]) -> list[object]:
+    return [
+        pytest.param(
+            name,
+            marks=[pytest.mark.xfail(strict=True, reason=known[name])]
+            if name in known
+            else [],
+        )
+        for name in sorted(rules())
+    ]
+
+
+@pytest.mark.parametrize("name", _params(VALUES_NOT_CARRIED))
+def test_every_placeholder_is_supplied_by_a_finding(name: str) -> None:
+    """Each placeholder of the rule's templates is among some finding's values."""
+    meta = rules()[name]
+    supplied: set[str] = set()
+    for finding in findings_of(name):
+        supplied |= {"element", "ref", *finding.values}
+    missing = sorted(meta.placeholders() - supplied)
+    assert not missing, f"{name}: no case finding supplies {missing}"
+
+
+@pytest.mark.parametrize("name", sorted(rules()))
+def test_every_message_variant_is_produced(name: str) -> None:
+    meta = rules()[name]
+    produced: set[str] = set()
+    for finding in findings_of(name):
+        variants = message_variants(meta, finding)
+        assert variants, f"{name}: message matches no template: {finding.message!r}"
+        produced |= variants
+    assert set(meta.messages) <= produced, sorted(set(meta.messages) - produced)
+
+
+@pytest.mark.parametrize("name", _params(FIX_VARIANT_WRONG))
+def test_every_fix_variant_is_produced(name: str) -> None:
+    meta = rules()[name]
+    produced = {
+        variant
+        for finding in findings_of(name)
+        if finding.fix
+        for variant, template in meta.fixes.items()
+        if _pattern(template).fullmatch(finding.fix)
+    }
+    assert set(meta.fixes) <= produced, sorted(set(meta.fixes) - produced)
+
+
+@pytest.mark.parametrize("name", _params(FIX_VARIANT_WRONG))
+def test_fix_goes_with_its_message_variant(name: str) -> None:
+    """A message variant that has a fix variant of its own name gets that fix."""
+    meta = rules()[name]
+    wrong = []
+    for finding in findings_of(name):
+        own = {
+            v
+            for v in message_variants(meta, finding)
+            if v != "default" and v in meta.fixes
+        }
+        if not own:
+            continue
+        if not any(_pattern(meta.fixes[v]).fullmatch(finding.fix or "") for v in own):
+            wrong.append(
+                f"{finding.element}: message {sorted(own)}, fix {finding.fix!r}"
+            )
+    assert not wrong, "\n".join(wrong)
+
+
+@pytest.mark.parametrize("name", sorted(rules()))
+def test_findings_have_the_rule_severity_or_a_documented_change(name: str) -> None:
+    """Only inductive-load-unsuppressed raises its severity (rules.md)."""
+    meta = rules()[name]
+    changed = {f.severity for f in findings_of(name)} - {meta.severity}
+    allowed = {Severity.ERROR} if name == "inductive-load-unsuppressed" else set()
+    assert changed <= allowed, (name, sorted(s.label for s in changed))
