@@ -191,7 +191,9 @@ class Netlist:
 
     def component(self, ref: str) -> Component | None:
         """Return the component with reference ``ref``."""
-        for component in self.components:
-            if component.ref == ref:
-                return component
-        return None
+        index = self.__dict__.get("_by_ref")
+        if index is None:
+            index = {c.ref: c for c in self.components}
+            # A frozen dataclass: the index is written around __setattr__.
+            object.__setattr__(self, "_by_ref", index)
+        return index.get(ref)

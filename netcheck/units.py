@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import functools
 import math
 import re
 
@@ -15,6 +16,13 @@ __all__ = ["ureg", "Q_", "Quantity", "DIMENSIONS", "parse_quantity", "format_qua
 ureg = pint.UnitRegistry(autoconvert_offset_to_baseunit=True)
 # Quantities that cross process boundaries (--jobs) unpickle into this registry.
 pint.set_application_registry(ureg)
+# pint parses a unit string such as "ms" afresh on every conversion; the
+# analysis converts millions of times on large designs, so remember the answers
+# (the containers returned are immutable).
+_parse_units = ureg.parse_units_as_container
+ureg.parse_units_as_container = functools.lru_cache(maxsize=1024)(  # type: ignore
+    _parse_units
+)
 Q_ = ureg.Quantity
 Quantity = pint.Quantity
 

@@ -81,6 +81,7 @@ class DomainState:
     comp_branches: dict[int, set[str]] = field(default_factory=dict)
     group_nets: dict[str, list[str]] = field(default_factory=dict)
     opened: frozenset[str] = frozenset()  # elements this state keeps open
+    supplies: list[Branch] = field(default_factory=list)  # the supply branches
 
     def model(self, key: str, rename: Mapping[str, str]) -> Resistor | Diode:
         """The branch's circuit model with its ends renamed (net -> node)."""
@@ -268,6 +269,7 @@ def solve_domain(
         branch_by_key={b.key: b for b in domain.branches},
         opened=opened,
     )
+    state.supplies = [b for b in domain.branches if b.role == SUPPLY]
     for branch in domain.branches:
         state.attached.setdefault(branch.a, []).append(branch)
         state.attached.setdefault(branch.b, []).append(branch)

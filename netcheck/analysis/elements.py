@@ -15,6 +15,7 @@ from netcheck.analysis.loads import (
     load_facts,
     most_demanding,
 )
+from netcheck.analysis.ratings import Assessment
 from netcheck.analysis.suppression import Chain, find_chains
 from netcheck.analysis.switched import (
     ElementAnalysis,
@@ -24,6 +25,7 @@ from netcheck.analysis.switched import (
     net_injections,
     open_element,
 )
+from netcheck.analysis.verdicts import element_rating
 from netcheck.analysis.zero_ohm import ZeroOhm
 from netcheck.graph import COIL, CONDUCTOR, LOAD, SUPPLY, SWITCH, Branch, Domain, Graph
 from netcheck.units import Q_
@@ -60,6 +62,22 @@ class Analysis:
     # The state with changeover NC sides closed (NO sides open), where one exists.
     alternate_states: dict[str, DomainState] = field(default_factory=dict)
 
+    verdicts: dict[str, Assessment | None] = field(default_factory=dict)
+    _shared: dict[tuple, Assessment | None] = field(default_factory=dict, repr=False)
+
+    def verdict(self, element: ElementAnalysis) -> Assessment | None:
+        """The element's rating verdict, computed once (rules and inspect share it).
+
+        Elements of the same part breaking the same circuit get the same verdict,
+        which keeps large designs of repeated rungs fast.
+        """
+        if element.name not in self.verdicts:
+            key = _verdict_key(element)
+            if key not in self._shared:
+                self._shared[key] = element_rating(element)
+            self.verdicts[element.name] = self._shared[key]
+        return self.verdicts[element.name]
+
     @property
     def reversed_suppressors(self) -> set[str]:
         """References of suppressors across a load that conduct in normal operation."""
@@ -74,6 +92,35 @@ class Analysis:
     def sorted_elements(self) -> list[ElementAnalysis]:
         """Elements sorted by name."""
         return [self.elements[k] for k in sorted(self.elements)]
+
+
+def _magnitude(value: pint.Quantity | None, unit: str) -> float | None:
+    return None if value is None else float(f"{value.to(unit).magnitude:.9g}")
+
+
+def _verdict_key(element: ElementAnalysis) -> tuple:
+    """What a rating verdict depends on: the part's contact data and the break."""
+    component = element.component
+    inline = tuple(
+        sorted(
+            (a.key, a.text)
+            for a in component.attributes
+            if a.key.startswith("contacts.")
+        )
+    )
+    part = component.part.name if component.part is not None else None
+    return (
+        component.kind if part else component.ref,
+        part,
+        inline,
+        element.supply,
+        bool(element.loads),
+        element.load_category,
+        element.series_poles,
+        _magnitude(element.voltage, "V"),
+        _magnitude(element.current, "A"),
+        _magnitude(element.time_constant, "s"),
+    )
 
 
 def _wire_map(domain: Domain) -> dict[str, str]:
@@ -209,7 +256,7 @@ def _sag(state: DomainState, current: float) -> tuple[float, str | None, float |
     With only the switched circuit energised, I = G·E/(1 + G·r_int) where
     G = I0/E is the circuit's conductance seen from the rails (Ohm's law).
     """
-    supplies = [b for b in state.domain.branches if b.role == SUPPLY]
+    supplies = state.supplies
     if len(supplies) != 1:
         return current, None, None
     ref = supplies[0].ref

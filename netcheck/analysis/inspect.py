@@ -5,30 +5,13 @@ from __future__ import annotations
 from typing import Any
 
 from netcheck.analysis.elements import Analysis
-from netcheck.analysis.ratings import Assessment, assess_breaking
+from netcheck.analysis.ratings import Assessment
 from netcheck.analysis.switched import ElementAnalysis
 from netcheck.findings import quantity_dict
 
-__all__ = ["inspect_elements", "element_rating"]
+__all__ = ["inspect_elements"]
 
-_MECHANICAL = ("relay", "contactor", "switch")
 _SI = {"voltage": "V", "current": "A", "time_constant": "s", "t95": "s", "energy": "J"}
-
-
-def element_rating(element: ElementAnalysis) -> Assessment | None:
-    """The rating verdict the ratings rules use, or None where none applies."""
-    if element.component.kind not in _MECHANICAL or element.supply != "dc":
-        return None
-    if not element.loads or element.voltage is None or element.load_category is None:
-        return None
-    return assess_breaking(
-        element.component.value("contacts"),
-        voltage=element.voltage,
-        current=element.current,
-        needed=element.load_category,
-        time_constant=element.time_constant,
-        poles=max(1, element.series_poles),
-    )
 
 
 def _rating_dict(verdict: Assessment | None) -> dict[str, Any] | None:
@@ -50,7 +33,7 @@ def _rating_dict(verdict: Assessment | None) -> dict[str, Any] | None:
     }
 
 
-def _entry(element: ElementAnalysis) -> dict[str, Any]:
+def _entry(element: ElementAnalysis, verdict: Assessment | None) -> dict[str, Any]:
     entry: dict[str, Any] = {
         "element": element.name,
         "device": element.component.ref,
@@ -75,10 +58,10 @@ def _entry(element: ElementAnalysis) -> dict[str, Any]:
         }
         for s in element.suppression
     ]
-    entry["rating"] = _rating_dict(element_rating(element))
+    entry["rating"] = _rating_dict(verdict)
     return entry
 
 
 def inspect_elements(analysis: Analysis) -> list[dict[str, Any]]:
     """One entry per switching element, sorted by name (cli.md, inspect JSON)."""
-    return [_entry(e) for e in analysis.sorted_elements()]
+    return [_entry(e, analysis.verdict(e)) for e in analysis.sorted_elements()]

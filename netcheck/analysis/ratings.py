@@ -282,8 +282,9 @@ def assess_breaking(
     tau = None if time_constant is None else _magnitude(time_constant, "ms")
     volts = _magnitude(voltage, "V")
     result = _assess(contacts, volts, current, needed, tau, poles)
-    if current is None or not has_dc_data(contacts):
-        return result
+    if current is None or not has_dc_data(contacts) or result.is_ok:
+        # An arrangement that breaks it needs no more poles; fixes ask otherwise.
+        return result if not result.is_ok else replace(result, poles_needed=poles)
     fewest = poles_needed(contacts, voltage=volts, current=current, needed=needed)
     return replace(result, poles_needed=fewest)
 

@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 from collections.abc import Iterator, Mapping
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from typing import Any
 
 from netcheck.analysis.elements import Analysis
@@ -28,6 +28,8 @@ class CheckContext:
     catalogue: Mapping[str, RuleMeta]
     margins: Mapping[str, float]
     rule: str = ""
+    # Results several checks share (e.g. the suppressors fitted), computed once.
+    memo: dict[str, Any] = field(default_factory=dict)
 
     def switching_elements(
         self, supply: str | None = None

@@ -4,7 +4,6 @@ from __future__ import annotations
 
 from collections.abc import Iterator
 
-from netcheck.analysis.inspect import element_rating
 from netcheck.analysis.ratings import Assessment
 from netcheck.analysis.switched import ElementAnalysis
 from netcheck.checks.context import CheckContext
@@ -43,7 +42,7 @@ def assessment(ctx: CheckContext, element: ElementAnalysis) -> Assessment | None
     """The rating verdict for a mechanical element (its series arrangement if any)."""
     if not breaks_something(element):
         return None
-    return element_rating(element)
+    return ctx.analysis.verdict(element)
 
 
 def _judged(ctx: CheckContext) -> Iterator[tuple[ElementAnalysis, Assessment]]:

@@ -38,6 +38,12 @@ class Fitted:
 
 def fitted_suppressors(ctx: CheckContext) -> list[Fitted]:
     """Every effective suppressor of a DC element's circuit, once each."""
+    if "fitted" not in ctx.memo:
+        ctx.memo["fitted"] = _fitted(ctx)
+    return ctx.memo["fitted"]  # type: ignore[no-any-return]
+
+
+def _fitted(ctx: CheckContext) -> list[Fitted]:
     out: dict[tuple[str, ...], Fitted] = {}
     for element in ctx.switching_elements(supply="dc"):
         if element.voltage is None:
@@ -164,11 +170,14 @@ def suppressor_underrated(ctx: CheckContext) -> Iterator[Finding]:
 
 def _normal_voltage(ctx: CheckContext, component: Component) -> pint.Quantity | None:
     """The largest voltage on a part in service: energised or across an open element."""
-    worst = None
-    for fitted in fitted_suppressors(ctx):
-        if component.ref in fitted.suppressor.refs:
-            worst = fitted.voltage if worst is None else max(worst, fitted.voltage)
-    return worst
+    if "worst" not in ctx.memo:
+        worst: dict[str, pint.Quantity] = {}
+        for fitted in fitted_suppressors(ctx):
+            for ref in fitted.suppressor.refs:
+                if ref not in worst or fitted.voltage > worst[ref]:
+                    worst[ref] = fitted.voltage
+        ctx.memo["worst"] = worst
+    return ctx.memo["worst"].get(component.ref)  # type: ignore[no-any-return]
 
 
 @check("suppressor-conducts-normally")
