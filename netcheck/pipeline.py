@@ -76,7 +76,7 @@ def _apply_waivers(
                 message=fill_template(meta.message(), values),
                 span=waiver.span,
                 element=waiver.target,
-                values={},
+                values=values,
                 fix=fill_template(meta.fix() or "", values) or None,
                 references=meta.references,
                 key=waiver.rule,

@@ -39,14 +39,7 @@ CASES = Path(__file__).parent / "cases"
 REL_TOL = 0.01  # hand calculations are given to 3-4 digits (sample expect.yaml: 1 %)
 
 # Case file (relative to tests/cases) -> why the check gets it wrong today.
-KNOWN_WRONG: dict[str, str] = {
-    "freewheel-diode-reversed/bad-diode-reversed-short-current.cnet": (
-        "short-circuit currents ignore the diode's forward drop: "
-        "freewheel-diode-reversed reports E/r_int = 240 A and the feeding contact "
-        "237.5 A (the linear r_int correction applied to a diode), where KVL gives "
-        "(24 V - 0.9 V) / 0.1 ohm = 231 A, as supply-short-circuit reports"
-    ),
-}
+KNOWN_WRONG: dict[str, str] = {}
 
 _MARKER = re.compile(r"#\s*(expect|waived):\s*(.*?)\s*(?=#|$)")
 _ITEM = re.compile(

@@ -23,20 +23,9 @@ PIPELINE_RULES = {"unused-waiver"}  # raised by the pipeline, not by a check
 KEBAB = re.compile(r"\A[a-z][a-z0-9]*(?:-[a-z0-9]+)*\Z")
 
 # Rule -> why its findings do not carry the values its templates use.
-VALUES_NOT_CARRIED = {
-    "unused-waiver": (
-        "the pipeline fills the unused-waiver templates from rule/target/why but "
-        "stores values={} on the finding, so JSON/SARIF carry none of them"
-    ),
-}
+VALUES_NOT_CARRIED: dict[str, str] = {}
 # Rule -> why a finding's fix is not the variant of the same name as its message.
-FIX_VARIANT_WRONG = {
-    "supply-short-circuit": (
-        "the closed-contacts finding uses message 'contacts' but the default fix "
-        "('reverse or remove the diode(s) closed contacts ...'): network.py "
-        "supply_short_circuit passes message='contacts' without fix='contacts'"
-    ),
-}
+FIX_VARIANT_WRONG: dict[str, str] = {}
 
 
 def rules() -> dict[str, RuleMeta]:

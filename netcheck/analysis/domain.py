@@ -313,3 +313,30 @@ def shunts(state: DomainState) -> list[Branch]:
         for b in state.resistive
         if state.group[b.a] == state.group[b.b] and b.a != b.b
     ]
+
+
+def prospective_current(state: DomainState, drop: float = 0.0) -> float | None:
+    """The current a short across the domain's supply draws (A), or None if unbounded.
+
+    Kirchhoff's voltage law round the loop: (E - the forward drops in the path)
+    / r_int, capped by the supply's stated short-circuit current ``isc``.
+    """
+    if not state.supplies:
+        return None
+    supply = state.supplies[0]
+    emf, r_int = state.emf[supply.ref], state.r_int[supply.ref]
+    isc = supply.component.value("isc")
+    limit = float(isc.to("A").magnitude) if isc is not None else None
+    if r_int > 0:
+        current = max(emf - drop, 0.0) / r_int
+        return min(current, limit) if limit is not None else current
+    return limit
+
+
+def chain_drop(state: DomainState, chain: Iterable[Branch]) -> float:
+    """The forward drops of the diodes in a conducting chain (V)."""
+    return sum(
+        state.models[b.key].vf
+        for b in chain
+        if isinstance(state.models.get(b.key), Diode)
+    )

@@ -7,7 +7,14 @@ from dataclasses import dataclass, field, replace
 
 import pint
 
-from netcheck.analysis.domain import CONDUCTING, DomainState, shunts, solve_domain
+from netcheck.analysis.domain import (
+    CONDUCTING,
+    DomainState,
+    chain_drop,
+    prospective_current,
+    shunts,
+    solve_domain,
+)
 from netcheck.analysis.loads import (
     LoadFacts,
     category_for,
@@ -250,6 +257,13 @@ def _switched_loads(ctx: _Ctx, opening: Opening, power: bool) -> list[SwitchedLo
     return loads
 
 
+def _shorted_chains(state: DomainState, floating: frozenset[str]) -> list:
+    """The supply shorts that the element feeds (a chain touching its open side)."""
+    return [
+        c for c in state.shorts if any(n in floating for b in c for n in (b.a, b.b))
+    ]
+
+
 def _sag(state: DomainState, current: float) -> tuple[float, str | None, float | None]:
     """Correct a current for the supply's internal resistance (linear loads).
 
@@ -291,6 +305,13 @@ def _analyse_dc(
     power = branch.component.kind == "contactor" and len(branch.element.a) == 1
     loads = _switched_loads(ctx, opening, power)
     current, supply_ref, emf = _sag(state, opening.current_ab)
+    shorted = _shorted_chains(state, opening.floating_nets)
+    if shorted:
+        # A short on the switched side: Ohm's law does not apply to the diode;
+        # KVL round the loop gives (E - its forward drops) / r_int.
+        drop = min(chain_drop(state, chain) for chain in shorted)
+        bounded = prospective_current(state, drop)
+        current = bounded if bounded is not None else current
     taus = [
         ld.facts.time_constant for ld in loads if ld.facts.time_constant is not None
     ]
@@ -309,7 +330,6 @@ def _analyse_dc(
     )
     suppression = tuple(s for ld in loads for s in ld.suppressors) + tuple(across)
     missing = tuple(sorted({m for ld in loads for m in ld.facts.missing}))
-    shorted_nets = {n for chain in state.shorts for b in chain for n in (b.a, b.b)}
     unknown = [
         b.ref
         for b in state.unknown_resistance
@@ -337,7 +357,7 @@ def _analyse_dc(
         supply_voltage=Q_(emf, "V") if emf is not None else None,
         supply_ref=supply_ref,
         missing=missing + tuple(f"{r}: resistance" for r in unknown),
-        short_circuit=bool(shorted_nets & opening.floating_nets),
+        short_circuit=bool(shorted),
     )
 
 

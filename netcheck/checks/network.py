@@ -4,6 +4,7 @@ from __future__ import annotations
 
 from collections.abc import Iterator
 
+from netcheck.analysis.domain import chain_drop, prospective_current
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding
@@ -74,8 +75,9 @@ def supply_short_circuit(ctx: CheckContext) -> Iterator[Finding]:
             yield ctx.finding(
                 supply.component,
                 message="contacts",
+                fix="contacts",
                 path="closed contacts",
-                current=_prospective(state, supply.ref, 0.0),
+                current=_prospective(state, 0.0),
                 key="contacts",
             )
         for chain in state.shorts:
@@ -83,19 +85,17 @@ def supply_short_circuit(ctx: CheckContext) -> Iterator[Finding]:
             if across_load:
                 continue  # freewheel-diode-reversed reports it, with the load
             refs = ", ".join(b.ref for b in chain)
-            supply = state.domain.supplies[0]
-            vf = sum(state.models[b.key].vf for b in chain)
             yield ctx.finding(
                 chain[0].component,
                 path=refs,
-                current=_prospective(state, supply.ref, vf),
+                current=_prospective(state, chain_drop(state, chain)),
                 key=refs,
             )
 
 
-def _prospective(state, ref: str, drop: float):  # type: ignore[no-untyped-def]
-    """The short-circuit current E/r_int, where the supply gives r_int."""
-    emf, r_int = state.emf.get(ref, 0.0), state.r_int.get(ref, 0.0)
-    if r_int > 0:
-        return Q_((emf - drop) / r_int, "A")
-    return "limited only by the wiring (no r_int or isc given)"
+def _prospective(state, drop: float):  # type: ignore[no-untyped-def]
+    """The prospective short-circuit current, or why it is unbounded."""
+    current = prospective_current(state, drop)
+    if current is None:
+        return "limited only by the wiring (no r_int or isc given)"
+    return Q_(current, "A")

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 from collections.abc import Iterator
 
+from netcheck.analysis.domain import chain_drop, prospective_current
 from netcheck.analysis.opening import element_transient, load_transient, zener_release
 from netcheck.analysis.switched import ElementAnalysis, Suppressor, SwitchedLoad
 from netcheck.checks.context import CheckContext
@@ -104,7 +105,7 @@ def freewheel_diode_reversed(ctx: CheckContext) -> Iterator[Finding]:
             state = ctx.analysis.states[info.domain or ""]
             shorted = any(diode in group for group in state.shorts)
             current = (
-                _short_current(state)
+                _short_current(state, chain)
                 if shorted
                 else Q_(abs(state.currents.get(diode.key, 0.0)), "A")
             )
@@ -122,12 +123,12 @@ def freewheel_diode_reversed(ctx: CheckContext) -> Iterator[Finding]:
             )
 
 
-def _short_current(state):  # type: ignore[no-untyped-def]
-    ref = state.domain.supplies[0].ref
-    emf, r_int = state.emf.get(ref, 0.0), state.r_int.get(ref, 0.0)
-    if r_int > 0:
-        return Q_(emf / r_int, "A")
-    return "limited only by the wiring and the supply (no r_int given)"
+def _short_current(state, chain) -> object:  # type: ignore[no-untyped-def]
+    """The prospective current through a shorted chain (KVL), or why unbounded."""
+    current = prospective_current(state, chain_drop(state, chain.branches))
+    if current is None:
+        return "limited only by the wiring and the supply (no r_int or isc given)"
+    return Q_(current, "A")
 
 
 @check("diode-on-ac-load")
