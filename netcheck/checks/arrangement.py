@@ -6,7 +6,12 @@ from collections.abc import Iterator
 
 from netcheck.analysis.switched import ElementAnalysis
 from netcheck.checks.context import CheckContext
-from netcheck.checks.ratings import arrangement_lead, assessment, rating_values
+from netcheck.checks.ratings import (
+    arrangement_lead,
+    assessment,
+    fits_device,
+    rating_values,
+)
 from netcheck.checks.registry import check
 from netcheck.findings import Finding
 
@@ -73,10 +78,14 @@ def series_poles_underrated(ctx: CheckContext) -> Iterator[Finding]:
         verdict = assessment(ctx, element)
         if verdict is None or verdict.status not in ("current-over", "voltage-over"):
             continue
-        fix = "poles" if verdict.poles_needed else "default"
+        fix = "poles" if fits_device(element, verdict.poles_needed) else "default"
+        over_voltage = verdict.status == "voltage-over"
+        top = verdict.max_dc_voltage if verdict.max_dc_voltage is not None else "none"
         yield ctx.finding(
             element,
+            message="voltage" if over_voltage else "default",
             fix=fix,
+            top=top,
             poles_list=", ".join(element.series_elements),
             **rating_values(element, verdict),
         )

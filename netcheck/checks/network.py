@@ -4,6 +4,8 @@ from __future__ import annotations
 
 from collections.abc import Iterator
 
+import networkx as nx
+
 from netcheck.analysis.domain import chain_drop, prospective_current
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
@@ -33,7 +35,7 @@ def ac_dc_interconnected(ctx: CheckContext) -> Iterator[Finding]:
                 supply_kind(first) == "ac" or first.value("dc") == other.value("dc")
             ):
                 continue
-            net = min(n for n in domain.nets if n in {c.net for c in other.connections})
+            net = _meeting_net(ctx, first, other)
             yield ctx.finding(
                 (other, net),
                 net=net,
@@ -41,6 +43,27 @@ def ac_dc_interconnected(ctx: CheckContext) -> Iterator[Finding]:
                 second=_describe(other),
                 key=first.ref,
             )
+
+
+def _meeting_net(ctx: CheckContext, first, other) -> str:  # type: ignore[no-untyped-def]
+    """The net where two supplies meet: one both touch, else the first on a path."""
+    mine = {c.net for c in first.connections}
+    theirs = {c.net for c in other.connections}
+    shared = sorted(mine & theirs)
+    if shared:
+        return shared[0]
+    graph = ctx.graph.graph
+    path = min(
+        (
+            nx.shortest_path(graph, a, b)
+            for a in sorted(mine)
+            for b in sorted(theirs)
+            if nx.has_path(graph, a, b)
+        ),
+        key=len,
+        default=[min(theirs)],
+    )
+    return path[1] if len(path) > 2 else path[-1]
 
 
 @check("single-connection-net")

@@ -13,6 +13,7 @@ from netcheck.findings import Finding
 __all__ = [
     "assessment",
     "arrangement_lead",
+    "fits_device",
     "rating_values",
     "dc_break_ac_only",
     "dc_break_over_rating",
@@ -52,6 +53,20 @@ def _judged(ctx: CheckContext) -> Iterator[tuple[ElementAnalysis, Assessment]]:
         verdict = assessment(ctx, element)
         if verdict is not None:
             yield element, verdict
+
+
+def fits_device(element: ElementAnalysis, poles_needed: int | None) -> bool:
+    """Whether the device has the poles a series-pole fix asks for.
+
+    Only a part that lists its poles says how many there are; without that list
+    the fix is offered as it is computed.
+    """
+    if not poles_needed:
+        return False
+    listed = (
+        element.component.part.data.get("poles") if element.component.part else None
+    )
+    return not listed or poles_needed <= len(listed)
 
 
 def rating_values(element: ElementAnalysis, verdict: Assessment) -> dict:
@@ -94,7 +109,7 @@ def dc_break_over_rating(ctx: CheckContext) -> Iterator[Finding]:
     """Flag elements whose breaking current exceeds the applicable DC rating."""
     for element, verdict in _judged(ctx):
         if verdict.status == "current-over" and verdict.poles == 1:
-            fix = "poles" if verdict.poles_needed else "default"
+            fix = "poles" if fits_device(element, verdict.poles_needed) else "default"
             yield ctx.finding(element, fix=fix, **rating_values(element, verdict))
     for element in ctx.switching_elements(supply="dc"):
         limit = element.component.value("current_max")
@@ -118,7 +133,7 @@ def dc_voltage_over_rating(ctx: CheckContext) -> Iterator[Finding]:
     """Flag elements breaking a voltage above every DC voltage they are rated for."""
     for element, verdict in _judged(ctx):
         if verdict.status == "voltage-over" and verdict.poles == 1:
-            fix = "poles" if verdict.poles_needed else "default"
+            fix = "poles" if fits_device(element, verdict.poles_needed) else "default"
             top = (
                 verdict.max_dc_voltage if verdict.max_dc_voltage is not None else "none"
             )
@@ -147,7 +162,9 @@ def category_mismatch(ctx: CheckContext) -> Iterator[Finding]:
     """Flag loads that need a more demanding category than any DC rating of the pole."""
     for element, verdict in _judged(ctx):
         if verdict.category_mismatch and verdict.status not in ("ac-only", "no-data"):
-            rated = ", ".join(verdict.rated_categories) or "none"
+            rated = (
+                ", ".join(verdict.rated_categories) or "a resistive breaking curve only"
+            )
             yield ctx.finding(
                 element,
                 category=element.load_category,
@@ -208,6 +225,7 @@ def rating_data_missing(ctx: CheckContext) -> Iterator[Finding]:
         ):
             yield ctx.finding(
                 element,
+                fix="output",
                 what="output (ac or dc)",
                 voltage=element.voltage,
                 current=element.current,

@@ -10,7 +10,7 @@ from netcheck.analysis.switched import ElementAnalysis, Suppressor, SwitchedLoad
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding, Severity
-from netcheck.units import Q_
+from netcheck.units import Q_, format_quantity
 
 __all__ = [
     "inductive_load_unsuppressed",
@@ -64,7 +64,14 @@ def inductive_load_unsuppressed(ctx: CheckContext) -> Iterator[Finding]:
         case = _clamp_case(ctx, element)
         if case is not None and case[0] == "ok":
             continue
-        energy = sum((ld.energy for ld in loads if ld.energy is not None), Q_(0.0, "J"))
+        known = [ld.energy for ld in loads if ld.energy is not None]
+        energy: object = sum(known, Q_(0.0, "J"))
+        if len(known) < len(loads):  # an inductive type with no L or tau given
+            energy = (
+                "an unknown energy (no L or tau given)"
+                if not known
+                else (f"at least {format_quantity(energy)}")
+            )
         current = max(ld.current for ld in loads)
         values = {
             "loads": ", ".join(ld.facts.ref for ld in loads),
@@ -114,6 +121,8 @@ def freewheel_diode_reversed(ctx: CheckContext) -> Iterator[Finding]:
             )
             yield ctx.finding(
                 diode.component,
+                fix="chain" if len(chain.branches) > 1 else "default",
+                parts=", ".join(chain.refs),
                 load=info.branch.ref,
                 current=current,
                 voltage=info.voltage,
