@@ -46,7 +46,7 @@ from netcheck.parse import (
 from netcheck.parts import load_library
 from netcheck.poles import check_terminals, elements_of, infer_poles, poles_from_part
 from netcheck.source import Span
-from netcheck.units import parse_quantity
+from netcheck.units import check_sign, parse_quantity
 
 __all__ = ["load_design", "read_design_text", "MAX_FILE_BYTES", "MAX_INCLUDE_DEPTH"]
 
@@ -168,7 +168,9 @@ def _parse_value(key: str, text: str, span: Span, quoted: bool) -> Any:
     base = key.rsplit(".", 1)[-1]
     dimension = QUANTITY_KEYS.get(base)
     if dimension is not None:
-        return parse_quantity(text, dimension, span)
+        quantity = parse_quantity(text, dimension, span)
+        check_sign(key, quantity, span)
+        return quantity
     allowed = choices(base)
     if allowed == "tags":
         return tuple(t for t in text.split(",") if t)

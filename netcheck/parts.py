@@ -13,7 +13,7 @@ from netcheck.attributes import QUANTITY_KEYS
 from netcheck.errors import InputError, InputErrors, PartsError, QuantityError
 from netcheck.model import Part
 from netcheck.resources import data_path
-from netcheck.units import parse_quantity
+from netcheck.units import check_sign, parse_quantity
 from netcheck.yamlsafe import LocatedYaml, load_located_yaml
 
 __all__ = ["load_library", "parse_library", "MAX_LIBRARY_BYTES"]
@@ -110,19 +110,32 @@ def _validate(doc: LocatedYaml) -> list[InputError]:
     return list(found.values())
 
 
-def _convert(value: Any, key: str | None) -> Any:
+def _convert(
+    value: Any,
+    key: str | None,
+    doc: LocatedYaml,
+    path: tuple[Any, ...],
+    errors: list[InputError],
+) -> Any:
     if isinstance(value, dict):
-        return {k: _convert(v, k) for k, v in value.items()}
+        return {k: _convert(v, k, doc, (*path, k), errors) for k, v in value.items()}
     if isinstance(value, list):
-        return tuple(_convert(v, key) for v in value)
+        return tuple(
+            _convert(v, key, doc, (*path, i), errors) for i, v in enumerate(value)
+        )
     if (
         key in QUANTITY_KEYS
         and key not in _NON_QUANTITY
         and isinstance(value, (str, int, float))
     ):
-        if isinstance(value, (int, float)):
-            return parse_quantity(str(value), QUANTITY_KEYS[key])
-        return parse_quantity(value, QUANTITY_KEYS[key])
+        quantity = parse_quantity(str(value), QUANTITY_KEYS[key])
+        if key != "operating_range":
+            try:
+                check_sign(key, quantity, doc.span(path))
+            except InputError as error:
+                error.message = f"{_path_text(path)}: {error.message}"
+                errors.append(error)
+        return quantity
     if key in ("polarized", "economy", "bidirectional") and isinstance(value, str):
         return value == "yes"
     return value
@@ -140,10 +153,12 @@ def parse_library(text: str, file: str) -> dict[str, Part]:
         raise InputErrors(errors)
     parts = {}
     for name, data in doc.data["parts"].items():
-        converted = _convert(data, None)
+        converted = _convert(data, None, doc, ("parts", name), errors)
         parts[name] = Part(
             name, converted["kind"], converted, doc.span(("parts", name)), file
         )
+    if errors:
+        raise InputErrors(errors)
     return parts
 
 

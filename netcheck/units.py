@@ -11,7 +11,16 @@ import pint
 from netcheck.errors import QuantityError
 from netcheck.source import Span
 
-__all__ = ["ureg", "Q_", "Quantity", "DIMENSIONS", "parse_quantity", "format_quantity"]
+__all__ = [
+    "ureg",
+    "Q_",
+    "Quantity",
+    "DIMENSIONS",
+    "parse_quantity",
+    "format_quantity",
+    "check_sign",
+    "MAY_BE_ZERO",
+]
 
 ureg = pint.UnitRegistry(autoconvert_offset_to_baseunit=True)
 # Quantities that cross process boundaries (--jobs) unpickle into this registry.
@@ -85,6 +94,24 @@ def _describe(quantity: pint.Quantity) -> str:
         if unit and quantity.dimensionality == Q_(1, unit).dimensionality:
             return f"a {name}"
     return f"dimension {quantity.dimensionality}"
+
+
+# Keys whose value may be zero (no internal resistance, no inductance, release at
+# zero current); every other quantity must be above zero to mean anything.
+MAY_BE_ZERO = frozenset(
+    {"r_int", "L", "tau", "inductance", "time_constant", "release_current", "min_load"}
+)
+
+
+def check_sign(key: str, quantity: pint.Quantity, span: Span | None = None) -> None:
+    """Refuse negative values, and zero where the key cannot be zero."""
+    magnitude = float(quantity.magnitude)
+    base = key.rsplit(".", 1)[-1]
+    if magnitude < 0 or (magnitude == 0 and base not in MAY_BE_ZERO):
+        bound = "at least 0" if base in MAY_BE_ZERO else "above 0"
+        raise QuantityError(
+            f"{key} must be {bound}, got {format_quantity(quantity)}", span
+        )
 
 
 def format_quantity(quantity: pint.Quantity, digits: int = 4) -> str:
