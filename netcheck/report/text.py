@@ -11,6 +11,7 @@ import textwrap
 from collections.abc import Mapping
 from itertools import groupby
 
+import pint
 from rich.console import Console, Group, RenderableType
 from rich.padding import Padding
 from rich.table import Table
@@ -83,9 +84,11 @@ def _groups(findings: tuple[Finding, ...]) -> list[list[Finding]]:
 
 
 def _values_text(finding: Finding) -> str:
+    """The computed quantities behind a finding (names and texts live in JSON too)."""
     return ", ".join(
-        f"{name} = {quantity_dict(finding.values[name])['text']}"
-        for name in sorted(finding.values)
+        f"{name} = {quantity_dict(value)['text']}"
+        for name, value in sorted(finding.values.items())
+        if isinstance(value, pint.Quantity)
     )
 
 
@@ -101,9 +104,10 @@ def _finding_table(group: list[Finding]) -> Table:
         body.append("  ")
         body.append(_one_line(finding.message))
         body.append(f" [{finding.rule}]", "dim")
-        if finding.values:
+        values = _values_text(finding)
+        if values:
             body.append("\nvalues: ", "bold")
-            body.append(_values_text(finding))
+            body.append(values)
         if finding.fix:
             body.append("\nfix: ", "bold green")
             body.append(_one_line(finding.fix))
