@@ -104,6 +104,21 @@ def dc_break_ac_only(ctx: CheckContext) -> Iterator[Finding]:
             )
 
 
+def _outputs_over(
+    ctx: CheckContext, limit_key: str, attribute: str
+) -> Iterator[tuple[ElementAnalysis, object]]:
+    """Semiconductor outputs whose breaking ``attribute`` exceeds ``limit_key``."""
+    for element in ctx.switching_elements(supply="dc"):
+        limit = element.component.value(limit_key)
+        value = getattr(element, attribute)
+        if (
+            element.component.kind in ("ssr", "output")
+            and limit is not None
+            and (value is not None and value > limit)
+        ):
+            yield element, limit
+
+
 @check("dc-break-over-rating")
 def dc_break_over_rating(ctx: CheckContext) -> Iterator[Finding]:
     """Flag elements whose breaking current exceeds the applicable DC rating."""
@@ -111,21 +126,14 @@ def dc_break_over_rating(ctx: CheckContext) -> Iterator[Finding]:
         if verdict.status == "current-over" and verdict.poles == 1:
             fix = "poles" if fits_device(element, verdict.poles_needed) else "default"
             yield ctx.finding(element, fix=fix, **rating_values(element, verdict))
-    for element in ctx.switching_elements(supply="dc"):
-        limit = element.component.value("current_max")
-        if (
-            element.component.kind in ("ssr", "output")
-            and limit is not None
-            and element.current is not None
-            and element.current > limit
-        ):
-            yield ctx.finding(
-                element,
-                message="output",
-                fix="output",
-                current=element.current,
-                allowed=limit,
-            )
+    for element, limit in _outputs_over(ctx, "current_max", "current"):
+        yield ctx.finding(
+            element,
+            message="output",
+            fix="output",
+            current=element.current,
+            allowed=limit,
+        )
 
 
 @check("dc-voltage-over-rating")
@@ -140,21 +148,10 @@ def dc_voltage_over_rating(ctx: CheckContext) -> Iterator[Finding]:
             yield ctx.finding(
                 element, fix=fix, top=top, **rating_values(element, verdict)
             )
-    for element in ctx.switching_elements(supply="dc"):
-        limit = element.component.value("voltage_max")
-        if (
-            element.component.kind in ("ssr", "output")
-            and limit is not None
-            and element.voltage is not None
-            and element.voltage > limit
-        ):
-            yield ctx.finding(
-                element,
-                message="output",
-                fix="output",
-                top=limit,
-                voltage=element.voltage,
-            )
+    for element, limit in _outputs_over(ctx, "voltage_max", "voltage"):
+        yield ctx.finding(
+            element, message="output", fix="output", top=limit, voltage=element.voltage
+        )
 
 
 @check("category-mismatch")
