@@ -209,9 +209,16 @@ def assert_well_behaved(
     if outcome.code == 2:
         problems = diagnostic_problems(outcome.err, root)
         assert not problems, "\n".join(problems) + "\n" + outcome.describe()
-    elif "--format" in outcome.argv and "json" in outcome.argv:
+    elif _wants_json(outcome.argv) and "-o" not in outcome.argv:
         document = json.loads(outcome.out)
-        assert document["format"] == "netcheck-findings/1", outcome.describe()
+        formats = {"check": "netcheck-findings/1", "inspect": "netcheck-inspect/1"}
+        expected = formats.get(outcome.argv[0])
+        if expected is not None:
+            assert document["format"] == expected, outcome.describe()
+
+
+def _wants_json(argv: Sequence[str]) -> bool:
+    return any(a == "--format" and b == "json" for a, b in zip(argv, argv[1:]))
 
 
 def copy_sample(name: str, target: Path) -> Path:
