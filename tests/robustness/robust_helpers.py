@@ -86,9 +86,7 @@ def working_directory(path: Path) -> Iterator[None]:
         os.chdir(before)
 
 
-def run_cli(
-    argv: Sequence[str], cwd: Path, limit: float = DEFAULT_LIMIT
-) -> Outcome:
+def run_cli(argv: Sequence[str], cwd: Path, limit: float = DEFAULT_LIMIT) -> Outcome:
     """Run ``netcheck.cli.main(argv)`` in ``cwd``; never raises for the CLI's sake."""
     out, err = io.StringIO(), io.StringIO()
     code: int | None = None
@@ -97,15 +95,24 @@ def run_cli(
     os.environ["NO_COLOR"] = "1"
     with working_directory(cwd):
         try:
-            with time_limit(limit), contextlib.redirect_stdout(out), \
-                    contextlib.redirect_stderr(err):
+            with (
+                time_limit(limit),
+                contextlib.redirect_stdout(out),
+                contextlib.redirect_stderr(err),
+            ):
                 code = cli.main(list(argv))
         except TimeLimit as hang:
             raised = f"TimeLimit: {hang}"
         except BaseException:  # noqa: BLE001 - every escape is the finding
             raised = traceback.format_exc()
-    return Outcome(tuple(argv), code, out.getvalue(), err.getvalue(), raised,
-                   time.perf_counter() - start)
+    return Outcome(
+        tuple(argv),
+        code,
+        out.getvalue(),
+        err.getvalue(),
+        raised,
+        time.perf_counter() - start,
+    )
 
 
 def _file_lines(root: Path, name: str) -> list[str] | None:
@@ -218,7 +225,8 @@ def assert_well_behaved(
 
 
 def _wants_json(argv: Sequence[str]) -> bool:
-    return any(a == "--format" and b == "json" for a, b in zip(argv, argv[1:]))
+    pairs = zip(argv, argv[1:], strict=False)
+    return any(a == "--format" and b == "json" for a, b in pairs)
 
 
 def copy_sample(name: str, target: Path) -> Path:
@@ -232,6 +240,4 @@ def copy_sample(name: str, target: Path) -> Path:
 
 def sample_names() -> list[str]:
     """The sample designs (folders of ``sample_nets`` holding ``<name>.cnet``)."""
-    return sorted(
-        p.name for p in SAMPLES.iterdir() if (p / f"{p.name}.cnet").is_file()
-    )
+    return sorted(p.name for p in SAMPLES.iterdir() if (p / f"{p.name}.cnet").is_file())

@@ -14,9 +14,9 @@ from pathlib import Path
 
 import pytest
 import yaml
+from robust_helpers import assert_well_behaved, run_cli
 
 from netcheck.design import MAX_FILE_BYTES, MAX_INCLUDE_DEPTH
-from robust_helpers import assert_well_behaved, run_cli
 
 CORPUS = Path(__file__).resolve().parent / "corpus"
 LONG = os.environ.get("NETCHECK_FUZZ_LONG") == "1"
@@ -58,7 +58,9 @@ def many_semantic_errors(folder: Path) -> None:
 
 def yaml_deep_flow(folder: Path) -> None:
     """A part library of 100 000 nested flow sequences."""
-    head = "format: netcheck-parts/1\nnote: Illustrative; not any manufacturer's data.\n"
+    head = (
+        "format: netcheck-parts/1\nnote: Illustrative; not any manufacturer's data.\n"
+    )
     body = "parts: " + "[" * 100_000 + "]" * 100_000 + "\n"
     (folder / "p.parts.yaml").write_text(head + body, encoding="utf-8")
 
@@ -138,7 +140,9 @@ def test_every_case_has_a_folder_or_a_generator() -> None:
         assert case["exit"] in (0, 1, 2), name
         assert case.get("generate") in (None, *GENERATORS), name
     folders = {p.name for p in CORPUS.iterdir() if p.is_dir()}
-    assert folders <= set(expect), f"folders without an expectation: {folders - set(expect)}"
+    assert folders <= set(expect), (
+        f"folders without an expectation: {folders - set(expect)}"
+    )
 
 
 @pytest.mark.parametrize(("name", "case"), _cases())

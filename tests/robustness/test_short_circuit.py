@@ -14,7 +14,6 @@ import math
 from pathlib import Path
 
 import pytest
-
 from robust_helpers import Outcome, assert_well_behaved, run_cli
 
 SUPPLY = "supply  G1  dc=24V  earth=minus  +:L+  -:M\n"
@@ -22,25 +21,45 @@ SUPPLY_RINT = "supply  G1  dc=24V  earth=minus  r_int=50mohm  +:L+  -:M\n"
 LOAD = "load    Y1  type=valve  R=72ohm  L=1H  1:W1  2:M\n"
 
 SHORTS = {
-    "diode-forward-across-rails": (SUPPLY + "diode  V1  A:L+  K:M\n", "supply-short-circuit"),
-    "diode-forward-with-r_int": (SUPPLY_RINT + "diode  V1  A:L+  K:M\n", "supply-short-circuit"),
+    "diode-forward-across-rails": (
+        SUPPLY + "diode  V1  A:L+  K:M\n",
+        "supply-short-circuit",
+    ),
+    "diode-forward-with-r_int": (
+        SUPPLY_RINT + "diode  V1  A:L+  K:M\n",
+        "supply-short-circuit",
+    ),
     "two-diodes-in-series": (
-        SUPPLY + "diode  V1  A:L+  K:W5\ndiode  V2  A:W5  K:M\n", "supply-short-circuit"
+        SUPPLY + "diode  V1  A:L+  K:W5\ndiode  V2  A:W5  K:M\n",
+        "supply-short-circuit",
     ),
     "diode-behind-a-contact": (
-        SUPPLY + "switch  S1  13:L+  14:W1\ndiode  V1  A:W1  K:M\n", "supply-short-circuit"
+        SUPPLY + "switch  S1  13:L+  14:W1\ndiode  V1  A:W1  K:M\n",
+        "supply-short-circuit",
     ),
     "diode-behind-a-fuse": (
-        SUPPLY + "fuse  F1  1:L+  2:L1\ndiode  V1  A:L1  K:M\n", "supply-short-circuit"
+        SUPPLY + "fuse  F1  1:L+  2:L1\ndiode  V1  A:L1  K:M\n",
+        "supply-short-circuit",
     ),
-    "zener-forward": (SUPPLY + "zener  V1  vz=33V  A:L+  K:M\n", "supply-short-circuit"),
-    "zener-in-breakdown": (SUPPLY + "zener  V1  vz=15V  A:M  K:L+\n", "supply-short-circuit"),
+    "zener-forward": (
+        SUPPLY + "zener  V1  vz=33V  A:L+  K:M\n",
+        "supply-short-circuit",
+    ),
+    "zener-in-breakdown": (
+        SUPPLY + "zener  V1  vz=15V  A:M  K:L+\n",
+        "supply-short-circuit",
+    ),
     "tvs-unidirectional-forward": (
-        SUPPLY + "tvs  V1  standoff=33V  vclamp=53V  A:L+  K:M\n", "supply-short-circuit"
+        SUPPLY + "tvs  V1  standoff=33V  vclamp=53V  A:L+  K:M\n",
+        "supply-short-circuit",
     ),
-    "contact-across-the-rails": (SUPPLY + "switch  S1  13:L+  14:M\n", "supply-short-circuit"),
+    "contact-across-the-rails": (
+        SUPPLY + "switch  S1  13:L+  14:M\n",
+        "supply-short-circuit",
+    ),
     "two-contacts-in-series-across-the-rails": (
-        SUPPLY + "switch  S1  13:L+  14:W1\nswitch  S2  13:W1  14:M\n", "supply-short-circuit"
+        SUPPLY + "switch  S1  13:L+  14:W1\nswitch  S2  13:W1  14:M\n",
+        "supply-short-circuit",
     ),
     "relay-contacts-closing-the-supply-on-itself": (
         SUPPLY + "relay  K1  A1:L+  A2:M  13:L+  14:W1  21:W1  22:M\n",
@@ -52,7 +71,10 @@ SHORTS = {
         "switch  S1  13:B+  14:B-\n",
         "supply-short-circuit",
     ),
-    "supply-terminals-on-one-net": ("supply  G1  dc=24V  +:L+  -:L+\n", "supply-short-circuit"),
+    "supply-terminals-on-one-net": (
+        "supply  G1  dc=24V  +:L+  -:L+\n",
+        "supply-short-circuit",
+    ),
     "freewheel-diode-reversed-across-a-load": (
         SUPPLY + "switch  S1  13:L+  14:W1\n" + LOAD + "diode  V1  A:W1  K:M\n",
         "freewheel-diode-reversed",
@@ -98,8 +120,11 @@ def _findings(tmp_path: Path, name: str, design: str) -> tuple[Outcome, list[dic
     return outcome, document["findings"]
 
 
-@pytest.mark.parametrize(("name", "design", "rule"),
-                         [(n, d, r) for n, (d, r) in SHORTS.items()], ids=list(SHORTS))
+@pytest.mark.parametrize(
+    ("name", "design", "rule"),
+    [(n, d, r) for n, (d, r) in SHORTS.items()],
+    ids=list(SHORTS),
+)
 def test_a_short_circuit_is_an_error_finding(
     tmp_path: Path, name: str, design: str, rule: str
 ) -> None:
@@ -110,14 +135,20 @@ def test_a_short_circuit_is_an_error_finding(
     assert all(f["severity"] == "error" for f in hits)
 
 
-@pytest.mark.parametrize(("name", "design"), list(NOT_SHORTS.items()), ids=list(NOT_SHORTS))
-def test_no_short_circuit_where_there_is_none(tmp_path: Path, name: str, design: str) -> None:
+@pytest.mark.parametrize(
+    ("name", "design"), list(NOT_SHORTS.items()), ids=list(NOT_SHORTS)
+)
+def test_no_short_circuit_where_there_is_none(
+    tmp_path: Path, name: str, design: str
+) -> None:
     _, findings = _findings(tmp_path, name, design)
     rules = {f["rule"] for f in findings}
     assert not rules & {"supply-short-circuit", "freewheel-diode-reversed"}, rules
 
 
-def test_the_prospective_current_follows_the_internal_resistance(tmp_path: Path) -> None:
+def test_the_prospective_current_follows_the_internal_resistance(
+    tmp_path: Path,
+) -> None:
     _, findings = _findings(tmp_path, "rint", SUPPLY_RINT + "diode  V1  A:L+  K:M\n")
     (short,) = [f for f in findings if f["rule"] == "supply-short-circuit"]
     current = short["values"]["current"]
@@ -126,32 +157,44 @@ def test_the_prospective_current_follows_the_internal_resistance(tmp_path: Path)
     assert (24 - 2) / 0.05 <= current["value"] <= 24 / 0.05
 
 
-@pytest.mark.parametrize(("name", "design"),
-                         [(n, d) for n, (d, _) in SHORTS.items()], ids=list(SHORTS))
-def test_inspect_survives_a_short_circuit(tmp_path: Path, name: str, design: str) -> None:
+@pytest.mark.parametrize(
+    ("name", "design"), [(n, d) for n, (d, _) in SHORTS.items()], ids=list(SHORTS)
+)
+def test_inspect_survives_a_short_circuit(
+    tmp_path: Path, name: str, design: str
+) -> None:
     outcome = _run(tmp_path, name, design, "inspect", "--format", "json")
     assert outcome.code == 0, outcome.describe()
     assert _finite(json.loads(outcome.out))
 
 
-@pytest.mark.xfail(strict=True, reason=(
-    "two equal DC supplies joined + to - short each other (48 V round the loop), "
-    "but ac-dc-interconnected only compares voltages and supply-short-circuit "
-    "only looks for diodes and contacts: no finding"
-))
+@pytest.mark.xfail(
+    strict=True,
+    reason=(
+        "two equal DC supplies joined + to - short each other (48 V round the loop), "
+        "but ac-dc-interconnected only compares voltages and supply-short-circuit "
+        "only looks for diodes and contacts: no finding"
+    ),
+)
 def test_two_supplies_in_anti_parallel_are_a_short(tmp_path: Path) -> None:
     design = SUPPLY + "supply  G2  dc=24V  +:M  -:L+\n"
     outcome, findings = _findings(tmp_path, "anti", design)
     assert outcome.code == 1
-    assert {f["rule"] for f in findings} & {"supply-short-circuit", "ac-dc-interconnected"}
+    assert {f["rule"] for f in findings} & {
+        "supply-short-circuit",
+        "ac-dc-interconnected",
+    }
 
 
-@pytest.mark.xfail(strict=True, reason=(
-    "a TVS or varistor straight across the rails (not across a load or a "
-    "contact) is never given a working voltage, so one rated below the supply "
-    "conducts all the time unreported (checks/suppressors.py _normal_voltage "
-    "only knows fitted suppressors)"
-))
+@pytest.mark.xfail(
+    strict=True,
+    reason=(
+        "a TVS or varistor straight across the rails (not across a load or a "
+        "contact) is never given a working voltage, so one rated below the supply "
+        "conducts all the time unreported (checks/suppressors.py _normal_voltage "
+        "only knows fitted suppressors)"
+    ),
+)
 @pytest.mark.parametrize(
     "part",
     [
@@ -160,9 +203,12 @@ def test_two_supplies_in_anti_parallel_are_a_short(tmp_path: Path) -> None:
     ],
     ids=["tvs", "varistor"],
 )
-def test_a_low_voltage_clamp_across_the_rails_is_reported(tmp_path: Path, part: str) -> None:
+def test_a_low_voltage_clamp_across_the_rails_is_reported(
+    tmp_path: Path, part: str
+) -> None:
     outcome, findings = _findings(tmp_path, "clamp", SUPPLY + part)
     assert outcome.code == 1
     assert {f["rule"] for f in findings} & {
-        "suppressor-conducts-normally", "supply-short-circuit"
+        "suppressor-conducts-normally",
+        "supply-short-circuit",
     }
