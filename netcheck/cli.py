@@ -267,7 +267,13 @@ def _included_by(file: Path) -> list[Path]:
     except OSError:
         return []  # the pipeline reports the unreadable file properly
     names = (re.sub(r"\\(.)", r"\1", m.group(1)) for m in _INCLUDE.finditer(text))
-    return [(file.parent / name).resolve() for name in names]
+    found = []
+    for name in names:
+        try:
+            found.append((file.parent / name).resolve())
+        except (RuntimeError, OSError):
+            continue  # a symbolic-link loop: the pipeline reports it, located
+    return found
 
 
 def _cnet_files(directory: Path) -> list[Path]:

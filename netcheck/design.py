@@ -74,7 +74,11 @@ class _Reader:
             return path.as_posix()
 
     def resolve(self, base: Path, text: str, span: Span, what: str) -> Path | None:
-        target = (base.parent / text).resolve()
+        try:
+            target = (base.parent / text).resolve()
+        except (RuntimeError, OSError) as problem:  # a symbolic-link loop
+            self.errors.append(IncludeError(f"{what} {text!r}: {problem}", span))
+            return None
         if not self.allow_outside and not target.is_relative_to(self.root):
             self.errors.append(
                 IncludeError(

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import re
 from dataclasses import dataclass
 from functools import lru_cache
 
@@ -239,6 +240,7 @@ class _ToStatements(Transformer):
 
 def decode_source(data: bytes, file: str) -> str:
     """Decode UTF-8 text or raise an InputError at the first bad byte."""
+    register_text(file, data.decode("utf-8", errors="replace"))
     try:
         text = data.decode("utf-8")
     except UnicodeDecodeError as error:
@@ -294,21 +296,35 @@ def _message(error: UnexpectedInput) -> str:
 def _error_span(file: str, error: UnexpectedInput, text: str) -> Span:
     token = getattr(error, "token", None)
     if isinstance(error, UnexpectedEOF) or (token is not None and token.type == "$END"):
-        lines = text.rstrip("\r\n").split("\n")
-        return Span(file, len(lines), len(lines[-1].rstrip("\r")) + 1)
+        lines = text.split("\n")
+        return _after_content(file, lines, len(lines))
     line, column = error.line, error.column
     history = getattr(error, "token_history", None) or []
-    if isinstance(error, UnexpectedToken) and history and history[-1].type == "NAME":
+    last = history[-1] if history else None
+    if isinstance(error, UnexpectedToken) and last is not None and last.type == "NAME":
         previous = history[-1]
         if {"EQUAL", "COLON"} <= set(error.accepts or error.expected):
             # 'R 1:N5': the bare name is the mistake, not what follows it.
             return _span(file, previous)
     if token is not None and token.type == "_NL":
-        # A line break where more was expected: point just past the line's end.
-        line_text = text.split("\n")[line - 1].rstrip("\r")
-        return Span(file, line, len(line_text) + 1)
+        # A line break where more was expected: point just past the content of
+        # the last line that has any (blank and comment lines mean nothing).
+        return _after_content(file, text.split("\n"), line)
     end = column + (len(str(token)) if token is not None else 1)
     return Span(file, line, column, line, end)
+
+
+_CODE = re.compile(r'(?:"(?:[^"\\\r\n]|\\.)*"|[^"#\r\n])*')
+
+
+def _after_content(file: str, lines: list[str], line: int) -> Span:
+    """The position just past the content of ``line``, or of the last such line."""
+    for number in range(min(line, len(lines)), 0, -1):
+        code = _CODE.match(lines[number - 1])
+        content = code.group(0).rstrip() if code else ""
+        if content:
+            return Span(file, number, len(content) + 1)
+    return Span(file, max(line, 1), 1)
 
 
 def _statement_lines(lines: list[str], line: int) -> range:
@@ -326,29 +342,43 @@ def _statement_lines(lines: list[str], line: int) -> range:
     return range(first, last + 1)
 
 
-def _blank_statement(text: str, line: int) -> str:
-    lines = text.split("\n")
-    for number in _statement_lines(lines, line):
-        lines[number - 1] = ""
-    return "\n".join(lines)
+def _shifted(span: Span, lines: int) -> Span:
+    return Span(
+        span.file,
+        span.line + lines,
+        span.column,
+        span.end_line + lines if span.end_line else 0,
+        span.end_column,
+    )
+
+
+def _syntax_errors(text: str, file: str) -> tuple[Tree | None, list[InputError]]:
+    """Parse ``text``; on an error, go on after the failing statement.
+
+    Only the rest of the file is parsed again (its line numbers shifted back),
+    so a file with many errors still costs about one parse.
+    """
+    errors: list[InputError] = []
+    work, offset = text, 0
+    while True:
+        try:
+            tree = _parser().parse(work)
+            return (tree if not errors else None), errors
+        except UnexpectedInput as error:
+            span = _error_span(file, error, work)
+            errors.append(SyntaxInputError(_message(error), _shifted(span, offset)))
+            lines = work.split("\n")
+            rest = _statement_lines(lines, span.line).stop
+            if len(errors) >= MAX_ERRORS or rest > len(lines):
+                return None, errors
+            work = "\n".join(lines[rest - 1 :])
+            offset += rest - 1
 
 
 def parse_text(text: str, file: str) -> SourceFile:
     """Parse one file's text; raise InputErrors with every syntax error found."""
     register_text(file, text)
-    errors: list[InputError] = []
-    work = text
-    while True:
-        try:
-            tree = _parser().parse(work)
-            break
-        except UnexpectedInput as error:
-            span = _error_span(file, error, work)
-            errors.append(SyntaxInputError(_message(error), span))
-            blanked = _blank_statement(work, span.line)
-            if len(errors) >= MAX_ERRORS or blanked == work:
-                raise InputErrors(errors) from None
-            work = blanked
+    tree, errors = _syntax_errors(text, file)
     if errors:
         raise InputErrors(errors)
     transformer = _ToStatements(file)

@@ -7,13 +7,15 @@ from pathlib import Path
 
 __all__ = ["Span", "excerpt", "register_text"]
 
-# Text of every file read, so that an error can show its line without re-reading.
-_TEXTS: dict[str, str] = {}
+# The lines of every file read, so that an error can show its line without
+# re-reading. Lines are split at "\n" only, as the parser counts them (not at
+# form feeds or U+2028 as str.splitlines would).
+_LINES: dict[str, list[str]] = {}
 
 
 def register_text(file: str, text: str) -> None:
-    """Remember a file's text for later excerpts."""
-    _TEXTS[file] = text
+    """Remember a file's text for later excerpts (replacing any earlier one)."""
+    _LINES[file] = [line.rstrip("\r") for line in text.split("\n")]
 
 
 @dataclass(frozen=True, order=True)
@@ -31,13 +33,14 @@ class Span:
 
 
 def _line_of(span: Span) -> str | None:
-    text = _TEXTS.get(span.file)
-    if text is None:
+    lines = _LINES.get(span.file)
+    if lines is None:
         try:
             text = Path(span.file).read_text(encoding="utf-8", errors="replace")
         except OSError:
             return None
-    lines = text.splitlines()
+        register_text(span.file, text)
+        lines = _LINES[span.file]
     if 1 <= span.line <= len(lines):
         return lines[span.line - 1]
     return None

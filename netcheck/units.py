@@ -86,7 +86,10 @@ def parse_quantity(
         raise QuantityError(
             f"expected a {dimension}, got {text!r} ({_describe(quantity)})", span
         )
-    return quantity.to(DIMENSIONS[dimension])
+    converted = quantity.to(DIMENSIONS[dimension])
+    if abs(float(converted.magnitude)) > _LIMIT:  # the prefix counts: 1e15 kV
+        raise QuantityError(f"{text!r} is out of range", span)
+    return converted
 
 
 def _describe(quantity: pint.Quantity) -> str:

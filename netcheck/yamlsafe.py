@@ -108,6 +108,15 @@ def load_located_yaml(text: str, file: str, error: type[InputError]) -> LocatedY
     register_text(file, text)
     try:
         root = yaml.compose(text, Loader=yaml.SafeLoader)
+    except yaml.reader.ReaderError as exc:
+        # Control characters: PyYAML gives a position in the text, not a mark.
+        before = text[: exc.position]
+        line = before.count("\n") + 1
+        column = exc.position - (before.rfind("\n") + 1) + 1
+        raise error(
+            f"invalid YAML: {exc.reason} (character {exc.character!r})",
+            Span(file, line, column),
+        ) from None
     except yaml.MarkedYAMLError as exc:
         mark = exc.problem_mark or exc.context_mark
         span = Span(file, mark.line + 1, mark.column + 1) if mark else Span(file, 1, 1)

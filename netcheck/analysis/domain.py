@@ -194,7 +194,8 @@ def _resistance(state: DomainState, branch: Branch) -> float:
         value = state.facts[branch.key].resistance
     else:
         value = branch.component.value("R")
-    return max(float(value.to("ohm").magnitude), 1e-6)
+    # Zero and negative values are refused on input; what is left is used as given.
+    return float(value.to("ohm").magnitude)
 
 
 def _direct_solve(state: DomainState) -> Solution:
