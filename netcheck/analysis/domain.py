@@ -134,7 +134,8 @@ def _rails(domain: Domain, group: dict[str, str]) -> tuple[dict, dict, dict, lis
         if ga == gb:
             shorted.append(branch)
             continue
-        graph.add_edge(gb, ga, rise=emf[branch.ref], tail=gb)
+        if not graph.has_edge(gb, ga):  # the first supply between two rails sets them
+            graph.add_edge(gb, ga, rise=emf[branch.ref], tail=gb)
     negatives = [group[b.b] for b in edges]
     for component in nx.connected_components(graph):
         # The first supply's negative terminal is 0 V: floating nodes, held by
@@ -145,6 +146,14 @@ def _rails(domain: Domain, group: dict[str, str]) -> tuple[dict, dict, dict, lis
             data = graph.edges[u, v]
             rise = data["rise"] if data["tail"] == u else -data["rise"]
             rails[v] = rails[u] + rise
+    for branch in edges:
+        ga, gb = group[branch.a], group[branch.b]
+        if ga != gb and abs(rails[ga] - rails[gb] - emf[branch.ref]) > 1e-6 * max(
+            1.0, abs(emf[branch.ref])
+        ):
+            # Supplies in a loop whose EMFs do not add up (one fitted the wrong
+            # way round): KVL cannot hold without a large circulating current.
+            shorted.append(branch)
     return emf, r_int, rails, shorted
 
 

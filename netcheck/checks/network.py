@@ -95,6 +95,18 @@ def supply_short_circuit(ctx: CheckContext) -> Iterator[Finding]:
             if supply.ref in reported:
                 continue
             reported.add(supply.ref)
+            if state.group[supply.a] != state.group[supply.b]:
+                if len({round(v, 9) for v in state.emf.values()}) > 1:
+                    continue  # different voltages: ac-dc-interconnected says so
+                others = sorted(b.ref for b in state.supplies if b is not supply)
+                yield ctx.finding(
+                    supply.component,
+                    message="supplies",
+                    fix="supplies",
+                    others=", ".join(others),
+                    key="supplies",
+                )
+                continue
             yield ctx.finding(
                 supply.component,
                 message="contacts",

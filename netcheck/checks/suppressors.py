@@ -177,7 +177,26 @@ def _normal_voltage(ctx: CheckContext, component: Component) -> pint.Quantity | 
                 if ref not in worst or fitted.voltage > worst[ref]:
                     worst[ref] = fitted.voltage
         ctx.memo["worst"] = worst
-    return ctx.memo["worst"].get(component.ref)  # type: ignore[no-any-return]
+    fitted = ctx.memo["worst"].get(component.ref)
+    # Wherever it sits (straight across the rails, say), it sees its closed-state
+    # voltage at least.
+    standing = _standing_voltage(ctx, component)
+    if fitted is None or (standing is not None and standing > fitted):
+        return standing
+    return fitted  # type: ignore[no-any-return]
+
+
+def _standing_voltage(ctx: CheckContext, component: Component) -> pint.Quantity | None:
+    a, b = (
+        (c.net for c in component.connections[:2])
+        if len(component.connections) == 2
+        else (None, None)
+    )
+    domain = ctx.graph.domain_of.get(a) if a else None
+    state = ctx.analysis.states.get(domain.name) if domain is not None else None
+    if state is None or a not in state.group or b not in state.group:
+        return None
+    return Q_(abs(state.net_potential(a) - state.net_potential(b)), "V")
 
 
 @check("suppressor-conducts-normally")
