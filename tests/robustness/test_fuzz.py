@@ -62,62 +62,6 @@ def fuzz(examples: int) -> Callable[[Any], Any]:
     )
 
 
-# Until source.py counts lines as the grammar does (LF only), characters that
-# str.splitlines() also breaks at make the excerpt quote the wrong line; the
-# corpus cases form-feed-in-comment and line-separator-in-comment pin that bug
-# (xfail). Here they are replaced by spaces so that the other properties can
-# be tested. Set to False once the bug is fixed.
-SCRUB_LINE_BREAKS = True
-_OTHER_BREAKS = re.compile(
-    rb"\r(?!\n)|[\x0b\x0c\x1c\x1d\x1e]|\xc2\x85|\xe2\x80[\xa8\xa9]"
-)
-_OTHER_BREAK_CHARS = re.compile("\r(?!\n)|[\x0b\x0c\x1c\x1d\x1e\x85\u2028\u2029]")
-
-
-def scrub(data: bytes) -> bytes:
-    """Replace the line breaks of the known excerpt bug by spaces."""
-    return _OTHER_BREAKS.sub(b" ", data) if SCRUB_LINE_BREAKS else data
-
-
-def scrub_text(text: str) -> str:
-    """The same on text."""
-    return _OTHER_BREAK_CHARS.sub(" ", text) if SCRUB_LINE_BREAKS else text
-
-
-# Until parse._error_span copes with an error at the very first token (lark's
-# token_history is then [None]: AttributeError), garbage gets a leading line
-# break so that the first token is never the culprit;
-# test_an_unexpected_first_character_is_an_input_error pins that bug (xfail).
-# Set to False once it is fixed.
-GUARD_FIRST_TOKEN = True
-
-
-def guard(data: bytes) -> bytes:
-    """Start garbage on line 2 while the first-token bug stands."""
-    return b"\n" + data if GUARD_FIRST_TOKEN else data
-
-
-# Until yamlsafe.load_located_yaml locates PyYAML's reader errors (characters
-# YAML does not allow: NUL, other controls), they come out at 1:1 with a
-# second message line and no caret; the corpus case yaml-nul pins that bug
-# (xfail). Part libraries get such characters replaced by spaces meanwhile.
-GUARD_YAML_READER = True
-_NOT_YAML = re.compile(
-    "[^\x09\x0a\x0d\x20-\x7e\x85\xa0-\ud7ff\ue000-\ufffd\U00010000-\U0010ffff]"
-)
-
-
-def guard_yaml(data: bytes) -> bytes:
-    """Replace the characters of the YAML reader bug by spaces."""
-    if not GUARD_YAML_READER:
-        return data
-    try:
-        text = data.decode("utf-8")
-    except UnicodeDecodeError:
-        return data  # netcheck's own "not UTF-8" error: no reader involved
-    return _NOT_YAML.sub(" ", text).encode("utf-8")
-
-
 # --- the samples, read once -----------------------------------------------------------
 
 
@@ -278,7 +222,7 @@ def mutate_bytes(data: bytes, rng: random.Random, count: int) -> bytes:
             buf[at:at] = run
         else:
             buf[min(at, len(buf) - 1)] ^= 1 << rng.randrange(8)
-    return scrub(bytes(buf))
+    return bytes(buf)
 
 
 def mutate_lines(
@@ -314,7 +258,7 @@ def mutate_lines(
             lines[i] = b"# " + lines[i]
         else:
             lines[i] = lines[i].lstrip(b"# ")
-    return scrub(b"\n".join(lines))
+    return b"\n".join(lines)
 
 
 def mutate_tokens(data: bytes, rng: random.Random, count: int) -> bytes:
@@ -337,7 +281,7 @@ def mutate_tokens(data: bytes, rng: random.Random, count: int) -> bytes:
             pieces[k], pieces[other] = pieces[other], pieces[k]
         else:  # glue a hostile fragment onto the token
             pieces[k] = pieces[k] + rng.choice(HOSTILE_TOKENS)
-    return scrub(b"".join(pieces))
+    return b"".join(pieces)
 
 
 _CONNECTION = re.compile(rb'(?<=[ \t])([^\s:="#]+):([^\s:="#]+)')
@@ -413,7 +357,7 @@ def mutate_wiring(data: bytes, rng: random.Random, count: int) -> bytes:
             lines[i] = (
                 line[: m.start(2)] + rng.choice(_CHOICES[m.group(1)]) + line[m.end(2) :]
             )
-    return scrub(b"\n".join(lines))
+    return b"\n".join(lines)
 
 
 MUTATORS: dict[str, Callable[[bytes, random.Random, int], bytes]] = {
@@ -488,13 +432,13 @@ def _run_text(data: bytes, *options: str) -> None:
 @fuzz(80)
 @given(text=st.text(max_size=400))
 def test_random_text(text: str) -> None:
-    _run_text(guard(scrub_text(text).encode("utf-8", errors="surrogatepass")))
+    _run_text(text.encode("utf-8", errors="surrogatepass"))
 
 
 @fuzz(40)
 @given(data=st.binary(max_size=400))
 def test_random_bytes(data: bytes) -> None:
-    _run_text(guard(scrub(data)))
+    _run_text(data)
 
 
 _word = st.sampled_from(TOKEN_POOL)
@@ -506,17 +450,9 @@ _gap = st.sampled_from(
 @fuzz(80)
 @given(pieces=st.lists(st.tuples(_word, _gap), max_size=60), fmt=formats)
 def test_random_token_soup(pieces: list[tuple[bytes, bytes]], fmt: str) -> None:
-    _run_text(guard(scrub(b"".join(w + g for w, g in pieces))), "--format", fmt)
+    _run_text(b"".join(w + g for w, g in pieces), "--format", fmt)
 
 
-@pytest.mark.xfail(
-    strict=True,
-    reason=(
-        "traceback: when the first token of a file is an unexpected character, "
-        "lark's token_history is [None] and parse._error_span reads "
-        "history[-1].type (AttributeError)"
-    ),
-)
 @pytest.mark.parametrize(
     "text",
     ["{", "=", ":", "\u00e9t\u00e9", " {", '{"format": 1}'],
@@ -688,7 +624,7 @@ def test_random_quantities_in_a_design(
         rf"(?<=\s){re.escape(key)}=\S+", lambda m: f"{key}={value}", lines[line - 1]
     )
     with scratch() as (folder, name):
-        (folder / "top.cnet").write_text(scrub_text("\n".join(lines)), encoding="utf-8")
+        (folder / "top.cnet").write_text("\n".join(lines), encoding="utf-8")
         outcome = run_cli(["check", f"{name}/top.cnet", "--format", fmt], _ROOT)
         assert_well_behaved(outcome, root=_ROOT, limit=LIMIT)
         if outcome.code == 2:
@@ -925,7 +861,7 @@ def test_structured_mutations_of_the_part_libraries(
         count,
     )
     text = yaml.safe_dump(tree, sort_keys=False, allow_unicode=True)
-    _run_sample(sample, {name: scrub(text.encode("utf-8"))}, "text")
+    _run_sample(sample, {name: text.encode("utf-8")}, "text")
 
 
 _YAML_HAZARDS = [
@@ -963,7 +899,7 @@ def test_text_mutations_of_the_part_libraries(
         mutated = b"\n".join(lines)
     else:
         mutated = MUTATORS[family](text, rng, count)
-    _run_sample(sample, {name: guard_yaml(mutated)}, "text")
+    _run_sample(sample, {name: mutated}, "text")
 
 
 @fuzz(120)
@@ -1148,12 +1084,10 @@ def test_a_thousand_corruptions() -> None:
                     functools.partial(local.choice, _RANDOM_KEYS),
                     count,
                 )
-                replaced = {name: scrub(yaml.safe_dump(tree, sort_keys=False).encode())}
+                replaced = {name: yaml.safe_dump(tree, sort_keys=False).encode()}
             else:
                 fam = local.choice(list(MUTATORS))
-                replaced = {
-                    name: guard_yaml(MUTATORS[fam](sample.files[name], local, count))
-                }
+                replaced = {name: MUTATORS[fam](sample.files[name], local, count)}
         else:
             replaced = _mutated_cnet(sample, seed, family, count)
         try:

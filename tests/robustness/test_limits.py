@@ -178,13 +178,6 @@ def test_the_range_of_quantities(text: str, ok: bool) -> None:
             parse_quantity(text, "voltage")
 
 
-@pytest.mark.xfail(
-    strict=True,
-    reason=(
-        "units.parse_quantity checks the range on the number as written, before "
-        "the prefix: '1e15kV' is 1e18 V and '1e15QV' 1e45 V, both accepted"
-    ),
-)
 @pytest.mark.parametrize("text", ["1e15kV", "1e15QV", "999999999999999Yohm"])
 def test_the_range_applies_to_the_value_not_the_digits(text: str) -> None:
     dimension = "resistance" if "ohm" in text else "voltage"
@@ -296,13 +289,6 @@ def test_impossible_part_values_are_located_errors(
     assert outcome.err.startswith("pv/p.parts.yaml:") and f".{key}" in outcome.err
 
 
-@pytest.mark.xfail(
-    strict=True,
-    reason=(
-        "a resistance below 1 µΩ is silently raised to 1 µΩ (analysis/domain.py "
-        "_resistance: max(R, 1e-6)): R=1e-9ohm reports 24 MA instead of 24 GA"
-    ),
-)
 def test_a_tiny_resistance_is_refused_or_computed_honestly(tmp_path: Path) -> None:
     design = BASE.replace("R=72ohm", "R=1e-9ohm")
     outcome = _check(
@@ -438,14 +424,6 @@ def _statements(count: int, value: str = "10ohm") -> str:
     return "".join(f"load  Y{i}  R={value}  1:A{i}  2:B\n" for i in range(count))
 
 
-@pytest.mark.xfail(
-    strict=True,
-    reason=(
-        "parse.parse_text re-parses the whole file after each syntax error (it "
-        "blanks the statement and starts again), so errors at the end of a file "
-        "cost up to MAX_ERRORS full parses"
-    ),
-)
 def test_syntax_errors_at_the_end_cost_about_one_parse() -> None:
     good = _statements(1000)
     start = time.perf_counter()
@@ -459,14 +437,6 @@ def test_syntax_errors_at_the_end_cost_about_one_parse() -> None:
     assert time.perf_counter() - start < allowed
 
 
-@pytest.mark.xfail(
-    strict=True,
-    reason=(
-        "source._line_of splits the whole file (text.splitlines()) for every "
-        "excerpt, so N errors in an N-line file cost O(N^2): 100 000 errors take "
-        "about ten minutes"
-    ),
-)
 def test_an_excerpt_costs_the_same_in_a_long_file() -> None:
     register_text("short.cnet", "x\n" * 10)
     register_text("long.cnet", "x\n" * 200_000)
@@ -481,15 +451,6 @@ def test_an_excerpt_costs_the_same_in_a_long_file() -> None:
     assert long < 20 * short + 0.05
 
 
-@pytest.mark.xfail(
-    strict=True,
-    reason=(
-        "source._TEXTS is keyed by display name and never refreshed: when a file "
-        "fails to decode (NUL, non-UTF-8) before parse_text registers it, the "
-        "excerpt shows the line of an earlier file of the same name (in-process "
-        "use: the test suite, an editor integration)"
-    ),
-)
 def test_excerpt_cache_is_not_stale(tmp_path: Path) -> None:
     _write(tmp_path / "a", {"top.cnet": "# first file, line 1\n# first file, line 2\n"})
     _write(tmp_path / "b", {"top.cnet": b"supply  G1  dc=24V  +:L+  -:M\n# \x00\n"})
@@ -500,14 +461,6 @@ def test_excerpt_cache_is_not_stale(tmp_path: Path) -> None:
     assert second.err.split("\n")[1] == "# \x00", second.describe()
 
 
-@pytest.mark.xfail(
-    strict=True,
-    reason=(
-        "the CONTINUATION terminal of grammar/cnet.lark scans every following "
-        "blank or comment line at each line break and backtracks when no indented "
-        "line follows: quadratic, 20 000 comment lines take about a minute"
-    ),
-)
 @pytest.mark.parametrize(
     "filler",
     ["\n", "# a comment\n", "    # indented\n"],

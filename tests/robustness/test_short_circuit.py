@@ -168,14 +168,6 @@ def test_inspect_survives_a_short_circuit(
     assert _finite(json.loads(outcome.out))
 
 
-@pytest.mark.xfail(
-    strict=True,
-    reason=(
-        "two equal DC supplies joined + to - short each other (48 V round the loop), "
-        "but ac-dc-interconnected only compares voltages and supply-short-circuit "
-        "only looks for diodes and contacts: no finding"
-    ),
-)
 def test_two_supplies_in_anti_parallel_are_a_short(tmp_path: Path) -> None:
     design = SUPPLY + "supply  G2  dc=24V  +:M  -:L+\n"
     outcome, findings = _findings(tmp_path, "anti", design)
@@ -186,15 +178,6 @@ def test_two_supplies_in_anti_parallel_are_a_short(tmp_path: Path) -> None:
     }
 
 
-@pytest.mark.xfail(
-    strict=True,
-    reason=(
-        "a TVS or varistor straight across the rails (not across a load or a "
-        "contact) is never given a working voltage, so one rated below the supply "
-        "conducts all the time unreported (checks/suppressors.py _normal_voltage "
-        "only knows fitted suppressors)"
-    ),
-)
 @pytest.mark.parametrize(
     "part",
     [
