@@ -104,10 +104,26 @@ def _linear_solve(
             _stamp(matrix, rhs, index, fixed, d.a, d.b, 1.0 / R_ON, d.vf)
         elif state == "reverse" and d.vz is not None:
             _stamp(matrix, rhs, index, fixed, d.a, d.b, 1.0 / R_ON, -d.vz)
-    values = np.linalg.solve(matrix, rhs) if size else np.zeros(0)
+    values = _solve(matrix, rhs) if size else np.zeros(0)
     potentials = dict(fixed)
     potentials.update({n: float(values[i]) for n, i in index.items()})
     return potentials
+
+
+def _solve(matrix: np.ndarray, rhs: np.ndarray) -> np.ndarray:
+    """Solve the nodal equations; least squares where they are ill-conditioned.
+
+    Conductances spanning twenty decades (a micro-ohm in series with a
+    tera-ohm) can make the matrix numerically singular; the least-squares
+    solution is then the physically meaningful one.
+    """
+    try:
+        values = np.linalg.solve(matrix, rhs)
+        if np.all(np.isfinite(values)):
+            return values
+    except np.linalg.LinAlgError:
+        pass
+    return np.linalg.lstsq(matrix, rhs, rcond=None)[0]
 
 
 def _next_state(d: Diode, state: str, va: float, vb: float) -> str:

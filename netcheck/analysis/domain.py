@@ -249,6 +249,13 @@ def solve_domain(
     ``opened`` records the elements the state itself keeps open (changeover
     sides), as opposed to those opened for one element's worst case.
     """
+    # Branches that leave the domain (a TVS to a net nothing else reaches: it
+    # does not join domains) take no part in its operating point.
+    domain = Domain(
+        domain.nets,
+        domain.supplies,
+        [b for b in domain.branches if b.a in domain.nets and b.b in domain.nets],
+    )
     group, wire = _groups(domain, open_keys)
     emf, r_int, rails, supply_shorts = _rails(domain, group)
     facts, resistive, unknown = {}, [], []
