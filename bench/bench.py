@@ -228,23 +228,31 @@ def _machine() -> dict[str, Any]:
 
     import netcheck
 
-    cpu = platform.processor() or platform.machine()
-    try:
-        for line in Path("/proc/cpuinfo").read_text().splitlines():
-            if line.startswith("model name"):
-                cpu = line.split(":", 1)[1].strip()
-                break
-    except OSError:
-        pass
     return {
         "python": platform.python_version(),
         "implementation": platform.python_implementation(),
         "platform": platform.platform(),
-        "cpu": cpu,
+        "architecture": platform.machine(),
         "cpus": os.cpu_count(),
         "netcheck": netcheck.__version__,
         "lark": lark.__version__,
+        "commit": _commit(),
     }
+
+
+def _commit() -> str | None:
+    try:
+        done = subprocess.run(
+            ["git", "rev-parse", "--short", "HEAD"],
+            cwd=HERE,
+            capture_output=True,
+            text=True,
+            timeout=10,
+            check=False,
+        )
+    except (OSError, subprocess.TimeoutExpired):
+        return None
+    return done.stdout.strip() or None
 
 
 def _exponents(results: Sequence[dict[str, Any]]) -> None:

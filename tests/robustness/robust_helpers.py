@@ -159,6 +159,7 @@ def diagnostic_problems(err: str, root: Path | None = None) -> list[str]:
     spaces), counting lines as the language does.
     """
     problems = []
+    files: dict[str, list[str] | None] = {}
     lines = err.rstrip("\n").split("\n")
     if not lines or not lines[0]:
         return ["exit 2 with nothing on standard error"]
@@ -175,7 +176,11 @@ def diagnostic_problems(err: str, root: Path | None = None) -> list[str]:
             i += 1
             continue
         number, column = int(head["line"]), int(head["column"])
-        source = _file_lines(root, head["file"]) if root is not None else None
+        source = None
+        if root is not None:
+            if head["file"] not in files:
+                files[head["file"]] = _file_lines(root, head["file"])
+            source = files[head["file"]]
         has_excerpt = i + 2 < len(lines) and CARET.match(lines[i + 2]) is not None
         if not has_excerpt:
             if source is not None and not _has_line(source, number):
