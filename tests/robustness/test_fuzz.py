@@ -15,6 +15,7 @@ The example counts keep this file at about half a minute on two cores;
 
 from __future__ import annotations
 
+import atexit
 import functools
 import itertools
 import math
@@ -168,6 +169,7 @@ INTERESTING_BYTES = sorted(
 
 _counter = itertools.count()
 _ROOT = Path(tempfile.mkdtemp(prefix="netcheck-fuzz-"))
+atexit.register(shutil.rmtree, _ROOT, True)
 
 
 @contextmanager
