@@ -50,7 +50,9 @@ DIMENSIONS: dict[str, str] = {
     "ratio": "",
 }
 _SYMBOL = {"ohm": "Ω", "": ""}
-_NUMBER = re.compile(r"\s*([+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?)\s*(.*?)\s*\Z")
+_NUMBER = re.compile(
+    r"\s*([+-]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)(?:[eE][+-]?[0-9]+)?)\s*(.*?)\s*\Z"
+)
 _UNIT = re.compile(r"\A[A-Za-zΩµμ%°]+\Z")
 # Magnitudes beyond these are typing mistakes, not circuits.
 _LIMIT = 1e15
