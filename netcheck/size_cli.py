@@ -5,6 +5,7 @@ from __future__ import annotations
 import argparse
 import os
 import sys
+from pathlib import Path
 from typing import Any
 
 from rich.console import Console
@@ -53,6 +54,12 @@ def register(subparsers: Any) -> argparse.ArgumentParser:
         )
     parser.add_argument("--format", choices=("text", "json"), default="text")
     parser.add_argument(
+        "--config",
+        type=Path,
+        metavar="FILE",
+        help="take the margins from this netcheck.yaml (its margins: key)",
+    )
+    parser.add_argument(
         "--no-color", action="store_true", help="no colour (also when NO_COLOR is set)"
     )
     parser.set_defaults(func=run_size)
@@ -74,6 +81,18 @@ def _quantities(args: argparse.Namespace) -> dict[str, Quantity]:
     return values
 
 
+def _configured_margins(config: Path | None) -> dict[str, float] | None:
+    """The margins of a netcheck.yaml given with --config (None without one)."""
+    if config is None:
+        return None
+    from netcheck.catalogue import load_catalogue
+    from netcheck.config import load_config
+
+    if not config.is_file():
+        raise InputError(f"--config: {config}: no such file")
+    return dict(load_config(config, load_catalogue()).margins)
+
+
 def run_size(args: argparse.Namespace) -> int:
     """Run ``netcheck size``; return 0, or 2 on an input error."""
     try:
@@ -85,6 +104,7 @@ def run_size(args: argparse.Namespace) -> int:
             release_current=values.get("release_current"),
             clamp=values.get("clamp"),
             vf=values.get("vf", DEFAULT_FORWARD_VOLTAGE),
+            margins=_configured_margins(getattr(args, "config", None)),
         )
     except InputError as error:
         print(error.render(), file=sys.stderr)

@@ -142,3 +142,23 @@ def test_missing_required_option_is_a_usage_error(capsys):
     with pytest.raises(SystemExit) as stop:
         run(["--voltage", "24V"], capsys)
     assert stop.value.code == 2
+
+
+def test_size_takes_margins_from_a_config_file(tmp_path, capsys):
+    # WE-12: PIV >= 2 x 110 V = 220 V with the electronics rule set in
+    # netcheck.yaml, instead of the default 10 x = 1100 V.
+    import json as _json
+
+    from netcheck import cli as _cli
+
+    config = tmp_path / "netcheck.yaml"
+    config.write_text("margins: {diode-reverse-voltage: 2.0}\n", encoding="utf-8")
+    argv = ["size", "--voltage", "110V", "--resistance", "302ohm", "--inductance",
+            "1H", "--format", "json"]
+    assert _cli.main([*argv, "--config", str(config)]) == 0
+    options = _json.loads(capsys.readouterr().out)["options"]
+    diode = next(o for o in options if o["kind"] == "diode")
+    assert diode["components"]["reverse_voltage"]["value"] == 220.0
+    config.write_text("margins: {diode-reverse: 2.0}\n", encoding="utf-8")
+    assert _cli.main([*argv, "--config", str(config)]) == 2
+    assert "unknown margin" in capsys.readouterr().err
