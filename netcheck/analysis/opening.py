@@ -15,6 +15,7 @@ from netcheck.analysis.switched import ElementAnalysis, Suppressor, SwitchedLoad
 from netcheck.analysis.transients import (
     ACROSS_ELEMENT,
     ACROSS_LOAD,
+    FORWARD_VOLTAGE,
     Load,
     Suppression,
     Transient,
@@ -34,7 +35,8 @@ __all__ = [
     "DEFAULT_FORWARD_VOLTAGE",
 ]
 
-DEFAULT_FORWARD_VOLTAGE = 0.9  # V (spec default of netcheck size --vf)
+# V: the spec's default forward drop (netcheck size --vf), kept in one place.
+DEFAULT_FORWARD_VOLTAGE = FORWARD_VOLTAGE
 
 
 @dataclass(frozen=True)

@@ -141,6 +141,21 @@ def _needs(ctx: CheckContext, fitted: Fitted, part: Component):  # type: ignore[
             yield "voltage rating", peak * ctx.option("capacitor-voltage"), rated
 
 
+def _missing(
+    ctx: CheckContext, part: Component, what: str, needed: object, key: str
+) -> Finding:
+    """The rating-data-missing finding for a suppressor rating not given."""
+    return ctx.finding(
+        part,
+        rule="rating-data-missing",
+        message="suppressor",
+        fix="suppressor",
+        what=what,
+        needed=needed,
+        key=key,
+    )
+
+
 @check("suppressor-underrated")
 def suppressor_underrated(ctx: CheckContext) -> Iterator[Finding]:
     """Flag suppressors whose ratings fall short of what the circuit puts on them."""
@@ -148,15 +163,7 @@ def suppressor_underrated(ctx: CheckContext) -> Iterator[Finding]:
         for part in _parts(fitted):
             for what, needed, rated in _needs(ctx, fitted, part):
                 if rated is None:
-                    yield ctx.finding(
-                        part,
-                        rule="rating-data-missing",
-                        message="suppressor",
-                        fix="suppressor",
-                        what=what,
-                        needed=needed,
-                        key=f"{part.ref}:{what}",
-                    )
+                    yield _missing(ctx, part, what, needed, f"{part.ref}:{what}")
                 elif rated < needed:
                     yield ctx.finding(
                         part,
@@ -209,15 +216,7 @@ def suppressor_conducts_normally(ctx: CheckContext) -> Iterator[Finding]:
         key = "vdc_max" if component.kind == "varistor" else "standoff"
         rated = component.value(key)
         if rated is None:
-            yield ctx.finding(
-                component,
-                rule="rating-data-missing",
-                message="suppressor",
-                fix="suppressor",
-                what=key,
-                needed=voltage,
-                key=key,
-            )
+            yield _missing(ctx, component, key, voltage, key)
         elif rated < voltage:
             yield ctx.finding(component, what=key, rated=rated, voltage=voltage)
 

@@ -10,12 +10,9 @@ from typing import Any
 from rich.console import Console
 from rich.table import Table
 
-__all__ = ["render_inspect_json", "render_inspect_text"]
+from netcheck.report import CAUTION
 
-CAUTION = (
-    "Results depend on the rating data given; they do not replace the "
-    "manufacturer's data, a qualified person's review, or local codes."
-)
+__all__ = ["render_inspect_json", "render_inspect_text"]
 
 
 def render_inspect_json(entries: Sequence[dict[str, Any]]) -> str:
