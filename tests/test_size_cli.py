@@ -100,7 +100,7 @@ def test_text_report_compares_options_and_cautions(capsys):
     assert code == 0
     for kind in KINDS:
         assert kind in out
-    assert "reverse voltage ≥ 1.1 kV" in out  # 10 x 110 V default margin
+    assert "reverse voltage ≥ 220 V" in out  # 2 x 110 V default margin (WE-12)
     assert "do not replace the manufacturer's data" in " ".join(out.split())
 
 
@@ -145,20 +145,20 @@ def test_missing_required_option_is_a_usage_error(capsys):
 
 
 def test_size_takes_margins_from_a_config_file(tmp_path, capsys):
-    # WE-12: PIV >= 2 x 110 V = 220 V with the electronics rule set in
-    # netcheck.yaml, instead of the default 10 x = 1100 V.
+    # WE-12: PIV >= 10 x 110 V = 1100 V with the relay makers' rule set in
+    # netcheck.yaml, instead of the default 2 x = 220 V.
     import json as _json
 
     from netcheck import cli as _cli
 
     config = tmp_path / "netcheck.yaml"
-    config.write_text("margins: {diode-reverse-voltage: 2.0}\n", encoding="utf-8")
+    config.write_text("margins: {diode-reverse-voltage: 10}\n", encoding="utf-8")
     argv = ["size", "--voltage", "110V", "--resistance", "302ohm", "--inductance",
             "1H", "--format", "json"]
     assert _cli.main([*argv, "--config", str(config)]) == 0
     options = _json.loads(capsys.readouterr().out)["options"]
     diode = next(o for o in options if o["kind"] == "diode")
-    assert diode["components"]["reverse_voltage"]["value"] == 220.0
+    assert diode["components"]["reverse_voltage"]["value"] == 1100.0
     config.write_text("margins: {diode-reverse: 2.0}\n", encoding="utf-8")
     assert _cli.main([*argv, "--config", str(config)]) == 2
     assert "unknown margin" in capsys.readouterr().err

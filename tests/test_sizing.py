@@ -14,7 +14,7 @@ from netcheck.analysis.snubber import (
     common_practice_rc_product,
 )
 from netcheck.errors import ConfigError, InputError, QuantityError
-from netcheck.sizing import DEFAULT_MARGINS, size_load
+from netcheck.sizing import margin_defaults, size_load
 from netcheck.units import Q_
 
 
@@ -102,19 +102,20 @@ def test_load_summary_of_spec_example():
 
 
 def test_diode_ratings_worked_example():
-    # WE-12: 110 V coil drawing 0.364 A. PIV >= 10 x circuit voltage (conservative
-    # relay-maker rule) = 1100 V, or 2 x (electronics rule) = 220 V; IF >= 0.364 A.
+    # WE-12: 110 V coil drawing 0.364 A. PIV >= 2 x (electronics rule, the default)
+    # = 220 V, or 10 x circuit voltage (conservative relay-maker rule) = 1100 V;
+    # IF >= 0.364 A.
     resistance = Q_(110 / 0.364, "ohm")
     default = option(size_load(Q_(110, "V"), resistance, Q_(1, "H")), "diode")
-    assert component(default, "reverse_voltage", "V") == pytest.approx(1100)
+    assert component(default, "reverse_voltage", "V") == pytest.approx(220)
     assert component(default, "forward_current", "A") == pytest.approx(0.364)
-    two = option(
+    ten = option(
         size_load(
-            Q_(110, "V"), resistance, Q_(1, "H"), margins={"diode-reverse-voltage": 2.0}
+            Q_(110, "V"), resistance, Q_(1, "H"), margins={"diode-reverse-voltage": 10}
         ),
         "diode",
     )
-    assert component(two, "reverse_voltage", "V") == pytest.approx(220)
+    assert component(ten, "reverse_voltage", "V") == pytest.approx(1100)
 
 
 def test_varistor_voltage_worked_example():
@@ -123,7 +124,7 @@ def test_varistor_voltage_worked_example():
     assert component(varistor, "varistor_voltage", "V") == pytest.approx(
         37.65, abs=0.01
     )
-    assert DEFAULT_MARGINS["varistor-voltage"] == pytest.approx(1.5686, rel=1e-4)
+    assert margin_defaults()["varistor-voltage"] == pytest.approx(1.5686, rel=1e-4)
 
 
 def test_diode_option_follows_rl_decay():
