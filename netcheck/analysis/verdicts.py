@@ -5,7 +5,13 @@ from __future__ import annotations
 from netcheck.analysis.ratings import Assessment, assess_breaking
 from netcheck.analysis.switched import ElementAnalysis
 
-__all__ = ["element_rating"]
+__all__ = [
+    "element_rating",
+    "breaks_something",
+    "arrangement_lead",
+    "fits_device",
+    "rating_values",
+]
 
 _MECHANICAL = ("relay", "contactor", "switch")
 
@@ -24,3 +30,50 @@ def element_rating(element: ElementAnalysis) -> Assessment | None:
         time_constant=element.time_constant,
         poles=max(1, element.series_poles),
     )
+
+
+def breaks_something(element: ElementAnalysis) -> bool:
+    """Whether the element carries current that it must break."""
+    return (
+        bool(element.loads)
+        and element.current is not None
+        and element.current.magnitude > 1e-9
+    )
+
+
+def arrangement_lead(element: ElementAnalysis) -> bool:
+    """Series poles of one device are judged once, on the first of them."""
+    return not element.series_elements or element.name == element.series_elements[0]
+
+
+def fits_device(element: ElementAnalysis, poles_needed: int | None) -> bool:
+    """Whether the device has the poles a series-pole fix asks for.
+
+    Only a part that lists its poles says how many there are; without that list
+    the fix is offered as it is computed.
+    """
+    if not poles_needed:
+        return False
+    listed = (
+        element.component.part.data.get("poles") if element.component.part else None
+    )
+    return not listed or poles_needed <= len(listed)
+
+
+def rating_values(element: ElementAnalysis, verdict: Assessment) -> dict:
+    """The values every rating message and fix template may use."""
+    used = verdict.used
+    return {
+        "voltage": element.voltage,
+        "current": element.current,
+        "category": element.load_category,
+        "allowed": verdict.allowed_current
+        if verdict.allowed_current is not None
+        else "none",
+        "rating": used.label if used is not None else "none",
+        "poles": verdict.poles,
+        "poles_needed": verdict.poles_needed or "no number of these",
+        "assumed": " (series rating assumed: V/n per pole, not rated)"
+        if verdict.assumed_series
+        else "",
+    }

@@ -5,13 +5,8 @@ from __future__ import annotations
 from collections.abc import Iterator
 
 from netcheck.analysis.switched import ElementAnalysis
+from netcheck.analysis.verdicts import arrangement_lead, fits_device, rating_values
 from netcheck.checks.context import CheckContext
-from netcheck.checks.ratings import (
-    arrangement_lead,
-    assessment,
-    fits_device,
-    rating_values,
-)
 from netcheck.checks.registry import check
 from netcheck.findings import Finding
 
@@ -63,7 +58,7 @@ def _can_break_alone(ctx: CheckContext, element: ElementAnalysis) -> bool | None
         if limit is None or element.current is None:
             return None
         return bool(element.current <= limit)
-    verdict = assessment(ctx, element)
+    verdict = ctx.verdict(element)
     if verdict is None or verdict.status == "no-data":
         return None
     return verdict.is_ok
@@ -75,7 +70,7 @@ def series_poles_underrated(ctx: CheckContext) -> Iterator[Finding]:
     for element in ctx.switching_elements(supply="dc"):
         if element.series_poles < 2 or not arrangement_lead(element) or element.missing:
             continue
-        verdict = assessment(ctx, element)
+        verdict = ctx.verdict(element)
         if verdict is None or verdict.status not in ("current-over", "voltage-over"):
             continue
         fix = "poles" if fits_device(element, verdict.poles_needed) else "default"

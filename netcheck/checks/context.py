@@ -1,13 +1,25 @@
-"""What a check sees: the design, its analysis, options, and a finding factory."""
+"""What a check sees: the design, its analysis, options, and a finding factory.
+
+Physics that several checks share (the suppressors fitted, the shorts of the
+solved states) lives in ``netcheck.analysis``; the context computes each once
+per design and hands it out through an accessor, so checks neither read
+solver state nor import one another.
+"""
 
 from __future__ import annotations
 
-from collections.abc import Iterator, Mapping
+from collections.abc import Callable, Iterator, Mapping
 from dataclasses import dataclass, field
 from typing import Any
 
+import pint
+
+from netcheck.analysis import fitted as fitting
+from netcheck.analysis import shorts as short_circuits
 from netcheck.analysis.elements import Analysis
+from netcheck.analysis.ratings import Assessment
 from netcheck.analysis.switched import ElementAnalysis
+from netcheck.analysis.verdicts import breaks_something
 from netcheck.catalogue import RuleMeta, all_margins
 from netcheck.findings import Finding, Severity, fill_template
 from netcheck.graph import Branch, Domain, Graph
@@ -59,6 +71,49 @@ class CheckContext:
         """Every net with its connections, sorted by name."""
         for net in sorted(self.graph.connections):
             yield net, self.graph.connections[net]
+
+    def _memo(self, name: str, compute: Callable[[], Any]) -> Any:
+        if name not in self.memo:
+            self.memo[name] = compute()
+        return self.memo[name]
+
+    def fitted_suppressors(self) -> list[fitting.Fitted]:
+        """Every effective suppressor of a DC element's circuit, once each."""
+        return self._memo(  # type: ignore[no-any-return]
+            "fitted", lambda: fitting.fitted_suppressors(self.analysis)
+        )
+
+    def service_voltage(self, component: Component) -> pint.Quantity | None:
+        """The largest voltage on a part in service: energised or open-circuit.
+
+        Wherever it sits (straight across the rails, say), a part sees its
+        closed-state voltage at least.
+        """
+        worst = self._memo(
+            "service", lambda: fitting.service_voltages(self.fitted_suppressors())
+        ).get(component.ref)
+        standing = fitting.standing_voltage(self.analysis, component)
+        if worst is None or (standing is not None and standing > worst):
+            return standing
+        return worst  # type: ignore[no-any-return]
+
+    def shorts(self) -> list[short_circuits.Short]:
+        """Every short across a supply in the solved states, each supply once."""
+        return self._memo(  # type: ignore[no-any-return]
+            "shorts", lambda: short_circuits.supply_shorts(self.analysis)
+        )
+
+    def reversed_diodes(self) -> list[short_circuits.ReversedDiode]:
+        """Polarized suppressors conducting across energised DC loads."""
+        return self._memo(  # type: ignore[no-any-return]
+            "reversed", lambda: short_circuits.reversed_diodes(self.analysis)
+        )
+
+    def verdict(self, element: ElementAnalysis) -> Assessment | None:
+        """The rating verdict of an element that breaks a current (series poles too)."""
+        if not breaks_something(element):
+            return None
+        return self.analysis.verdict(element)
 
     def option(self, name: str) -> float:
         """A margin: from configuration, else the rule YAML's default."""

@@ -6,12 +6,10 @@ from collections.abc import Iterator
 
 import networkx as nx
 
-from netcheck.analysis.domain import chain_drop, prospective_current
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding
 from netcheck.graph import supply_kind
-from netcheck.units import Q_
 
 __all__ = ["ac_dc_interconnected", "single_connection_net", "supply_short_circuit"]
 
@@ -88,49 +86,25 @@ def single_connection_net(ctx: CheckContext) -> Iterator[Finding]:
 @check("supply-short-circuit")
 def supply_short_circuit(ctx: CheckContext) -> Iterator[Finding]:
     """Flag paths across a supply with no load: forward diodes or closed contacts."""
-    states = [*ctx.analysis.states.items(), *ctx.analysis.alternate_states.items()]
-    reported: set[str] = set()
-    for _name, state in sorted(states, key=lambda item: item[0]):
-        for supply in state.supply_shorts:
-            if supply.ref in reported:
-                continue
-            reported.add(supply.ref)
-            if state.group[supply.a] != state.group[supply.b]:
-                if len({round(v, 9) for v in state.emf.values()}) > 1:
-                    continue  # different voltages: ac-dc-interconnected says so
-                others = sorted(b.ref for b in state.supplies if b is not supply)
-                yield ctx.finding(
-                    supply.component,
-                    message="supplies",
-                    fix="supplies",
-                    others=", ".join(others),
-                    key="supplies",
-                )
-                continue
+    for short in ctx.shorts():
+        if short.kind == "supplies":
             yield ctx.finding(
-                supply.component,
-                message="contacts",
-                fix="contacts",
-                path="closed contacts",
-                current=_prospective(state, 0.0),
-                key="contacts",
+                short.component,
+                message="supplies",
+                fix="supplies",
+                others=", ".join(short.others),
+                key="supplies",
             )
-        for chain in state.shorts:
-            across_load = any(b.ref in ctx.analysis.reversed_suppressors for b in chain)
-            if across_load:
-                continue  # freewheel-diode-reversed reports it, with the load
-            refs = ", ".join(b.ref for b in chain)
-            yield ctx.finding(
-                chain[0].component,
-                path=refs,
-                current=_prospective(state, chain_drop(state, chain)),
-                key=refs,
-            )
-
-
-def _prospective(state, drop: float):  # type: ignore[no-untyped-def]
-    """The prospective short-circuit current, or why it is unbounded."""
-    current = prospective_current(state, drop)
-    if current is None:
-        return "limited only by the wiring (no r_int or isc given)"
-    return Q_(current, "A")
+            continue
+        current: object = short.current
+        if current is None:
+            current = "limited only by the wiring (no r_int or isc given)"
+        path = ", ".join(short.path)
+        yield ctx.finding(
+            short.component,
+            message=short.kind if short.kind == "contacts" else "default",
+            fix=short.kind if short.kind == "contacts" else "default",
+            path=path,
+            current=current,
+            key="contacts" if short.kind == "contacts" else path,
+        )

@@ -6,15 +6,17 @@ from collections.abc import Iterator
 
 from netcheck.analysis.ratings import Assessment
 from netcheck.analysis.switched import ElementAnalysis
+from netcheck.analysis.verdicts import (
+    arrangement_lead,
+    breaks_something,
+    fits_device,
+    rating_values,
+)
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding
 
 __all__ = [
-    "assessment",
-    "arrangement_lead",
-    "fits_device",
-    "rating_values",
     "dc_break_ac_only",
     "dc_break_over_rating",
     "dc_voltage_over_rating",
@@ -25,67 +27,13 @@ __all__ = [
 ]
 
 
-def breaks_something(element: ElementAnalysis) -> bool:
-    """Whether the element carries current that it must break."""
-    return (
-        bool(element.loads)
-        and element.current is not None
-        and element.current.magnitude > 1e-9
-    )
-
-
-def arrangement_lead(element: ElementAnalysis) -> bool:
-    """Series poles of one device are judged once, on the first of them."""
-    return not element.series_elements or element.name == element.series_elements[0]
-
-
-def assessment(ctx: CheckContext, element: ElementAnalysis) -> Assessment | None:
-    """The rating verdict for a mechanical element (its series arrangement if any)."""
-    if not breaks_something(element):
-        return None
-    return ctx.analysis.verdict(element)
-
-
 def _judged(ctx: CheckContext) -> Iterator[tuple[ElementAnalysis, Assessment]]:
     for element in ctx.switching_elements(supply="dc"):
         if element.missing or not arrangement_lead(element):
             continue
-        verdict = assessment(ctx, element)
+        verdict = ctx.verdict(element)
         if verdict is not None:
             yield element, verdict
-
-
-def fits_device(element: ElementAnalysis, poles_needed: int | None) -> bool:
-    """Whether the device has the poles a series-pole fix asks for.
-
-    Only a part that lists its poles says how many there are; without that list
-    the fix is offered as it is computed.
-    """
-    if not poles_needed:
-        return False
-    listed = (
-        element.component.part.data.get("poles") if element.component.part else None
-    )
-    return not listed or poles_needed <= len(listed)
-
-
-def rating_values(element: ElementAnalysis, verdict: Assessment) -> dict:
-    """The values every rating message and fix template may use."""
-    used = verdict.used
-    return {
-        "voltage": element.voltage,
-        "current": element.current,
-        "category": element.load_category,
-        "allowed": verdict.allowed_current
-        if verdict.allowed_current is not None
-        else "none",
-        "rating": used.label if used is not None else "none",
-        "poles": verdict.poles,
-        "poles_needed": verdict.poles_needed or "no number of these",
-        "assumed": " (series rating assumed: V/n per pole, not rated)"
-        if verdict.assumed_series
-        else "",
-    }
 
 
 @check("dc-break-ac-only")
@@ -206,7 +154,7 @@ def rating_data_missing(ctx: CheckContext) -> Iterator[Finding]:
                 what="; ".join(element.missing),
             )
             continue
-        verdict = assessment(ctx, element)
+        verdict = ctx.verdict(element)
         if verdict is not None and verdict.status == "no-data":
             what = ", ".join(verdict.missing) or "DC breaking ratings"
             yield ctx.finding(

@@ -4,9 +4,9 @@ from __future__ import annotations
 
 from collections.abc import Iterator
 
-from netcheck.analysis.domain import chain_drop, prospective_current
+from netcheck.analysis.fitted import SEMICONDUCTOR, effective, unsuppressed_loads
 from netcheck.analysis.opening import element_transient, load_transient, zener_release
-from netcheck.analysis.switched import ElementAnalysis, Suppressor, SwitchedLoad
+from netcheck.analysis.switched import ElementAnalysis, Suppressor
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding, Severity
@@ -19,22 +19,7 @@ __all__ = [
     "slow_release_suppression",
 ]
 
-SEMICONDUCTOR = ("ssr", "output")
 POLARIZED = ("diode", "diode-zener", "zener", "diode-resistor")
-
-
-def effective(suppressors: tuple[Suppressor, ...]) -> tuple[Suppressor, ...]:
-    """Suppressors that act at opening: not conducting in normal operation."""
-    return tuple(s for s in suppressors if not s.conducts and s.functional)
-
-
-def unsuppressed_loads(element: ElementAnalysis) -> list[SwitchedLoad]:
-    """Inductive loads with nothing across them, nothing built in, nothing across E."""
-    if effective(
-        tuple(s for s in element.suppression if s.placement == "across-element")
-    ):
-        return []
-    return [ld for ld in element.inductive_loads if not effective(ld.suppressors)]
 
 
 def _clamp_case(ctx: CheckContext, element: ElementAnalysis) -> tuple[str, dict] | None:
@@ -100,44 +85,27 @@ def _polarized(suppressor: Suppressor) -> bool:
 @check("freewheel-diode-reversed")
 def freewheel_diode_reversed(ctx: CheckContext) -> Iterator[Finding]:
     """Flag diodes across DC loads that conduct when the load is energised."""
-    for _key, info in sorted(ctx.analysis.loads.items()):
-        if info.supply != "dc":
+    for rev in ctx.reversed_diodes():
+        if not _polarized(rev.suppressor):
             continue
-        for suppressor in info.suppressors:
-            if not (suppressor.conducts and _polarized(suppressor)):
-                continue
-            chain = suppressor.chain
-            assert chain is not None
-            diode = next(b for b in chain.branches if b.key in chain.polarity)
-            state = ctx.analysis.states[info.domain or ""]
-            shorted = any(diode in group for group in state.shorts)
+        chain = rev.suppressor.chain
+        assert chain is not None
+        current: object = rev.current
+        if current is None:
             current = (
-                _short_current(state, chain)
-                if shorted
-                else Q_(abs(state.currents.get(diode.key, 0.0)), "A")
+                "limited only by the wiring and the supply (no r_int or isc given)"
             )
-            high, low = sorted(
-                (info.branch.a, info.branch.b), key=lambda n: -state.net_potential(n)
-            )
-            yield ctx.finding(
-                diode.component,
-                fix="chain" if len(chain.branches) > 1 else "default",
-                parts=", ".join(chain.refs),
-                load=info.branch.ref,
-                current=current,
-                voltage=info.voltage,
-                positive=high,
-                negative=low,
-                key=info.branch.ref,
-            )
-
-
-def _short_current(state, chain) -> object:  # type: ignore[no-untyped-def]
-    """The prospective current through a shorted chain (KVL), or why unbounded."""
-    current = prospective_current(state, chain_drop(state, chain.branches))
-    if current is None:
-        return "limited only by the wiring and the supply (no r_int or isc given)"
-    return Q_(current, "A")
+        yield ctx.finding(
+            rev.diode,
+            fix="chain" if len(chain.branches) > 1 else "default",
+            parts=", ".join(chain.refs),
+            load=rev.load.branch.ref,
+            current=current,
+            voltage=rev.load.voltage,
+            positive=rev.positive,
+            negative=rev.negative,
+            key=rev.load.branch.ref,
+        )
 
 
 @check("diode-on-ac-load")

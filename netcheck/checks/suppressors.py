@@ -3,15 +3,14 @@
 from __future__ import annotations
 
 from collections.abc import Iterator
-from dataclasses import dataclass, replace
 
 import pint
 
-from netcheck.analysis.opening import OpeningFacts, element_transient, load_transient
-from netcheck.analysis.switched import ElementAnalysis, Suppressor
+from netcheck.analysis.fitted import SEMICONDUCTOR, Fitted, element_peak
+from netcheck.analysis.opening import OpeningFacts
+from netcheck.analysis.switched import ElementAnalysis
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
-from netcheck.checks.suppression import SEMICONDUCTOR, effective
 from netcheck.findings import Finding
 from netcheck.model import Component
 from netcheck.units import Q_
@@ -21,95 +20,7 @@ __all__ = [
     "suppressor_conducts_normally",
     "snubber_without_resistor",
     "peak_voltage_over_rating",
-    "fitted_suppressors",
 ]
-
-
-@dataclass(frozen=True)
-class Fitted:
-    """A suppressor as fitted: where, across what, and its transient at opening."""
-
-    suppressor: Suppressor
-    voltage: pint.Quantity  # across it in normal operation (or across the open element)
-    current: pint.Quantity  # the load current it takes over at opening
-    opening: OpeningFacts | None
-    about: str  # the load or element it protects
-
-
-def fitted_suppressors(ctx: CheckContext) -> list[Fitted]:
-    """Every effective suppressor of a DC element's circuit, once each."""
-    if "fitted" not in ctx.memo:
-        ctx.memo["fitted"] = _fitted(ctx)
-    return ctx.memo["fitted"]  # type: ignore[no-any-return]
-
-
-def _fitted(ctx: CheckContext) -> list[Fitted]:
-    out: dict[tuple[str, ...], Fitted] = {}
-    for element in ctx.switching_elements(supply="dc"):
-        if element.voltage is None:
-            continue
-        for load in element.inductive_loads:
-            for s in effective(load.suppressors):
-                if s.placement != "built-in" and s.refs not in out:
-                    out[s.refs] = Fitted(
-                        s,
-                        load.voltage,
-                        load.current,
-                        load_transient(load, element.voltage, s),
-                        load.facts.ref,
-                    )
-        for s in element.suppression:
-            if (
-                s.placement == "across-element"
-                and s in effective(element.suppression)
-                and s.refs not in out
-            ):
-                current = sum((ld.current for ld in element.loads), Q_(0.0, "A"))
-                opening = _with_load_clamp(element, element_transient(element, s))
-                out[s.refs] = Fitted(s, element.voltage, current, opening, element.name)
-    return [out[k] for k in sorted(out)]
-
-
-def _load_clamp(element: ElementAnalysis) -> OpeningFacts | None:
-    """The opening as the loads' own clamps shape it, if every inductive load has one.
-
-    A freewheel diode (or zener, TVS, varistor) across the load takes the load's
-    current at opening; the element then sees the supply plus that clamp (KVL)
-    and a snubber across the element no longer rings with the load.
-    """
-    loads = element.inductive_loads
-    clamps = [
-        s
-        for ld in loads
-        for s in effective(ld.suppressors)
-        if s.placement != "built-in" and s.kind not in ("rc", "capacitor")
-    ]
-    if not loads or len(clamps) < len(loads):
-        return None
-    peaks = [element_transient(element, s) for s in clamps]
-    known = [p for p in peaks if p is not None]
-    return max(known, key=lambda p: p.peak_voltage) if known else None
-
-
-def _with_load_clamp(
-    element: ElementAnalysis, own: OpeningFacts | None
-) -> OpeningFacts | None:
-    """An across-element snubber's stress when the loads clamp themselves first."""
-    clamped = _load_clamp(element)
-    if clamped is None or (
-        own is not None and own.peak_voltage <= clamped.peak_voltage
-    ):
-        return own
-    return replace(
-        clamped,
-        suppressor_energy=Q_(0.0, "J"),
-        suppressor_peak_voltage=clamped.peak_voltage,
-    )
-
-
-def _parts(fitted: Fitted) -> list[Component]:
-    chain = fitted.suppressor.chain
-    return [b.component for b in chain.branches] if chain is not None else []
 
 
 def _needs(ctx: CheckContext, fitted: Fitted, part: Component):  # type: ignore[no-untyped-def]
@@ -159,8 +70,8 @@ def _missing(
 @check("suppressor-underrated")
 def suppressor_underrated(ctx: CheckContext) -> Iterator[Finding]:
     """Flag suppressors whose ratings fall short of what the circuit puts on them."""
-    for fitted in fitted_suppressors(ctx):
-        for part in _parts(fitted):
+    for fitted in ctx.fitted_suppressors():
+        for part in fitted.parts():
             for what, needed, rated in _needs(ctx, fitted, part):
                 if rated is None:
                     yield _missing(ctx, part, what, needed, f"{part.ref}:{what}")
@@ -175,42 +86,11 @@ def suppressor_underrated(ctx: CheckContext) -> Iterator[Finding]:
                     )
 
 
-def _normal_voltage(ctx: CheckContext, component: Component) -> pint.Quantity | None:
-    """The largest voltage on a part in service: energised or across an open element."""
-    if "worst" not in ctx.memo:
-        worst: dict[str, pint.Quantity] = {}
-        for fitted in fitted_suppressors(ctx):
-            for ref in fitted.suppressor.refs:
-                if ref not in worst or fitted.voltage > worst[ref]:
-                    worst[ref] = fitted.voltage
-        ctx.memo["worst"] = worst
-    fitted = ctx.memo["worst"].get(component.ref)
-    # Wherever it sits (straight across the rails, say), it sees its closed-state
-    # voltage at least.
-    standing = _standing_voltage(ctx, component)
-    if fitted is None or (standing is not None and standing > fitted):
-        return standing
-    return fitted  # type: ignore[no-any-return]
-
-
-def _standing_voltage(ctx: CheckContext, component: Component) -> pint.Quantity | None:
-    a, b = (
-        (c.net for c in component.connections[:2])
-        if len(component.connections) == 2
-        else (None, None)
-    )
-    domain = ctx.graph.domain_of.get(a) if a else None
-    state = ctx.analysis.states.get(domain.name) if domain is not None else None
-    if state is None or a not in state.group or b not in state.group:
-        return None
-    return Q_(abs(state.net_potential(a) - state.net_potential(b)), "V")
-
-
 @check("suppressor-conducts-normally")
 def suppressor_conducts_normally(ctx: CheckContext) -> Iterator[Finding]:
     """Flag varistors and TVS whose continuous or stand-off voltage is too low."""
     for component in ctx.components("varistor", "tvs"):
-        voltage = _normal_voltage(ctx, component)
+        voltage = ctx.service_voltage(component)
         if voltage is None:
             continue
         key = "vdc_max" if component.kind == "varistor" else "standoff"
@@ -255,23 +135,6 @@ def _resistor_range(element: ElementAnalysis) -> tuple[pint.Quantity, pint.Quant
     return low.to("ohm"), max(high, low).to("ohm")
 
 
-def _element_peak(element: ElementAnalysis) -> OpeningFacts | None:
-    across = [
-        s
-        for s in element.suppression
-        if s.placement == "across-element" and s.functional and not s.conducts
-    ]
-    if across:
-        return _with_load_clamp(element, element_transient(element, across[0]))
-    loads = element.inductive_loads
-    if len(loads) == 1 and effective(loads[0].suppressors):
-        s = effective(loads[0].suppressors)[0]
-        if s.placement != "built-in":
-            return element_transient(element, s)
-        return None
-    return element_transient(element, None)
-
-
 @check("peak-voltage-over-rating")
 def peak_voltage_over_rating(ctx: CheckContext) -> Iterator[Finding]:
     """Flag opening peaks above an output's or a snubber capacitor's rating."""
@@ -279,7 +142,7 @@ def peak_voltage_over_rating(ctx: CheckContext) -> Iterator[Finding]:
         rated = element.component.value("voltage_max")
         if element.component.kind not in SEMICONDUCTOR or rated is None:
             continue
-        opening = _element_peak(element)
+        opening = element_peak(element)
         peak = opening.peak_voltage if opening is not None else element.voltage
         if peak is not None and peak > rated:
             yield ctx.finding(
@@ -290,8 +153,8 @@ def peak_voltage_over_rating(ctx: CheckContext) -> Iterator[Finding]:
                 rated=rated,
                 assumptions=_assumed(opening),
             )
-    for fitted in fitted_suppressors(ctx):
-        for part in _parts(fitted):
+    for fitted in ctx.fitted_suppressors():
+        for part in fitted.parts():
             rated = part.value("voltage_rating")
             if (
                 part.kind not in ("capacitor", "rc")
