@@ -9,8 +9,9 @@ from typing import Any
 
 import yaml
 
-from netcheck.findings import Severity, placeholders
+from netcheck.findings import Finding, Severity, fill_template, placeholders
 from netcheck.resources import data_path
+from netcheck.source import Span
 
 __all__ = ["RuleMeta", "Margin", "load_catalogue", "verify_catalogue"]
 
@@ -39,6 +40,9 @@ class RuleMeta:
     fixes: Mapping[str, str]
     margins: Mapping[str, Margin] = field(default_factory=dict)
     aliases: tuple[str, ...] = ()
+    # How a template words a value that is None, by placeholder: alternatives,
+    # the first whose own placeholders are all known is used.
+    absent: Mapping[str, tuple[str, ...]] = field(default_factory=dict)
 
     def message(self, variant: str = "default") -> str:
         """The message template of ``variant``."""
@@ -51,9 +55,45 @@ class RuleMeta:
     def placeholders(self) -> set[str]:
         """All placeholders used by any template of the rule."""
         names: set[str] = set()
-        for template in [*self.messages.values(), *self.fixes.values()]:
+        texts = [t for alts in self.absent.values() for t in alts]
+        for template in [*self.messages.values(), *self.fixes.values(), *texts]:
             names |= placeholders(template)
         return names
+
+    def finding(
+        self,
+        span: Span,
+        element: str,
+        values: Mapping[str, Any],
+        *,
+        message: str = "default",
+        fix: str = "default",
+        severity: Severity | None = None,
+        key: str = "",
+        ref: str = "",
+    ) -> Finding:
+        """A finding of this rule, its templates filled from ``values``.
+
+        The one way findings are built, for checks and waivers alike; the
+        templates may also use ``element`` and ``ref`` (the component's
+        reference, ``element`` by default).
+        """
+        fill = {"element": element, "ref": ref or element, **values}
+        fix_template = self.fix(fix)
+        return Finding(
+            rule=self.name,
+            severity=severity or self.severity,
+            message=fill_template(self.message(message), fill, self.absent),
+            span=span,
+            element=element,
+            values=dict(values),
+            fix=fill_template(fix_template, fill, self.absent)
+            if fix_template
+            else None,
+            references=self.references,
+            key=key,
+            variant=message,
+        )
 
 
 def _variants(value: Any) -> dict[str, str]:
@@ -82,6 +122,10 @@ def _rule(entry: Mapping[str, Any], family: str) -> RuleMeta:
         fixes=_variants(entry.get("fix")),
         margins=margins,
         aliases=tuple(entry.get("aliases") or ()),
+        absent={
+            str(k): (v.strip(),) if isinstance(v, str) else tuple(x.strip() for x in v)
+            for k, v in (entry.get("absent") or {}).items()
+        },
     )
 
 

@@ -45,8 +45,18 @@ def _text(value: Any) -> str:
     return str(value)
 
 
-def fill_template(template: str, values: Mapping[str, Any]) -> str:
-    """Fill ``{name}`` placeholders with formatted values (KeyError if missing)."""
+def fill_template(
+    template: str,
+    values: Mapping[str, Any],
+    absent: Mapping[str, tuple[str, ...]] | None = None,
+) -> str:
+    """Fill ``{name}`` placeholders with formatted values (KeyError if missing).
+
+    A value of None is written as the first of ``absent[name]`` whose own
+    placeholders are all known (the rule's YAML words what is missing), else
+    as ``none``. Findings keep None; the wording stays in the templates.
+    """
+    absent = absent or {}
     out = []
     for literal, name, _spec, _conv in string.Formatter().parse(template):
         out.append(literal)
@@ -54,8 +64,18 @@ def fill_template(template: str, values: Mapping[str, Any]) -> str:
             continue
         if name not in values:
             raise KeyError(name)
-        out.append(_text(values[name]))
+        value = values[name]
+        out.append(_text(value) if value is not None else _absent(name, values, absent))
     return "".join(out)
+
+
+def _absent(
+    name: str, values: Mapping[str, Any], absent: Mapping[str, tuple[str, ...]]
+) -> str:
+    for text in absent.get(name, ()):
+        if all(values.get(p) is not None for p in placeholders(text)):
+            return fill_template(text, values, absent)
+    return "none"
 
 
 def placeholders(template: str) -> set[str]:
@@ -88,11 +108,15 @@ def fingerprint(rule: str, file: str, element: str, key: str = "") -> str:
 
 @dataclass(frozen=True)
 class Finding:
-    """One reported hazard, anchored on a component statement."""
+    """One reported hazard, anchored on a component statement.
+
+    ``values`` are raw: quantities, numbers, names, or None where a value is
+    unknown or does not exist; the rule's templates word them.
+    """
 
     rule: str
     severity: Severity
-    message: str
+    message: str  # the rendered text of the message variant ``variant``
     span: Span
     element: str
     values: Mapping[str, Any] = field(default_factory=dict)
@@ -101,6 +125,7 @@ class Finding:
     key: str = ""
     fingerprint: str = ""
     waived: str | None = None
+    variant: str = "default"  # the rule's message variant the text came from
 
     def sort_key(self) -> tuple[Any, ...]:
         """Deterministic order: file, line, column, rule, element."""

@@ -12,7 +12,7 @@ from netcheck.catalogue import RuleMeta, load_catalogue, verify_catalogue
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import all_checks
 from netcheck.design import load_design
-from netcheck.findings import Finding, fill_template, fingerprint
+from netcheck.findings import Finding, fingerprint
 from netcheck.graph import build_graph
 from netcheck.model import Netlist, Waiver
 
@@ -63,22 +63,12 @@ def _apply_waivers(
     for index, waiver in enumerate(netlist.waivers):
         if index in used:
             continue
-        known = waiver.rule in catalogue
-        values = {
-            "rule": waiver.rule,
-            "target": waiver.target,
-            "why": "no such finding" if known else "no rule of that name",
-        }
         out.append(
-            Finding(
-                rule=meta.name,
-                severity=meta.severity,
-                message=fill_template(meta.message(), values),
-                span=waiver.span,
-                element=waiver.target,
-                values=values,
-                fix=fill_template(meta.fix() or "", values) or None,
-                references=meta.references,
+            meta.finding(
+                waiver.span,
+                waiver.target,
+                {"rule": waiver.rule, "target": waiver.target},
+                message="default" if waiver.rule in catalogue else "unknown-rule",
                 key=waiver.rule,
             )
         )

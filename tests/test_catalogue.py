@@ -194,3 +194,48 @@ def test_findings_have_the_rule_severity_or_a_documented_change(name: str) -> No
     changed = {f.severity for f in findings_of(name)} - {meta.severity}
     allowed = {Severity.ERROR} if name == "inductive-load-unsuppressed" else set()
     assert changed <= allowed, (name, sorted(s.label for s in changed))
+
+
+@pytest.mark.parametrize("name", sorted(rules()))
+def test_finding_keeps_the_variant_its_message_came_from(name: str) -> None:
+    meta = rules()[name]
+    for finding in findings_of(name):
+        assert finding.variant in message_variants(meta, finding), finding.message
+
+
+# Words that only prose standing in for a missing value would use.
+PROSE = re.compile(r"\b(none|not given|unknown|no number|limited only|at least)\b")
+
+
+def test_finding_values_are_raw_never_prose() -> None:
+    """Missing values are None; the rule's ``absent`` texts word them."""
+    prose = [
+        (f.rule, name, value)
+        for f in case_findings()
+        for name, value in f.values.items()
+        if isinstance(value, str) and PROSE.search(value)
+    ]
+    assert prose == []
+
+
+def test_absent_values_take_the_first_alternative_whose_values_are_known() -> None:
+    from netcheck.findings import fill_template
+
+    absent = {"energy": ("at least {known}", "an unknown energy"), "x": ()}
+    template = "{energy} stored, {x}"
+    partial = fill_template(template, {"energy": None, "known": 2, "x": None}, absent)
+    assert partial == "at least 2 stored, none"
+    unknown = {"energy": None, "known": None, "x": 1}
+    assert fill_template(template, unknown, absent) == "an unknown energy stored, 1"
+
+
+def test_absent_texts_are_used_by_the_cases() -> None:
+    """The cases reach the absent wording, so the YAML texts are exercised."""
+    catalogue = rules()
+    used = {
+        (f.rule, name)
+        for f in case_findings()
+        for name, value in f.values.items()
+        if value is None and name in catalogue[f.rule].absent
+    }
+    assert ("inductive-load-unsuppressed", "clamp_energy") in used

@@ -67,12 +67,10 @@ def rating_values(element: ElementAnalysis, verdict: Assessment) -> dict:
         "voltage": element.voltage,
         "current": element.current,
         "category": element.load_category,
-        "allowed": verdict.allowed_current
-        if verdict.allowed_current is not None
-        else "none",
-        "rating": used.label if used is not None else "none",
+        "allowed": verdict.allowed_current,
+        "rating": used.label if used is not None else None,
         "poles": verdict.poles,
-        "poles_needed": verdict.poles_needed or "no number of these",
+        "poles_needed": verdict.poles_needed or None,
         "assumed": " (series rating assumed: V/n per pole, not rated)"
         if verdict.assumed_series
         else "",

@@ -75,7 +75,7 @@ def series_poles_underrated(ctx: CheckContext) -> Iterator[Finding]:
             continue
         fix = "poles" if fits_device(element, verdict.poles_needed) else "default"
         over_voltage = verdict.status == "voltage-over"
-        top = verdict.max_dc_voltage if verdict.max_dc_voltage is not None else "none"
+        top = verdict.max_dc_voltage
         yield ctx.finding(
             element,
             message="voltage" if over_voltage else "default",

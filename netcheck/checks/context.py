@@ -21,7 +21,7 @@ from netcheck.analysis.ratings import Assessment
 from netcheck.analysis.switched import ElementAnalysis
 from netcheck.analysis.verdicts import breaks_something
 from netcheck.catalogue import RuleMeta, all_margins
-from netcheck.findings import Finding, Severity, fill_template
+from netcheck.findings import Finding, Severity
 from netcheck.graph import Branch, Domain, Graph
 from netcheck.model import Component, Netlist
 
@@ -145,16 +145,13 @@ class CheckContext:
             component, element = anchor
         else:
             component, element = anchor, anchor.ref
-        values = {"element": element, "ref": component.ref, **values}
-        fix_template = meta.fix(fix)
-        return Finding(
-            rule=meta.name,
-            severity=severity or meta.severity,
-            message=fill_template(meta.message(message), values),
-            span=component.span,
-            element=element,
-            values={k: v for k, v in values.items() if k not in ("element", "ref")},
-            fix=fill_template(fix_template, values) if fix_template else None,
-            references=meta.references,
+        return meta.finding(
+            component.span,
+            element,
+            values,
+            message=message,
+            fix=fix,
+            severity=severity,
             key=key,
+            ref=component.ref,
         )

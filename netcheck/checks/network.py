@@ -96,15 +96,12 @@ def supply_short_circuit(ctx: CheckContext) -> Iterator[Finding]:
                 key="supplies",
             )
             continue
-        current: object = short.current
-        if current is None:
-            current = "limited only by the wiring (no r_int or isc given)"
         path = ", ".join(short.path)
         yield ctx.finding(
             short.component,
             message=short.kind if short.kind == "contacts" else "default",
             fix=short.kind if short.kind == "contacts" else "default",
             path=path,
-            current=current,
+            current=short.current,
             key="contacts" if short.kind == "contacts" else path,
         )

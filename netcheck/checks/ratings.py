@@ -90,9 +90,7 @@ def dc_voltage_over_rating(ctx: CheckContext) -> Iterator[Finding]:
     for element, verdict in _judged(ctx):
         if verdict.status == "voltage-over" and verdict.poles == 1:
             fix = "poles" if fits_device(element, verdict.poles_needed) else "default"
-            top = (
-                verdict.max_dc_voltage if verdict.max_dc_voltage is not None else "none"
-            )
+            top = verdict.max_dc_voltage
             yield ctx.finding(
                 element, fix=fix, top=top, **rating_values(element, verdict)
             )
@@ -114,7 +112,7 @@ def category_mismatch(ctx: CheckContext) -> Iterator[Finding]:
                 element,
                 category=element.load_category,
                 rated=rated,
-                rating=verdict.used.label if verdict.used else "none",
+                rating=verdict.used.label if verdict.used else None,
             )
 
 
@@ -125,13 +123,13 @@ def time_constant_over_rating(ctx: CheckContext) -> Iterator[Finding]:
         used = verdict.used
         if not verdict.time_constant_over or used is None:
             continue
-        limit = used.tau_limit if used.tau_limit is not None else "none"
+        limit = used.tau_limit
         yield ctx.finding(
             element,
             tau=element.time_constant,
             t95=element.t95,
             tau_limit=limit,
-            t95_limit=used.t95_limit if used.t95_limit is not None else "none",
+            t95_limit=used.t95_limit,
             rating=used.label,
         )
 

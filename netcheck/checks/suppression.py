@@ -10,7 +10,7 @@ from netcheck.analysis.switched import ElementAnalysis, Suppressor
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding, Severity
-from netcheck.units import Q_, format_quantity
+from netcheck.units import Q_
 
 __all__ = [
     "inductive_load_unsuppressed",
@@ -34,7 +34,7 @@ def _clamp_case(ctx: CheckContext, element: ElementAnalysis) -> tuple[str, dict]
     if rating is not None and needed is not None and rating >= needed:
         return "ok", {}
     return "output", {
-        "clamp_energy": rating if rating is not None else "not given",
+        "clamp_energy": rating,
         "clamp_needed": needed,
     }
 
@@ -49,18 +49,15 @@ def inductive_load_unsuppressed(ctx: CheckContext) -> Iterator[Finding]:
         case = _clamp_case(ctx, element)
         if case is not None and case[0] == "ok":
             continue
+        # An inductive type with no L or tau given leaves the energy unknown.
         known = [ld.energy for ld in loads if ld.energy is not None]
-        energy: object = sum(known, Q_(0.0, "J"))
-        if len(known) < len(loads):  # an inductive type with no L or tau given
-            energy = (
-                "an unknown energy (no L or tau given)"
-                if not known
-                else (f"at least {format_quantity(energy)}")
-            )
+        known_sum = sum(known, Q_(0.0, "J")) if known else None
+        energy = known_sum if len(known) == len(loads) else None
         current = max(ld.current for ld in loads)
         values = {
             "loads": ", ".join(ld.facts.ref for ld in loads),
             "energy": energy,
+            "energy_known": known_sum,
             "current": current,
             "voltage": element.voltage,
             "diode_voltage": element.voltage * ctx.option("diode-reverse-voltage"),
@@ -90,17 +87,12 @@ def freewheel_diode_reversed(ctx: CheckContext) -> Iterator[Finding]:
             continue
         chain = rev.suppressor.chain
         assert chain is not None
-        current: object = rev.current
-        if current is None:
-            current = (
-                "limited only by the wiring and the supply (no r_int or isc given)"
-            )
         yield ctx.finding(
             rev.diode,
             fix="chain" if len(chain.branches) > 1 else "default",
             parts=", ".join(chain.refs),
             load=rev.load.branch.ref,
-            current=current,
+            current=rev.current,
             voltage=rev.load.voltage,
             positive=rev.positive,
             negative=rev.negative,
