@@ -16,6 +16,7 @@ from dataclasses import dataclass, field
 import networkx as nx
 
 from netcheck.analysis.circuit import Diode, Resistor, Solution, solve_dc
+from netcheck.analysis.constants import SILICON_DIODE_CONDUCTION_VF
 from netcheck.analysis.loads import LoadFacts, load_facts
 from netcheck.graph import COIL, CONDUCTOR, LOAD, SUPPLY, SWITCH, Branch, Domain
 
@@ -23,14 +24,9 @@ __all__ = [
     "DomainState",
     "solve_domain",
     "UnionFind",
-    "DEFAULT_VF",
     "CONDUCTING",
     "shunts",
 ]
-
-DEFAULT_VF = (
-    0.7  # V; a silicon diode's forward drop where the part gives none (common practice)
-)
 
 
 class UnionFind:
@@ -100,7 +96,11 @@ class DomainState:
 
 def _vf(branch: Branch) -> float:
     value = branch.component.value("vf")
-    return float(value.to("V").magnitude) if value is not None else DEFAULT_VF
+    return (
+        float(value.to("V").magnitude)
+        if value is not None
+        else SILICON_DIODE_CONDUCTION_VF
+    )
 
 
 def _groups(

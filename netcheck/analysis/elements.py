@@ -3,10 +3,9 @@
 from __future__ import annotations
 
 from collections.abc import Mapping
-from dataclasses import dataclass, field, replace
+from dataclasses import dataclass
 
-import pint
-
+from netcheck.analysis.constants import T95_PER_TAU
 from netcheck.analysis.domain import (
     CONDUCTING,
     DomainState,
@@ -16,13 +15,13 @@ from netcheck.analysis.domain import (
     solve_domain,
 )
 from netcheck.analysis.loads import (
-    LoadFacts,
     category_for,
     is_inductive,
     load_facts,
     most_demanding,
 )
-from netcheck.analysis.ratings import Assessment
+from netcheck.analysis.result import Analysis, LoadInfo
+from netcheck.analysis.series import changeovers, mark_series
 from netcheck.analysis.suppression import Chain, find_chains
 from netcheck.analysis.switched import (
     ElementAnalysis,
@@ -32,102 +31,11 @@ from netcheck.analysis.switched import (
     net_injections,
     open_element,
 )
-from netcheck.analysis.verdicts import element_rating
 from netcheck.analysis.zero_ohm import ZeroOhm
 from netcheck.graph import COIL, CONDUCTOR, LOAD, SUPPLY, SWITCH, Branch, Domain, Graph
 from netcheck.units import Q_
 
-__all__ = ["Analysis", "analyse"]
-
-# T0.95 = 3·L/R as the spec and IEC 60947-5-1 state it (exactly: ln 20 = 2.996).
-T95_FACTOR = 3.0
-
-
-@dataclass(frozen=True)
-class LoadInfo:
-    """A load or coil with its domain, operating point and suppressors."""
-
-    branch: Branch
-    facts: LoadFacts
-    domain: str | None
-    supply: str | None  # dc, ac or None
-    current: pint.Quantity | None
-    voltage: pint.Quantity | None
-    suppressors: tuple[Suppressor, ...]
-
-
-@dataclass
-class Analysis:
-    """The analysis of a design: per element, per domain, and the suppressors."""
-
-    graph: Graph
-    elements: dict[str, ElementAnalysis]
-    states: dict[str, DomainState] = field(default_factory=dict)  # domain name -> state
-    chains: dict[str, dict[frozenset[str], list[Chain]]] = field(default_factory=dict)
-    wires: dict[str, dict[str, str]] = field(default_factory=dict)
-    loads: dict[str, LoadInfo] = field(default_factory=dict)  # by branch key
-    # The state with changeover NC sides closed (NO sides open), where one exists.
-    alternate_states: dict[str, DomainState] = field(default_factory=dict)
-
-    verdicts: dict[str, Assessment | None] = field(default_factory=dict)
-    _shared: dict[tuple, Assessment | None] = field(default_factory=dict, repr=False)
-
-    def verdict(self, element: ElementAnalysis) -> Assessment | None:
-        """The element's rating verdict, computed once (rules and inspect share it).
-
-        Elements of the same part breaking the same circuit get the same verdict,
-        which keeps large designs of repeated rungs fast.
-        """
-        if element.name not in self.verdicts:
-            key = _verdict_key(element)
-            if key not in self._shared:
-                self._shared[key] = element_rating(element)
-            self.verdicts[element.name] = self._shared[key]
-        return self.verdicts[element.name]
-
-    @property
-    def reversed_suppressors(self) -> set[str]:
-        """References of suppressors across a load that conduct in normal operation."""
-        return {
-            ref
-            for info in self.loads.values()
-            for s in info.suppressors
-            if s.conducts
-            for ref in s.refs
-        }
-
-    def sorted_elements(self) -> list[ElementAnalysis]:
-        """Elements sorted by name."""
-        return [self.elements[k] for k in sorted(self.elements)]
-
-
-def _magnitude(value: pint.Quantity | None, unit: str) -> float | None:
-    return None if value is None else float(f"{value.to(unit).magnitude:.9g}")
-
-
-def _verdict_key(element: ElementAnalysis) -> tuple:
-    """What a rating verdict depends on: the part's contact data and the break."""
-    component = element.component
-    inline = tuple(
-        sorted(
-            (a.key, a.text)
-            for a in component.attributes
-            if a.key.startswith("contacts.")
-        )
-    )
-    part = component.part.name if component.part is not None else None
-    return (
-        component.kind if part else component.ref,
-        part,
-        inline,
-        element.supply,
-        bool(element.loads),
-        element.load_category,
-        element.series_poles,
-        _magnitude(element.voltage, "V"),
-        _magnitude(element.current, "A"),
-        _magnitude(element.time_constant, "s"),
-    )
+__all__ = ["Analysis", "LoadInfo", "analyse"]
 
 
 def _wire_map(domain: Domain) -> dict[str, str]:
@@ -346,7 +254,7 @@ def _analyse_dc(
         loads=tuple(loads),
         load_category=most_demanding([ld.category for ld in loads]),
         time_constant=tau,
-        t95=(T95_FACTOR * tau) if tau is not None else None,
+        t95=(T95_PER_TAU * tau) if tau is not None else None,
         energy=sum(energies, Q_(0.0, "J")) if loads else Q_(0.0, "J"),
         suppression=suppression,
         bypass=opening.bypass,
@@ -359,42 +267,6 @@ def _analyse_dc(
         missing=missing + tuple(f"{r}: resistance" for r in unknown),
         short_circuit=bool(shorted),
     )
-
-
-def _series(elements: dict[str, ElementAnalysis]) -> dict[str, ElementAnalysis]:
-    """Mark elements in series: same switched loads and the same current."""
-    groups: dict[tuple, list[str]] = {}
-    for name, e in elements.items():
-        if e.supply != "dc" or not e.loads or e.current is None:
-            continue
-        loads = frozenset(ld.facts.key for ld in e.loads)
-        key = (e.domain, loads, round(float(e.current.magnitude), 9))
-        groups.setdefault(key, []).append(name)
-    out = dict(elements)
-    for names in groups.values():
-        if len(names) < 2:
-            continue
-        for name in names:
-            e = elements[name]
-            partners = [n for n in names if n not in e.bypass]
-            same = tuple(
-                sorted(
-                    n
-                    for n in partners
-                    if elements[n].element.device == e.element.device
-                )
-            )
-            other = tuple(
-                sorted(
-                    n
-                    for n in partners
-                    if elements[n].element.device != e.element.device
-                )
-            )
-            out[name] = replace(
-                e, series_poles=len(same), series_elements=same, other_series=other
-            )
-    return out
 
 
 def _record_loads(
@@ -447,28 +319,6 @@ def _record_dc_loads(analysis: Analysis, ctx: _Ctx) -> None:
         )
 
 
-def _changeovers(switches: list[Branch]) -> tuple[set[str], set[str]]:
-    """The NO and NC elements of changeover poles (both sides connected).
-
-    The two sides of one changeover are never closed together, so the closed
-    state closes the NO sides (NC sides open) and a second state, used for the
-    NC sides' own analysis, the reverse.
-    """
-    by_common: dict[tuple[str, str], list[Branch]] = {}
-    for branch in switches:
-        assert branch.element is not None
-        if branch.element.form in ("no", "nc"):
-            by_common.setdefault((branch.ref, branch.element.a), []).append(branch)
-    no_side, nc_side = set(), set()
-    for group in by_common.values():
-        forms = {b.element.form for b in group if b.element is not None}
-        if forms == {"no", "nc"}:
-            for b in group:
-                assert b.element is not None
-                (no_side if b.element.form == "no" else nc_side).add(b.key)
-    return no_side, nc_side
-
-
 def _zero_ohm(domain: Domain, state: DomainState) -> ZeroOhm:
     closed = [
         b
@@ -502,7 +352,7 @@ def analyse(graph: Graph) -> Analysis:
                 )
             continue
         terminals = {n for b in domain.branches if b.role == SUPPLY for n in (b.a, b.b)}
-        no_side, nc_side = _changeovers(switches)
+        no_side, nc_side = changeovers(switches)
         for mode, opened in (("no", nc_side), ("nc", no_side)):
             members = [b for b in switches if (b.key in nc_side) == (mode == "nc")]
             if mode == "nc" and not members:
@@ -525,5 +375,5 @@ def analyse(graph: Graph) -> Analysis:
         for element in component.elements:
             if element.name not in elements:
                 elements[element.name] = ElementAnalysis(element, component, None, None)
-    analysis.elements = _series(elements)
+    analysis.elements = mark_series(elements)
     return analysis

@@ -11,11 +11,11 @@ from dataclasses import dataclass, replace
 
 import pint
 
+from netcheck.analysis.constants import SILICON_RECTIFIER_VF, STRAY_CAPACITANCE
 from netcheck.analysis.switched import ElementAnalysis, Suppressor, SwitchedLoad
 from netcheck.analysis.transients import (
     ACROSS_ELEMENT,
     ACROSS_LOAD,
-    FORWARD_VOLTAGE,
     Load,
     Suppression,
     Transient,
@@ -32,11 +32,7 @@ __all__ = [
     "element_load",
     "element_transient",
     "zener_release",
-    "DEFAULT_FORWARD_VOLTAGE",
 ]
-
-# V: the spec's default forward drop (netcheck size --vf), kept in one place.
-DEFAULT_FORWARD_VOLTAGE = FORWARD_VOLTAGE
 
 
 @dataclass(frozen=True)
@@ -100,7 +96,7 @@ def model_suppression(
             (p.value("vf") for p in parts.values() if p.value("vf") is not None), None
         ),
         "V",
-        DEFAULT_FORWARD_VOLTAGE,
+        SILICON_RECTIFIER_VF,
     )
     kind = suppressor.kind
     if kind == "diode-zener":
@@ -128,7 +124,7 @@ def model_suppression(
             kind,
             placement,
             resistance=_si(r, "ohm", 0.0) or 0.0,
-            capacitance=_si(c, "F", 100e-12) or 100e-12,
+            capacitance=_si(c, "F", STRAY_CAPACITANCE) or STRAY_CAPACITANCE,
         )
     if kind == "resistor":
         r = parts["resistor"].value("R")
@@ -198,7 +194,7 @@ def element_transient(
 
 
 def zener_release(
-    load: SwitchedLoad, forward_voltage: float = DEFAULT_FORWARD_VOLTAGE
+    load: SwitchedLoad, forward_voltage: float = SILICON_RECTIFIER_VF
 ) -> OpeningFacts | None:
     """The faster clamp the spec asks for: diode + zener at the supply voltage."""
     model = model_load(load, load.voltage)

@@ -11,6 +11,7 @@ from collections.abc import Iterable, Mapping, Sequence
 from dataclasses import dataclass, replace
 from typing import Any
 
+from netcheck.analysis.constants import T95_PER_TAU
 from netcheck.units import Q_, Quantity, format_quantity
 
 __all__ = [
@@ -33,12 +34,6 @@ __all__ = [
     "max_rated_voltage",
     "at_most",
 ]
-
-# T0.95 is the time an RL circuit takes to reach 95 % of its final current:
-# 1 - exp(-t/tau) = 0.95 gives t = tau·ln 20 = 2.996·tau. The spec (parts.md) and
-# IEC 60947-5-1 use T0.95 = 3·L/R; so does everything netcheck reports, so that
-# a limit and the value compared with it are computed the same way.
-T95_PER_TAU = 3.0
 # IEC 60947-5-1 Table 4 note: the DC-13 test circuit has T0.95 = 6·P ms with
 # P = Ue·Ie in W, an empirical relation for magnets up to 50 W, so 300 ms at most.
 DC13_MS_PER_WATT = 6.0

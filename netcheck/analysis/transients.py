@@ -19,14 +19,13 @@ from netcheck.analysis.clamps import (
     resistor_transient,
     varistor_transient,
 )
+from netcheck.analysis.constants import SILICON_RECTIFIER_VF, STRAY_CAPACITANCE
 from netcheck.analysis.ringing import ring_transient
 from netcheck.units import Q_, Quantity
 
 __all__ = [
     "ACROSS_LOAD",
-    "FORWARD_VOLTAGE",
     "VARISTOR_EXPONENT",
-    "STRAY_CAPACITANCE",
     "RELEASE_FRACTION",
     "ACROSS_ELEMENT",
     "PLACEMENTS",
@@ -53,14 +52,8 @@ PLACEMENTS: dict[str, tuple[str, ...]] = {
 }
 # Release current as a fraction of the steady current (spec: netcheck size).
 RELEASE_FRACTION = 0.1
-# Diode forward drop, V: a silicon rectifier near its rated current (from memory;
-# also the spec's default for netcheck size --vf).
-FORWARD_VOLTAGE = 0.9
 # Metal-oxide varistor nonlinearity exponent: typically 20-50 (from memory).
 VARISTOR_EXPONENT = 25.0
-# Stray capacitance assumed across an unsuppressed element, F (from memory: contact
-# and wiring capacitances are tens to hundreds of pF).
-STRAY_CAPACITANCE = 100e-12
 
 
 @dataclass(frozen=True)
@@ -95,7 +88,7 @@ class Suppression:
 
     kind: str = "none"
     placement: str | None = None
-    forward_voltage: float = FORWARD_VOLTAGE
+    forward_voltage: float = SILICON_RECTIFIER_VF
     clamp_voltage: float = 0.0
     reference_current: float | None = None
     exponent: float = VARISTOR_EXPONENT

@@ -9,8 +9,9 @@ from __future__ import annotations
 
 from collections.abc import Mapping
 
+from netcheck.analysis.constants import SILICON_RECTIFIER_VF
 from netcheck.analysis.snubber import PEAK_LIMIT
-from netcheck.analysis.transients import FORWARD_VOLTAGE, VARISTOR_EXPONENT
+from netcheck.analysis.transients import VARISTOR_EXPONENT
 from netcheck.sizing.circuit import SIZE_MARGINS, build_circuit, margin_defaults
 from netcheck.sizing.options import OPTIONS
 from netcheck.sizing.results import (
@@ -38,7 +39,7 @@ __all__ = [
 ]
 
 # Diode forward drop (spec default for netcheck size --vf).
-DEFAULT_FORWARD_VOLTAGE = Q_(FORWARD_VOLTAGE, "V")
+DEFAULT_FORWARD_VOLTAGE = Q_(SILICON_RECTIFIER_VF, "V")
 
 
 def size_load(
