@@ -12,8 +12,9 @@ from dataclasses import dataclass, replace
 import pint
 
 from netcheck.analysis.elements import Analysis
-from netcheck.analysis.opening import OpeningFacts, element_transient, load_transient
+from netcheck.analysis.opening import element_transient, load_transient
 from netcheck.analysis.switched import ElementAnalysis, Suppressor, SwitchedLoad
+from netcheck.analysis.transients import OpeningTransient
 from netcheck.model import Component
 from netcheck.units import Q_
 
@@ -38,7 +39,7 @@ class Fitted:
     suppressor: Suppressor
     voltage: pint.Quantity  # across it in normal operation (or across the open element)
     current: pint.Quantity  # the load current it takes over at opening
-    opening: OpeningFacts | None
+    opening: OpeningTransient | None
     about: str  # the load or element it protects
 
     def parts(self) -> list[Component]:
@@ -82,7 +83,7 @@ def fitted_suppressors(analysis: Analysis) -> list[Fitted]:
     return [out[k] for k in sorted(out)]
 
 
-def _load_clamp(element: ElementAnalysis) -> OpeningFacts | None:
+def _load_clamp(element: ElementAnalysis) -> OpeningTransient | None:
     """The opening as the loads' own clamps shape it, if every inductive load has one.
 
     A freewheel diode (or zener, TVS, varistor) across the load takes the load's
@@ -104,8 +105,8 @@ def _load_clamp(element: ElementAnalysis) -> OpeningFacts | None:
 
 
 def _with_load_clamp(
-    element: ElementAnalysis, own: OpeningFacts | None
-) -> OpeningFacts | None:
+    element: ElementAnalysis, own: OpeningTransient | None
+) -> OpeningTransient | None:
     """An across-element snubber's stress when the loads clamp themselves first."""
     clamped = _load_clamp(element)
     if clamped is None or (
@@ -119,7 +120,7 @@ def _with_load_clamp(
     )
 
 
-def element_peak(element: ElementAnalysis) -> OpeningFacts | None:
+def element_peak(element: ElementAnalysis) -> OpeningTransient | None:
     """The opening transient the switching element itself sees."""
     across = [
         s

@@ -7,7 +7,7 @@ part data, and answers peak voltage, release time and suppressor energy.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, replace
+from dataclasses import replace
 
 import pint
 
@@ -17,15 +17,15 @@ from netcheck.analysis.transients import (
     ACROSS_ELEMENT,
     ACROSS_LOAD,
     Load,
+    OpeningTransient,
     Suppression,
-    Transient,
     transient,
 )
 from netcheck.model import Component
 from netcheck.units import Q_
 
 __all__ = [
-    "OpeningFacts",
+    "OpeningTransient",
     "model_load",
     "model_suppression",
     "load_transient",
@@ -35,33 +35,10 @@ __all__ = [
 ]
 
 
-@dataclass(frozen=True)
-class OpeningFacts:
-    """Transient results as quantities, with the model's assumptions."""
-
-    peak_voltage: pint.Quantity
-    release_time: pint.Quantity
-    suppressor_energy: pint.Quantity
-    suppressor_peak_voltage: pint.Quantity
-    conducts_continuously: bool
-    assumptions: tuple[str, ...]
-
-
 def _si(
     value: pint.Quantity | None, unit: str, default: float | None = None
 ) -> float | None:
     return float(value.to(unit).magnitude) if value is not None else default
-
-
-def _facts(result: Transient) -> OpeningFacts:
-    return OpeningFacts(
-        Q_(result.peak_voltage, "V"),
-        Q_(result.release_time, "s"),
-        Q_(result.suppressor_energy, "J"),
-        Q_(result.suppressor_peak_voltage, "V"),
-        result.conducts_continuously,
-        result.assumptions,
-    )
 
 
 def model_load(load: SwitchedLoad, supply: pint.Quantity) -> Load | None:
@@ -146,7 +123,7 @@ def load_transient(
     supply: pint.Quantity,
     suppressor: Suppressor | None,
     element: Component | None = None,
-) -> OpeningFacts | None:
+) -> OpeningTransient | None:
     """The opening transient of one load with one suppressor (None if not modelled)."""
     model = model_load(load, supply)
     if model is None:
@@ -155,7 +132,7 @@ def load_transient(
     if suppression.kind in ("tvs", "varistor") and suppression.clamp_voltage <= 0:
         return None
     try:
-        return _facts(transient(model, suppression, _release(load)))
+        return OpeningTransient.of(transient(model, suppression, _release(load)))
     except ValueError:
         return None
 
@@ -185,7 +162,7 @@ def element_load(analysis: ElementAnalysis) -> SwitchedLoad | None:
 
 def element_transient(
     analysis: ElementAnalysis, suppressor: Suppressor | None
-) -> OpeningFacts | None:
+) -> OpeningTransient | None:
     """The transient at the element: its loads with ``suppressor`` or its clamp."""
     load = element_load(analysis)
     if load is None or analysis.voltage is None:
@@ -195,7 +172,7 @@ def element_transient(
 
 def zener_release(
     load: SwitchedLoad, forward_voltage: float = SILICON_RECTIFIER_VF
-) -> OpeningFacts | None:
+) -> OpeningTransient | None:
     """The faster clamp the spec asks for: diode + zener at the supply voltage."""
     model = model_load(load, load.voltage)
     if model is None:
@@ -206,4 +183,4 @@ def zener_release(
         forward_voltage=forward_voltage,
         clamp_voltage=model.supply,
     )
-    return _facts(transient(model, suppression, _release(load)))
+    return OpeningTransient.of(transient(model, suppression, _release(load)))

@@ -232,9 +232,29 @@ def _ringing(load: Load, suppression: Suppression, release: float) -> Transient:
     )
 
 
+_UNITS = {
+    "peak_voltage": "V",
+    "release_time": "s",
+    "suppressor_energy": "J",
+    "suppressor_charge": "C",
+    "suppressor_peak_voltage": "V",
+    "coil_loss": "J",
+    "supply_energy": "J",
+    "stored_energy": "J",
+    "final_energy": "J",
+    "t": "s",
+    "i_load": "A",
+    "v_element": "V",
+}
+
+
 @dataclass(frozen=True, eq=False)
 class OpeningTransient:
-    """The opening transient as quantities (waveforms as quantity arrays)."""
+    """The opening transient as quantities, waveforms kept (quantity arrays).
+
+    The one result the analysis, the checks and ``size`` read; ``of`` builds it
+    from the solvers' SI ``Transient``.
+    """
 
     kind: str
     placement: str
@@ -253,21 +273,17 @@ class OpeningTransient:
     i_load: Quantity
     v_element: Quantity
 
-
-_UNITS = {
-    "peak_voltage": "V",
-    "release_time": "s",
-    "suppressor_energy": "J",
-    "suppressor_charge": "C",
-    "suppressor_peak_voltage": "V",
-    "coil_loss": "J",
-    "supply_energy": "J",
-    "stored_energy": "J",
-    "final_energy": "J",
-    "t": "s",
-    "i_load": "A",
-    "v_element": "V",
-}
+    @classmethod
+    def of(cls, result: Transient) -> OpeningTransient:
+        """The quantity form of an SI ``Transient``, waveforms included."""
+        values = {name: Q_(getattr(result, name), u) for name, u in _UNITS.items()}
+        return cls(
+            kind=result.kind,
+            placement=result.placement,
+            conducts_continuously=result.conducts_continuously,
+            assumptions=result.assumptions,
+            **values,
+        )
 
 
 def _si(value: Quantity | None, unit: str) -> float | None:
@@ -316,12 +332,4 @@ def opening_transient(
     suppression = replace(
         Suppression(kind), **{k: v for k, v in given.items() if v is not None}
     )
-    result = transient(load, suppression, _si(release_current, "A"))
-    values = {name: Q_(getattr(result, name), unit) for name, unit in _UNITS.items()}
-    return OpeningTransient(
-        kind=result.kind,
-        placement=result.placement,
-        conducts_continuously=result.conducts_continuously,
-        assumptions=result.assumptions,
-        **values,
-    )
+    return OpeningTransient.of(transient(load, suppression, _si(release_current, "A")))

@@ -7,8 +7,8 @@ from collections.abc import Iterator
 import pint
 
 from netcheck.analysis.fitted import SEMICONDUCTOR, Fitted, element_peak
-from netcheck.analysis.opening import OpeningFacts
 from netcheck.analysis.switched import ElementAnalysis
+from netcheck.analysis.transients import OpeningTransient
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding
@@ -175,7 +175,7 @@ def peak_voltage_over_rating(ctx: CheckContext) -> Iterator[Finding]:
                 )
 
 
-def _assumed(opening: OpeningFacts | None) -> str:
+def _assumed(opening: OpeningTransient | None) -> str:
     if opening is None or not opening.assumptions:
         return ""
     return " (" + "; ".join(opening.assumptions) + ")"
