@@ -172,7 +172,7 @@ def _shorted_chains(state: DomainState, floating: frozenset[str]) -> list:
     ]
 
 
-def _sag(state: DomainState, current: float) -> tuple[float, str | None, float | None]:
+def _sag(state: DomainState, current: float) -> tuple[float, str | None]:
     """Correct a current for the supply's internal resistance (linear loads).
 
     With only the switched circuit energised, I = G·E/(1 + G·r_int) where
@@ -180,13 +180,13 @@ def _sag(state: DomainState, current: float) -> tuple[float, str | None, float |
     """
     supplies = state.supplies
     if len(supplies) != 1:
-        return current, None, None
+        return current, None
     ref = supplies[0].ref
     emf, r_int = state.emf[ref], state.r_int[ref]
     if emf <= 0 or r_int <= 0:
-        return current, ref, emf
+        return current, ref
     conductance = abs(current) / emf
-    return current / (1.0 + conductance * r_int), ref, emf
+    return current / (1.0 + conductance * r_int), ref
 
 
 def _analyse_dc(
@@ -212,7 +212,7 @@ def _analyse_dc(
     opening = open_element(state, zero, injection, terminals, branch)
     power = branch.component.kind == "contactor" and len(branch.element.a) == 1
     loads = _switched_loads(ctx, opening, power)
-    current, supply_ref, emf = _sag(state, opening.current_ab)
+    current, supply_ref = _sag(state, opening.current_ab)
     shorted = _shorted_chains(state, opening.floating_nets)
     if shorted:
         # A short on the switched side: Ohm's law does not apply to the diode;
@@ -262,7 +262,6 @@ def _analyse_dc(
             1 if opening.current_ab > 1e-9 else -1 if opening.current_ab < -1e-9 else 0
         ),
         bidirectional=bool(supply is not None and supply.value("bidirectional")),
-        supply_voltage=Q_(emf, "V") if emf is not None else None,
         supply_ref=supply_ref,
         missing=missing + tuple(f"{r}: resistance" for r in unknown),
         short_circuit=bool(shorted),

@@ -78,7 +78,6 @@ class ElementAnalysis:
     bypass: tuple[str, ...] = ()
     direction: int = 0  # +1 current a -> b, -1 b -> a, 0 none
     bidirectional: bool = False
-    supply_voltage: pint.Quantity | None = None
     supply_ref: str | None = None
     missing: tuple[str, ...] = ()
     short_circuit: bool = False
@@ -88,11 +87,6 @@ class ElementAnalysis:
     def name(self) -> str:
         """The element's name, ``K1:13-14``."""
         return self.element.name
-
-    @property
-    def is_power_device(self) -> bool:
-        """Main poles of a contactor (single-digit terminals) are power devices."""
-        return self.component.kind == "contactor" and len(self.element.a) == 1
 
     @property
     def inductive_loads(self) -> tuple[SwitchedLoad, ...]:
