@@ -67,7 +67,6 @@ def _state_shorts(
                 Short(
                     "contacts",
                     supply.component,
-                    ("closed contacts",),
                     current=_prospective(state, 0.0),
                 )
             )

@@ -96,12 +96,14 @@ def supply_short_circuit(ctx: CheckContext) -> Iterator[Finding]:
                 key="supplies",
             )
             continue
+        if short.kind == "contacts":
+            yield ctx.finding(
+                short.component,
+                message="contacts",
+                fix="contacts",
+                current=short.current,
+                key="contacts",
+            )
+            continue
         path = ", ".join(short.path)
-        yield ctx.finding(
-            short.component,
-            message=short.kind if short.kind == "contacts" else "default",
-            fix=short.kind if short.kind == "contacts" else "default",
-            path=path,
-            current=short.current,
-            key="contacts" if short.kind == "contacts" else path,
-        )
+        yield ctx.finding(short.component, path=path, current=short.current, key=path)

@@ -170,7 +170,6 @@ def peak_voltage_over_rating(ctx: CheckContext) -> Iterator[Finding]:
                     fix="capacitor",
                     peak=peak,
                     rated=rated,
-                    assumptions="",
                     about=fitted.about,
                 )
 
