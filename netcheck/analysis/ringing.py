@@ -10,30 +10,13 @@ from __future__ import annotations
 
 import math
 from collections.abc import Callable
-from dataclasses import dataclass
+from typing import Any
 
 import numpy as np
 
-__all__ = ["Ring", "ring_transient"]
+__all__ = ["ring_transient"]
 
 _GRID = 4097  # samples per scan; extrema and crossings are then refined by bisection
-
-
-@dataclass(frozen=True, eq=False)
-class Ring:
-    """Result of one R-L-C opening transient (SI units)."""
-
-    peak_element_voltage: float  # V, largest voltage across the opening element
-    peak_capacitor_voltage: float  # V, largest |v_C|
-    release_time: float  # s, first time |i| <= release current (inf if never)
-    series_loss: float  # J, dissipated in Rs over the whole transient
-    coil_loss: float  # J, dissipated in the coil resistance
-    charge: float  # C, net charge moved through the branch until the final state
-    initial_capacitor_energy: float  # J
-    final_capacitor_energy: float  # J
-    t: np.ndarray
-    i_load: np.ndarray
-    v_element: np.ndarray
 
 
 class _Loop:
@@ -172,13 +155,14 @@ def ring_transient(
     *,
     across_element: bool,
     release_current: float,
-) -> Ring:
+) -> dict[str, Any]:
     """Exact R-L-C opening transient of an RC (Rs >= 0) across the load or the element.
 
     Across the load the capacitor starts charged to the coil's voltage R·I0 and the
     supply is out of the loop; across the element it starts empty and the supply stays
     in the loop. The element voltage is Vs + Rs·i + v_C (load) or Rs·i + v_C (element),
-    with v_C counted in the direction of the loop current.
+    with v_C counted in the direction of the loop current. Returns the fields of
+    ``transients.Transient`` that depend on the arrangement, waveforms included.
     """
     loop, offset = _loop(
         resistance,
@@ -201,19 +185,22 @@ def ring_transient(
     square = loop.energy_integral() if r_total > 0 else 0.0
     t = _plot_times(grid, release, t_peak)
     v0, v_end = loop.z_ss[1] - loop.u[1], loop.z_ss[1]
-    return Ring(
-        peak_element_voltage=peak,
-        peak_capacitor_voltage=cap_peak,
-        release_time=release,
-        series_loss=series_resistance * square,
-        coil_loss=resistance * square,
-        charge=capacitance * (v_end - v0),
-        initial_capacitor_energy=0.5 * capacitance * v0**2,
-        final_capacitor_energy=0.5 * capacitance * v_end**2,
-        t=t,
-        i_load=i_of_t(t),
-        v_element=loop.output(element, offset)(t),
-    )
+    charge = capacitance * (v_end - v0)
+    return {
+        "peak_voltage": peak,
+        "release_time": release,
+        "suppressor_energy": series_resistance * square,
+        "suppressor_charge": charge,
+        "suppressor_peak_voltage": cap_peak,
+        "coil_loss": resistance * square,
+        "supply_energy": supply * charge if across_element else 0.0,
+        "stored_energy": 0.5 * inductance * current**2 + 0.5 * capacitance * v0**2,
+        "final_energy": 0.5 * capacitance * v_end**2,
+        "conducts_continuously": False,
+        "t": t,
+        "i_load": i_of_t(t),
+        "v_element": loop.output(element, offset)(t),
+    }
 
 
 def _loop(

@@ -105,6 +105,10 @@ class Suppression:
 class Transient:
     """The opening transient in SI units; waveforms are arrays over ``t``.
 
+    Every solver fills it: the closed forms and the varistor integration of
+    ``clamps``, the exact R-L-C loops of ``ringing`` (each returns the fields that
+    depend on the arrangement); ``OpeningTransient.of`` gives it as quantities.
+
     Energy balance: stored_energy + supply_energy
     = suppressor_energy + coil_loss + final_energy.
     """
@@ -156,14 +160,14 @@ def transient(
     release = RELEASE_FRACTION * i0 if release_current is None else release_current
     _check(load, suppression, release)
     if suppression.kind in ("none", "rc", "capacitor"):
-        return _ringing(load, suppression, release)
+        fields = _ringing(load, suppression, release)
+    else:
+        fields = _first_order(load, suppression, release)
     return Transient(
         kind=suppression.kind,
         placement=suppression.where,
-        assumptions=(),
-        stored_energy=0.5 * load.inductance * i0**2,
-        final_energy=0.0,
-        **_first_order(load, suppression, release),
+        assumptions=_assumptions(suppression),
+        **fields,
     )
 
 
@@ -186,49 +190,33 @@ def _first_order(load: Load, suppression: Suppression, release: float) -> dict:
     return clamp_transient(*coil, clamp, release, across_element=across_element)
 
 
-def _ringing(load: Load, suppression: Suppression, release: float) -> Transient:
+def _ringing(load: Load, suppression: Suppression, release: float) -> dict:
     """RC, capacitor or unsuppressed (stray capacitance) opening."""
-    across_element = suppression.where == ACROSS_ELEMENT
     series = (
         0.0 if suppression.kind in ("none", "capacitor") else suppression.resistance
     )
-    i0 = load.steady_current
-    ring = ring_transient(
+    return ring_transient(
         load.resistance,
         load.inductance,
         load.supply,
-        i0,
+        load.steady_current,
         series,
         suppression.capacitance,
-        across_element=across_element,
+        across_element=suppression.where == ACROSS_ELEMENT,
         release_current=release,
     )
-    assumptions: tuple[str, ...] = ()
-    if suppression.kind == "none":
-        stray = Q_(suppression.capacitance, "F").to_compact()
-        assumptions = (
-            f"unsuppressed: the peak is limited only by an assumed {stray:~.3g} of "
-            "stray capacitance across the element",
-            "a real contact arcs, or its gap breaks down (air: about 300 V at the "
-            "Paschen minimum), and a semiconductor avalanches, below such a peak",
-        )
-    return Transient(
-        kind=suppression.kind,
-        placement=suppression.where,
-        peak_voltage=ring.peak_element_voltage,
-        release_time=ring.release_time,
-        suppressor_energy=ring.series_loss,
-        suppressor_charge=ring.charge,
-        suppressor_peak_voltage=ring.peak_capacitor_voltage,
-        coil_loss=ring.coil_loss,
-        supply_energy=load.supply * ring.charge if across_element else 0.0,
-        stored_energy=0.5 * load.inductance * i0**2 + ring.initial_capacitor_energy,
-        final_energy=ring.final_capacitor_energy,
-        conducts_continuously=False,
-        assumptions=assumptions,
-        t=ring.t,
-        i_load=ring.i_load,
-        v_element=ring.v_element,
+
+
+def _assumptions(suppression: Suppression) -> tuple[str, ...]:
+    """What the model assumes beyond the circuit given (the stray capacitance)."""
+    if suppression.kind != "none":
+        return ()
+    stray = Q_(suppression.capacitance, "F").to_compact()
+    return (
+        f"unsuppressed: the peak is limited only by an assumed {stray:~.3g} of "
+        "stray capacitance across the element",
+        "a real contact arcs, or its gap breaks down (air: about 300 V at the "
+        "Paschen minimum), and a semiconductor avalanches, below such a peak",
     )
 
 
