@@ -57,3 +57,15 @@ def test_a_fitted_diode_sees_the_load_voltage_in_service(tmp_path: Path) -> None
     assert service_voltages(fitted_suppressors(analysis))["D1"].to("V").magnitude == (
         24.0
     )
+
+
+def test_the_check_context_computes_shared_physics_once(tmp_path: Path) -> None:
+    from netcheck.catalogue import load_catalogue
+    from netcheck.checks.context import CheckContext
+
+    netlist, analysis = net(tmp_path, DESIGN, RELAY)
+    ctx = CheckContext(netlist, analysis.graph, analysis, load_catalogue(), {})
+    first = ctx.fitted_suppressors()
+    assert first and ctx.fitted_suppressors() is first
+    assert ctx.shorts() is ctx.shorts()
+    assert ctx.shorts() == []  # the diode is reversed-biased in service: no short
