@@ -239,3 +239,18 @@ def test_absent_texts_are_used_by_the_cases() -> None:
         if value is None and name in catalogue[f.rule].absent
     }
     assert ("inductive-load-unsuppressed", "clamp_energy") in used
+    assert ("inductive-load-unsuppressed", "energy") in used
+
+
+@pytest.mark.parametrize(
+    ("case", "wording"),
+    [
+        ("bad-energy-partly-known.cnet", "(500 mA, at least 60 mJ stored)"),
+        ("bad-energy-unknown.cnet", "(250 mA, an unknown energy (no L or tau given)"),
+    ],
+)
+def test_an_unknown_energy_is_worded_by_the_rule(case: str, wording: str) -> None:
+    """The first absent text whose values are known words the missing energy."""
+    [finding] = run_case(CASES / "inductive-load-unsuppressed" / case)
+    assert finding.values["energy"] is None
+    assert wording in finding.message

@@ -49,20 +49,21 @@ def inductive_load_unsuppressed(ctx: CheckContext) -> Iterator[Finding]:
         case = _clamp_case(ctx, element)
         if case is not None and case[0] == "ok":
             continue
-        # An inductive type with no L or tau given leaves the energy unknown.
+        # An inductive type with no L or tau given leaves the energy unknown;
+        # then ``energy_known`` carries the part that is known, if any.
         known = [ld.energy for ld in loads if ld.energy is not None]
-        known_sum = sum(known, Q_(0.0, "J")) if known else None
-        energy = known_sum if len(known) == len(loads) else None
+        energy = sum(known, Q_(0.0, "J")) if len(known) == len(loads) else None
         current = max(ld.current for ld in loads)
         values = {
             "loads": ", ".join(ld.facts.ref for ld in loads),
             "energy": energy,
-            "energy_known": known_sum,
             "current": current,
             "voltage": element.voltage,
             "diode_voltage": element.voltage * ctx.option("diode-reverse-voltage"),
             "diode_current": current * ctx.option("diode-current"),
         }
+        if energy is None and known:
+            values["energy_known"] = sum(known, Q_(0.0, "J"))
         if case is None:
             yield ctx.finding(element, **values)
         else:
