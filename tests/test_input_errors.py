@@ -15,7 +15,7 @@ import pytest
 
 from netcheck import cli
 from netcheck.errors import InputError, InputErrors
-from netcheck.parse import SYNTAX_MESSAGES, parse_text
+from netcheck.input.cnet.parse import SYNTAX_MESSAGES, parse_text
 
 CASES = Path(__file__).resolve().parent / "input_errors"
 MARK = re.compile(r"#\s*error:\s*(?P<text>.*?)\s*@(?P<line>\d+):(?P<col>\d+)\s*$")

@@ -5,7 +5,7 @@ from __future__ import annotations
 import pytest
 
 from netcheck.errors import InputError, InputErrors
-from netcheck.parts import parse_library
+from netcheck.input.parts import parse_library
 
 HEAD = "format: netcheck-parts/1\nnote: Illustrative values for the tests.\nparts:\n"
 RELAY = HEAD + """\

@@ -10,8 +10,8 @@ from __future__ import annotations
 
 import pytest
 
+from netcheck.input.poles import infer_poles
 from netcheck.model import Pole
-from netcheck.poles import infer_poles
 
 
 @pytest.mark.parametrize(

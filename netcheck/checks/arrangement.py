@@ -14,6 +14,7 @@ from netcheck.checks.ratings import (
 )
 from netcheck.checks.registry import check
 from netcheck.findings import Finding
+from netcheck.kinds import SEMICONDUCTOR_KINDS
 
 __all__ = [
     "polarized_pole_reversed",
@@ -58,7 +59,7 @@ def polarized_pole_bidirectional(ctx: CheckContext) -> Iterator[Finding]:
 
 def _can_break_alone(ctx: CheckContext, element: ElementAnalysis) -> bool | None:
     """Whether the element's device (its series poles included) can break alone."""
-    if element.component.kind in ("ssr", "output"):
+    if element.component.kind in SEMICONDUCTOR_KINDS:
         limit = element.component.value("current_max")
         if limit is None or element.current is None:
             return None

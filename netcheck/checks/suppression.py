@@ -10,6 +10,7 @@ from netcheck.analysis.switched import ElementAnalysis, Suppressor, SwitchedLoad
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding, Severity
+from netcheck.kinds import POLARIZED_SUPPRESSORS, SEMICONDUCTOR_KINDS
 from netcheck.units import Q_, format_quantity
 
 __all__ = [
@@ -18,9 +19,6 @@ __all__ = [
     "diode_on_ac_load",
     "slow_release_suppression",
 ]
-
-SEMICONDUCTOR = ("ssr", "output")
-POLARIZED = ("diode", "diode-zener", "zener", "diode-resistor")
 
 
 def effective(suppressors: tuple[Suppressor, ...]) -> tuple[Suppressor, ...]:
@@ -39,7 +37,7 @@ def unsuppressed_loads(element: ElementAnalysis) -> list[SwitchedLoad]:
 
 def _clamp_case(ctx: CheckContext, element: ElementAnalysis) -> tuple[str, dict] | None:
     """For a semiconductor output: ("ok"|"output", values) from its clamp data."""
-    if element.component.kind not in SEMICONDUCTOR:
+    if element.component.kind not in SEMICONDUCTOR_KINDS:
         return None
     rating = element.component.value("clamp_energy")
     model = element_transient(element, None)
@@ -90,7 +88,7 @@ def inductive_load_unsuppressed(ctx: CheckContext) -> Iterator[Finding]:
 
 
 def _polarized(suppressor: Suppressor) -> bool:
-    return suppressor.kind in POLARIZED or (
+    return suppressor.kind in POLARIZED_SUPPRESSORS or (
         suppressor.kind == "tvs"
         and suppressor.chain is not None
         and bool(suppressor.chain.polarity)

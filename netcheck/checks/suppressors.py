@@ -11,8 +11,9 @@ from netcheck.analysis.opening import OpeningFacts, element_transient, load_tran
 from netcheck.analysis.switched import ElementAnalysis, Suppressor
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
-from netcheck.checks.suppression import SEMICONDUCTOR, effective
+from netcheck.checks.suppression import effective
 from netcheck.findings import Finding
+from netcheck.kinds import SEMICONDUCTOR_KINDS
 from netcheck.model import Component
 from netcheck.units import Q_
 
@@ -277,7 +278,7 @@ def peak_voltage_over_rating(ctx: CheckContext) -> Iterator[Finding]:
     """Flag opening peaks above an output's or a snubber capacitor's rating."""
     for element in ctx.switching_elements(supply="dc"):
         rated = element.component.value("voltage_max")
-        if element.component.kind not in SEMICONDUCTOR or rated is None:
+        if element.component.kind not in SEMICONDUCTOR_KINDS or rated is None:
             continue
         opening = _element_peak(element)
         peak = opening.peak_voltage if opening is not None else element.voltage

@@ -27,7 +27,7 @@ __all__ = [
 MAX_ERRORS = 20
 
 # Friendly messages for syntax errors, each with tiny inputs that produce it.
-# The table is also the test of these messages (tests/test_parse_errors.py).
+# The table is also the test of these messages (tests/test_input_errors.py).
 SYNTAX_MESSAGES: dict[str, list[str]] = {
     "a component statement needs a reference after its kind (e.g. 'relay K1')": [
         "relay",
@@ -125,7 +125,8 @@ class SourceFile:
 
 
 @lru_cache(maxsize=1)
-def _parser() -> Lark:
+def parser() -> Lark:
+    """The .cnet LALR parser (built once)."""
     return Lark(
         read_text("grammar", "cnet.lark"),
         parser="lalr",
@@ -139,7 +140,8 @@ def _span(file: str, token: Token | Tree) -> Span:
     return Span(file, meta.line, meta.column, meta.end_line, meta.end_column)
 
 
-def _unquote(token: Token) -> str:
+def unquote(token: Token) -> str:
+    """The text of a STRING token, quotes and escapes removed."""
     body = str(token)[1:-1]
     out, i = [], 0
     while i < len(body):
@@ -160,7 +162,7 @@ class _ToStatements(Transformer):
 
     def _file_statement(self, keyword: str, meta: Tree, string: Token) -> FileStatement:
         return FileStatement(
-            keyword, _unquote(string), _span(self.file, meta), _span(self.file, string)
+            keyword, unquote(string), _span(self.file, meta), _span(self.file, string)
         )
 
     @v_args(tree=True)
@@ -186,7 +188,7 @@ class _ToStatements(Transformer):
         return WaiveStatement(
             str(rule),
             target,
-            _unquote(reason),
+            unquote(reason),
             _span(self.file, tree),
             target_span,
             _span(self.file, reason),
@@ -195,7 +197,7 @@ class _ToStatements(Transformer):
     def _value_of(self, tree: Tree) -> tuple[str, bool, Span]:
         token = tree.children[0]
         quoted = token.type == "STRING"
-        text = _unquote(token) if quoted else str(token)
+        text = unquote(token) if quoted else str(token)
         return text, quoted, _span(self.file, token)
 
     def _joined(self, tree: Tree, first: Token, last: Token, sign: str) -> Span:
@@ -283,7 +285,7 @@ def _message(error: UnexpectedInput) -> str:
             return "unexpected white space"
         return f"unexpected character {char!r} (names use A-Z a-z 0-9 _ + - . / ~ ! *)"
     label = error.match_examples(
-        _parser().parse, _examples(), use_accepts=True, token_type_match_fallback=True
+        parser().parse, _examples(), use_accepts=True, token_type_match_fallback=True
     )
     if label:
         return str(label)
@@ -362,7 +364,7 @@ def _syntax_errors(text: str, file: str) -> tuple[Tree | None, list[InputError]]
     work, offset = text, 0
     while True:
         try:
-            tree = _parser().parse(work)
+            tree = parser().parse(work)
             return (tree if not errors else None), errors
         except UnexpectedInput as error:
             span = _error_span(file, error, work)

@@ -26,7 +26,7 @@ _NON_QUANTITY = {"category", "material", "form", "supply", "suppression", "kind"
 def _validator() -> jsonschema.protocols.Validator:
     path = data_path("schema", "parts.schema.json")
     if not path.is_file():
-        path = Path(__file__).parent / "schema" / "parts.schema.json"
+        path = Path(__file__).parent.parent / "schema" / "parts.schema.json"
     schema = json.loads(path.read_text(encoding="utf-8"))
     checker = jsonschema.FormatChecker()
     for dimension in set(QUANTITY_KEYS.values()):
