@@ -16,6 +16,7 @@ import pytest
 from netcheck import cli
 from netcheck.errors import InputError, InputErrors
 from netcheck.input.cnet.parse import SYNTAX_MESSAGES, parse_text
+from netcheck.input.cnet.slips import SLIP_EXAMPLES
 
 CASES = Path(__file__).resolve().parent / "input_errors"
 MARK = re.compile(r"#\s*error:\s*(?P<text>.*?)\s*@(?P<line>\d+):(?P<col>\d+)\s*$")
@@ -63,6 +64,14 @@ def test_syntax_message_table(message: str, example: str) -> None:
     messages = [e.message for e in error.errors] if isinstance(error, InputErrors) else [
         error.message]
     assert message in messages
+
+
+@pytest.mark.parametrize(("example", "message"), sorted(SLIP_EXAMPLES.items()))
+def test_slip_message_table(example: str, message: str) -> None:
+    # The common slips are named with what to write instead, and only them.
+    with pytest.raises(InputErrors) as caught:
+        parse_text(example, "t.cnet")
+    assert [e.message for e in caught.value.errors] == [message]
 
 
 def test_every_syntax_error_of_a_file_is_reported() -> None:

@@ -10,6 +10,7 @@ from lark import Lark, Token, Transformer, Tree, UnexpectedInput, v_args
 from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedToken
 
 from netcheck.errors import InputError, InputErrors, SyntaxInputError
+from netcheck.input.cnet.slips import slip
 from netcheck.resources import read_text
 from netcheck.source import Span, register_text
 
@@ -56,10 +57,17 @@ SYNTAX_MESSAGES: dict[str, list[str]] = {
     "waive takes a rule, a reference or element, and a quoted reason": [
         "waive",
         "waive rule-x",
-        "waive rule-x K1",
-        "waive rule-x K1 reason",
         'waive rule-x K1 "r" more',
         "waive rule-x K1:",
+    ],
+}
+
+# Inputs that only teach the parser's states (their lines are named by
+# input/cnet/slips.py before these labels are seen).
+_STATE_EXAMPLES = {
+    "waive takes a rule, a reference or element, and a quoted reason": [
+        "waive rule-x K1",
+        "waive rule-x K1 reason",
     ],
 }
 
@@ -272,6 +280,9 @@ def _examples() -> dict[str, list[str]]:
     return {
         message: [p + e for p in prefixes for e in examples]
         for message, examples in SYNTAX_MESSAGES.items()
+    } | {
+        message: [p + e for p in prefixes for e in SYNTAX_MESSAGES[message] + more]
+        for message, more in _STATE_EXAMPLES.items()
     }
 
 
@@ -368,8 +379,9 @@ def _syntax_errors(text: str, file: str) -> tuple[Tree | None, list[InputError]]
             return (tree if not errors else None), errors
         except UnexpectedInput as error:
             span = _error_span(file, error, work)
-            errors.append(SyntaxInputError(_message(error), _shifted(span, offset)))
             lines = work.split("\n")
+            message, span = slip(lines, span) or (_message(error), span)
+            errors.append(SyntaxInputError(message, _shifted(span, offset)))
             rest = _statement_lines(lines, span.line).stop
             if len(errors) >= MAX_ERRORS or rest > len(lines):
                 return None, errors
