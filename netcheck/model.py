@@ -141,6 +141,7 @@ class Waiver:
     target: str
     reason: str
     span: Span
+    target_span: Span | None = None
 
 
 @dataclass(frozen=True)

@@ -17,6 +17,7 @@ from netcheck import cli
 from netcheck.errors import InputError, InputErrors
 from netcheck.input.cnet.parse import SYNTAX_MESSAGES, parse_text
 from netcheck.input.cnet.slips import SLIP_EXAMPLES
+from netcheck.input.quantity_hints import quantity_hint
 
 CASES = Path(__file__).resolve().parent / "input_errors"
 MARK = re.compile(r"#\s*error:\s*(?P<text>.*?)\s*@(?P<line>\d+):(?P<col>\d+)\s*$")
@@ -80,3 +81,27 @@ def test_every_syntax_error_of_a_file_is_reported() -> None:
         parse_text(text, "t.cnet")
     assert [(e.span.line, e.span.column) for e in caught.value.errors] == [
         (1, 6), (2, 9), (4, 7)]
+
+
+@pytest.mark.parametrize(
+    ("text", "dimension", "write"),
+    [
+        ("200mh", "inductance", "write 200mH"),  # mh parses as milli-hour
+        ("300MS", "time", "write 300ms"),  # not megaseconds
+        ("2.2UF", "capacitance", "write 2.2uF"),
+        ("24v", "voltage", "write 24V"),
+        ("48kOhm", "resistance", "write 48kohm"),
+        ("4,7kohm", "resistance", "write 4.7kohm"),
+    ],
+)
+def test_quantity_hint_says_what_to_write(text: str, dimension: str, write: str) -> None:
+    assert write in (quantity_hint(text, dimension) or "")
+
+
+@pytest.mark.parametrize(
+    ("text", "dimension"),
+    [("24V", "current"), ("10blorp", "voltage"), ("48", "resistance")],
+)
+def test_no_quantity_hint_where_case_is_not_the_slip(text: str, dimension: str) -> None:
+    # A volt where a current is wanted is a wrong dimension, not a case slip.
+    assert quantity_hint(text, dimension) is None

@@ -24,6 +24,8 @@ from netcheck.input.poles import (
     infer_poles,
     poles_from_part,
 )
+from netcheck.input.quantity_hints import quantity_hint
+from netcheck.input.waivers import check_waiver_targets
 from netcheck.kinds import (
     COIL_KEYS,
     COIL_KINDS,
@@ -59,7 +61,7 @@ def _parse_value(key: str, text: str, span: Span, quoted: bool) -> Any:
     base = key.rsplit(".", 1)[-1]
     dimension = QUANTITY_KEYS.get(base)
     if dimension is not None:
-        quantity = parse_quantity(text, dimension, span)
+        quantity = _quantity(text, dimension, span)
         check_sign(key, quantity, span)
         return quantity
     allowed = choices(base)
@@ -76,6 +78,17 @@ def _parse_value(key: str, text: str, span: Span, quoted: bool) -> Any:
     if allowed == ("yes", "no"):
         return text == "yes"
     return text
+
+
+def _quantity(text: str, dimension: str, span: Span) -> Any:
+    try:
+        return parse_quantity(text, dimension, span)
+    except QuantityError as error:
+        hint = quantity_hint(text, dimension)
+        if hint is None:
+            raise
+        message = hint if "," in text else f"{error.message}; {hint}"
+        raise QuantityError(message, error.span) from None
 
 
 def _allowed_keys(kind: str) -> list[str]:
@@ -285,23 +298,7 @@ class _Builder:
         )
 
 
-def load_cnet(
-    path: Path,
-    extra_parts: Sequence[Path] = (),
-    allow_outside: bool = False,
-    display_base: Path | None = None,
-) -> Netlist:
-    """Read the design whose top file is ``path``; raise InputErrors on bad input."""
-    top = path.resolve()
-    reader = Reader(top.parent, allow_outside, (display_base or Path.cwd()).resolve())
-    if not top.is_file():
-        raise IncludeError(f"{reader.display(top)}: no such file")
-    for extra in extra_parts:
-        if not extra.is_file():
-            raise IncludeError(f"part library {extra}: no such file")
-    reader.read(top, (), None)
-    parts = read_libraries(reader, [p.resolve() for p in extra_parts])
-    builder = _Builder(parts, reader.errors)
+def _components(reader: Reader, builder: _Builder) -> list[Component]:
     components: list[Component] = []
     seen: dict[str, Span] = {}
     for statement in reader.statements:
@@ -318,6 +315,27 @@ def load_cnet(
         component = builder.component(statement)
         if component is not None:
             components.append(component)
+    return components
+
+
+def load_cnet(
+    path: Path,
+    extra_parts: Sequence[Path] = (),
+    allow_outside: bool = False,
+    display_base: Path | None = None,
+) -> Netlist:
+    """Read the design whose top file is ``path``; raise InputErrors on bad input."""
+    top = path.resolve()
+    reader = Reader(top.parent, allow_outside, (display_base or Path.cwd()).resolve())
+    if not top.is_file():
+        raise IncludeError(f"{reader.display(top)}: no such file")
+    for extra in extra_parts:
+        if not extra.is_file():
+            raise IncludeError(f"part library {extra}: no such file")
+    reader.read(top, (), None)
+    parts = read_libraries(reader, [p.resolve() for p in extra_parts])
+    components = _components(reader, _Builder(parts, reader.errors))
+    reader.errors.extend(check_waiver_targets(reader.waivers, components))
     if reader.errors:
         raise InputErrors(reader.errors)
     return Netlist(

@@ -105,12 +105,20 @@ class Reader:
             if not statement.reason.strip():
                 self.errors.append(
                     InputError(
-                        "a waiver needs a non-empty reason", statement.reason_span
+                        "a waiver needs a non-empty reason: say why the finding "
+                        "is acceptable, e.g. waive "
+                        f'{statement.rule} {statement.target} "diode fitted in the '
+                        'valve plug"',
+                        statement.reason_span,
                     )
                 )
             self.waivers.append(
                 Waiver(
-                    statement.rule, statement.target, statement.reason, statement.span
+                    statement.rule,
+                    statement.target,
+                    statement.reason,
+                    statement.span,
+                    statement.target_span,
                 )
             )
         elif isinstance(statement, FileStatement):
