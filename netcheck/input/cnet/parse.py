@@ -10,6 +10,11 @@ from lark import Lark, Token, Transformer, Tree, UnexpectedInput, v_args
 from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedToken
 
 from netcheck.errors import InputError, InputErrors, SyntaxInputError
+from netcheck.input.cnet.messages import (
+    CHARACTER_HINTS,
+    STATE_EXAMPLES,
+    SYNTAX_MESSAGES,
+)
 from netcheck.input.cnet.slips import slip
 from netcheck.resources import read_text
 from netcheck.source import Span, register_text
@@ -26,56 +31,6 @@ __all__ = [
 ]
 
 MAX_ERRORS = 20
-
-# Friendly messages for syntax errors, each with tiny inputs that produce it.
-# The table is also the test of these messages (tests/test_input_errors.py).
-SYNTAX_MESSAGES: dict[str, list[str]] = {
-    "a component statement needs a reference after its kind (e.g. 'relay K1')": [
-        "relay",
-        "relay\n",
-    ],
-    "expected 'key=value' or 'terminal:net'": [
-        "relay K1 A1",
-        "relay K1 A1 A2:M",
-        "relay K1 A1:N3 A2",
-        "load Y1 R=10ohm R",
-    ],
-    "expected a net name after ':'": [
-        "relay K1 A1:",
-        "relay K1 A1:\n",
-        'relay K1 A1:"x"',
-    ],
-    "expected a value after '='": ["load Y1 R=", "load Y1 R=\n", "load Y1 R=10ohm="],
-    "'title', 'parts' and 'include' take one quoted string": [
-        "title foo",
-        "parts x.yaml",
-        'include "a" "b"',
-        "title",
-        'title "a" b',
-        "include",
-    ],
-    "waive takes a rule, a reference or element, and a quoted reason": [
-        "waive",
-        "waive rule-x",
-        'waive rule-x K1 "r" more',
-        "waive rule-x K1:",
-    ],
-}
-
-# Inputs that only teach the parser's states (their lines are named by
-# input/cnet/slips.py before these labels are seen).
-_STATE_EXAMPLES = {
-    "waive takes a rule, a reference or element, and a quoted reason": [
-        "waive rule-x K1",
-        "waive rule-x K1 reason",
-    ],
-}
-
-_CHARACTER_HINTS = {
-    '"': "unterminated or misplaced string (strings are double-quoted on one line)",
-    "=": "unexpected '=' (write key=value with no spaces around '=')",
-    ":": "unexpected ':' (write terminal:net with no spaces around ':')",
-}
 
 
 @dataclass(frozen=True)
@@ -282,14 +237,14 @@ def _examples() -> dict[str, list[str]]:
         for message, examples in SYNTAX_MESSAGES.items()
     } | {
         message: [p + e for p in prefixes for e in SYNTAX_MESSAGES[message] + more]
-        for message, more in _STATE_EXAMPLES.items()
+        for message, more in STATE_EXAMPLES.items()
     }
 
 
 def _message(error: UnexpectedInput) -> str:
     if isinstance(error, UnexpectedCharacters):
         char = error.char
-        hint = _CHARACTER_HINTS.get(char)
+        hint = CHARACTER_HINTS.get(char)
         if hint:
             return hint
         if char in " \t":
