@@ -130,5 +130,3 @@ KIND_TERMINALS: dict[str, tuple[tuple[str, ...], ...] | None] = {
 }
 # The output terminal pairs of a semiconductor switch, first to second.
 OUTPUT_TERMINALS = (("+", "-"), ("1", "2"), ("Q", "M"))
-
-assert set(KIND_ATTRIBUTES) == set(KINDS) == set(KIND_TERMINALS)

@@ -95,7 +95,7 @@ def _allowed_keys(kind: str) -> list[str]:
     keys = list(KIND_ATTRIBUTES[kind])
     if kind in POLE_KINDS:
         keys += [f"contacts.{k}" for k in CONTACT_KEYS]
-        if kind != "switch":
+        if kind in COIL_KINDS:
             keys += [f"coil.{k}" for k in COIL_KEYS]
     return keys
 
