@@ -83,3 +83,11 @@ def test_alias_bomb_is_refused_quickly() -> None:
         lines.append(f"a{i}: &a{i} [{refs}]")
     errors = _errors("\n".join(lines) + "\n")
     assert any("too large" in message for message, _, _ in errors)
+
+
+def test_unit_case_slip_in_a_library_says_what_to_write() -> None:
+    bad = RELAY.replace("inductance: 1.1 H", "inductance: 1.1 h")  # h is the hour
+    [(message, line, column)] = _errors(bad)
+    assert message.startswith("parts.gp-relay-10a.coil.inductance:")
+    assert message.endswith("write 1.1 H")
+    assert (line, column) == (6, bad.splitlines()[5].index("inductance") + 1)

@@ -15,12 +15,16 @@ import re
 
 import pint
 
-from netcheck.units import DIMENSIONS, Q_, ureg
+from netcheck.errors import QuantityError
+from netcheck.source import Span
+from netcheck.units import DIMENSIONS, Q_, parse_quantity, ureg
 
-__all__ = ["quantity_hint"]
+__all__ = ["quantity_hint", "parse_with_hint"]
 
 _COMMA = re.compile(r"\A([+-]?\d+),(\d+)(.*)\Z")
-_SPLIT = re.compile(r"\A([+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?)([A-Za-z]+)\Z")
+_SPLIT = re.compile(
+    r"\A([+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?)([ \t]*)([A-Za-z]+)\Z"
+)
 # Case variants tried; beyond this a unit is not a case slip.
 _MAX_LETTERS = 6
 
@@ -37,15 +41,30 @@ def quantity_hint(text: str, dimension: str) -> str | None:
     split = _SPLIT.match(text)
     if split is None or dimension not in DIMENSIONS or not DIMENSIONS[dimension]:
         return None
-    number, unit = split.groups()
+    number, space, unit = split.groups()
     spelling = _case_fix(unit, dimension)
     if spelling is None:
         return None
+    number += space
     also = f" (or {number}Ω)" if spelling.endswith("ohm") and len(spelling) < 5 else ""
     return (
         "units are case-sensitive (m is milli, M is mega): "
         f"write {number}{spelling}{also}"
     )
+
+
+def parse_with_hint(
+    text: str, dimension: str, span: Span | None = None
+) -> pint.Quantity:
+    """``units.parse_quantity``, its error saying what to write where it can."""
+    try:
+        return parse_quantity(text, dimension, span)
+    except QuantityError as error:
+        hint = quantity_hint(text, dimension)
+        if hint is None:
+            raise
+        message = hint if "," in text else f"{error.message}; {hint}"
+        raise QuantityError(message, error.span) from None
 
 
 def _case_fix(unit: str, dimension: str) -> str | None:

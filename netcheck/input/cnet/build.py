@@ -24,7 +24,7 @@ from netcheck.input.poles import (
     infer_poles,
     poles_from_part,
 )
-from netcheck.input.quantity_hints import quantity_hint
+from netcheck.input.quantity_hints import parse_with_hint
 from netcheck.input.waivers import check_waiver_targets
 from netcheck.kinds import (
     COIL_KEYS,
@@ -47,7 +47,7 @@ from netcheck.model import (
     SwitchingElement,
 )
 from netcheck.source import Span
-from netcheck.units import check_sign, parse_quantity
+from netcheck.units import check_sign
 
 __all__ = ["load_cnet"]
 
@@ -61,7 +61,7 @@ def _parse_value(key: str, text: str, span: Span, quoted: bool) -> Any:
     base = key.rsplit(".", 1)[-1]
     dimension = QUANTITY_KEYS.get(base)
     if dimension is not None:
-        quantity = _quantity(text, dimension, span)
+        quantity = parse_with_hint(text, dimension, span)
         check_sign(key, quantity, span)
         return quantity
     allowed = choices(base)
@@ -78,17 +78,6 @@ def _parse_value(key: str, text: str, span: Span, quoted: bool) -> Any:
     if allowed == ("yes", "no"):
         return text == "yes"
     return text
-
-
-def _quantity(text: str, dimension: str, span: Span) -> Any:
-    try:
-        return parse_quantity(text, dimension, span)
-    except QuantityError as error:
-        hint = quantity_hint(text, dimension)
-        if hint is None:
-            raise
-        message = hint if "," in text else f"{error.message}; {hint}"
-        raise QuantityError(message, error.span) from None
 
 
 def _allowed_keys(kind: str) -> list[str]:
