@@ -47,10 +47,9 @@ def quantity_hint(text: str, dimension: str) -> str | None:
         return None
     number += space
     also = f" (or {number}Ω)" if spelling.endswith("ohm") and len(spelling) < 5 else ""
-    return (
-        "units are case-sensitive (m is milli, M is mega): "
-        f"write {number}{spelling}{also}"
-    )
+    # Name the prefix rule only where a prefix letter is in play.
+    prefixes = " (m is milli, M is mega)" if unit[0] in "mM" and len(unit) > 1 else ""
+    return f"units are case-sensitive{prefixes}: write {number}{spelling}{also}"
 
 
 def parse_with_hint(
@@ -71,7 +70,7 @@ def _case_fix(unit: str, dimension: str) -> str | None:
     if len(unit) > _MAX_LETTERS:
         return None
     want = Q_(1, DIMENSIONS[dimension]).dimensionality
-    found: list[tuple[int, str]] = []
+    found: list[tuple[bool, int, str]] = []
     for variant in _variants(unit):
         if variant == unit:
             continue
