@@ -11,9 +11,9 @@ size gets its own peak-memory figure (``ru_maxrss``) and no cache of one size
 helps the next. In the subprocess, after a warm-up on a tiny design (grammar
 compiled, rule catalogue loaded), each repeat times:
 
-- ``parse``: ``netcheck.parse.parse_text`` over every ``.cnet`` file of the
+- ``parse``: ``netcheck.input.cnet.parse.parse_text`` over every ``.cnet`` file of the
   design (syntax only; a part of ``load``);
-- ``load``: ``netcheck.design.load_design`` (reading, parsing, includes, part
+- ``load``: ``netcheck.input.load_design`` (reading, parsing, includes, part
   library, attributes, poles -> Netlist);
 - ``analysis``: ``netcheck.graph.build_graph`` + ``netcheck.analysis.elements.analyse``;
 - ``rules``: ``netcheck.pipeline.run_checks``;
@@ -77,9 +77,9 @@ def _measure_once(top: Path, texts: dict[str, str], bare: Any) -> dict[str, Any]
     """Time every stage once on the design whose top file is ``top``."""
     from netcheck.analysis.elements import analyse
     from netcheck.catalogue import load_catalogue
-    from netcheck.design import load_design
     from netcheck.graph import build_graph
-    from netcheck.parse import parse_text
+    from netcheck.input import load_design
+    from netcheck.input.cnet.parse import parse_text
     from netcheck.pipeline import run_checks
     from netcheck.report import Report
     from netcheck.report.json import render_json

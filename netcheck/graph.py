@@ -7,6 +7,12 @@ from dataclasses import dataclass, field
 
 import networkx as nx
 
+from netcheck.kinds import (
+    COIL_KINDS,
+    NON_CONDUCTING_KINDS,
+    PROTECTIVE_KINDS,
+    SWITCHING_KINDS,
+)
 from netcheck.model import Component, Netlist, SwitchingElement
 
 __all__ = [
@@ -16,8 +22,6 @@ __all__ = [
     "build_graph",
     "ROLE",
     "BRANCH",
-    "SUPPRESSOR_KINDS",
-    "NON_CONDUCTING",
 ]
 
 # Edge attribute keys.
@@ -26,11 +30,6 @@ BRANCH = "branch"
 
 # Roles of branches.
 SUPPLY, SWITCH, CONDUCTOR, LOAD, COIL = "supply", "switch", "conductor", "load", "coil"
-SUPPRESSOR_KINDS = frozenset(
-    {"diode", "zener", "tvs", "varistor", "rc", "capacitor", "resistor"}
-)
-# Branches that carry no current in a DC steady state and do not join domains.
-NON_CONDUCTING = frozenset({"capacitor", "rc", "varistor", "tvs"})
 
 
 @dataclass(frozen=True)
@@ -94,19 +93,19 @@ def _component_branches(component: Component) -> Iterator[Branch]:
         if net(a) and net(b):
             yield Branch(component, SUPPLY, net(a), net(b))  # type: ignore[arg-type]
         return
-    if kind in ("relay", "contactor") and net("A1") and net("A2"):
+    if kind in COIL_KINDS and net("A1") and net("A2"):
         yield Branch(component, COIL, net("A1"), net("A2"))  # type: ignore[arg-type]
     for element in component.elements:
         a, b = net(element.a), net(element.b)
         if a and b:
             yield Branch(component, SWITCH, a, b, element)
-    if kind in ("fuse", "breaker"):
+    if kind in PROTECTIVE_KINDS:
         for pole in component.poles:
             a, b = net(pole.common), net(pole.no or "")
             if a and b:
                 yield Branch(component, CONDUCTOR, a, b)
         return
-    if kind in ("relay", "contactor", "switch", "ssr", "output"):
+    if kind in SWITCHING_KINDS:
         return
     terminals = [c.terminal for c in component.connections]
     if len(terminals) == 2:
@@ -149,7 +148,7 @@ def build_graph(netlist: Netlist) -> Graph:
         graph.add_edge(
             branch.a, branch.b, key=branch.key, **{ROLE: branch.role, BRANCH: branch}
         )
-        if branch.role not in NON_CONDUCTING:
+        if branch.role not in NON_CONDUCTING_KINDS:
             joining.add_edge(branch.a, branch.b)
     domains, domain_of = [], {}
     supplies_at: dict[str, list[Component]] = {}

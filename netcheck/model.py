@@ -12,9 +12,6 @@ from typing import Any
 from netcheck.source import Span
 
 __all__ = [
-    "KINDS",
-    "SWITCHING_KINDS",
-    "POLE_KINDS",
     "Attribute",
     "Connection",
     "Part",
@@ -25,28 +22,6 @@ __all__ = [
     "Supply",
     "Netlist",
 ]
-
-# The component kinds of the language (language.md, "Component kinds").
-KINDS: tuple[str, ...] = (
-    "supply",
-    "relay",
-    "contactor",
-    "switch",
-    "ssr",
-    "output",
-    "load",
-    "resistor",
-    "capacitor",
-    "diode",
-    "zener",
-    "tvs",
-    "varistor",
-    "rc",
-    "fuse",
-    "breaker",
-)
-POLE_KINDS = frozenset({"relay", "contactor", "switch"})
-SWITCHING_KINDS = POLE_KINDS | {"ssr", "output"}
 
 
 @dataclass(frozen=True)
@@ -166,6 +141,7 @@ class Waiver:
     target: str
     reason: str
     span: Span
+    target_span: Span | None = None
 
 
 @dataclass(frozen=True)

@@ -11,9 +11,9 @@ from netcheck.analysis.elements import Analysis, analyse
 from netcheck.catalogue import RuleMeta, load_catalogue, verify_catalogue
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import all_checks
-from netcheck.design import load_design
 from netcheck.findings import Finding, fingerprint
 from netcheck.graph import build_graph
+from netcheck.input import load_design
 from netcheck.model import Netlist, Waiver
 
 __all__ = ["CheckOptions", "CheckResult", "check_path", "analyse_path", "run_checks"]

@@ -9,8 +9,8 @@ import pint
 import pytest
 
 from netcheck.analysis.elements import Analysis, analyse
-from netcheck.design import load_design
 from netcheck.graph import build_graph
+from netcheck.input import load_design
 from netcheck.model import Netlist
 from netcheck.pipeline import run_checks
 

@@ -5,10 +5,12 @@ from __future__ import annotations
 import pytest
 
 from netcheck.errors import InputError, InputErrors
-from netcheck.parts import parse_library
+from netcheck.input.parts import parse_library
 
 HEAD = "format: netcheck-parts/1\nnote: Illustrative values for the tests.\nparts:\n"
-RELAY = HEAD + """\
+RELAY = (
+    HEAD
+    + """\
   gp-relay-10a:
     kind: relay
     coil: {supply: dc, voltage: 24 V, resistance: 640 ohm, inductance: 1.1 H}
@@ -19,6 +21,7 @@ RELAY = HEAD + """\
         - {category: AC-15, voltage: 230 V, current: 3 A}
         - {category: DC-13, voltage: 24 V, current: 1 A}
 """
+)
 
 
 def _errors(text: str) -> list[tuple[str, int, int]]:
@@ -39,7 +42,9 @@ def test_valid_library_converts_quantities() -> None:
 
 
 def test_wrong_dimension_names_key_path_and_line() -> None:
-    bad = RELAY.replace("{category: DC-13, voltage: 24 V", "{category: DC-13, voltage: 3 A")
+    bad = RELAY.replace(
+        "{category: DC-13, voltage: 24 V", "{category: DC-13, voltage: 3 A"
+    )
     [(message, line, column)] = _errors(bad)
     assert message.startswith("parts.gp-relay-10a.contacts.ratings[1].voltage:")
     assert "expected a voltage" in message and (line, column) == (12, 29)
@@ -61,12 +66,19 @@ def test_bare_number_quantity_is_refused() -> None:
     ("text", "fragment"),
     [
         (HEAD + "  a: {kind: diode}\n  a: {kind: diode}\n", "duplicate key"),
-        ("format: netcheck-parts/1\nparts: !!python/object:os.system {}\n", "not allowed"),
+        (
+            "format: netcheck-parts/1\nparts: !!python/object:os.system {}\n",
+            "not allowed",
+        ),
         ("format: [unclosed\n", "invalid YAML"),
         ("format: netcheck-parts/2\nparts: {}\n", "format"),
         ("parts: {}\n", "format"),
-        (HEAD + "  r: {kind: relay, contacts: {ratings: [{category: DC-99x, voltage: 1 V,"
-                " current: 1 A}]}}\n", "category"),
+        (
+            HEAD
+            + "  r: {kind: relay, contacts: {ratings: [{category: DC-99x, voltage: 1 V,"
+            " current: 1 A}]}}\n",
+            "category",
+        ),
     ],
 )
 def test_broken_libraries_give_located_errors(text: str, fragment: str) -> None:
@@ -83,3 +95,11 @@ def test_alias_bomb_is_refused_quickly() -> None:
         lines.append(f"a{i}: &a{i} [{refs}]")
     errors = _errors("\n".join(lines) + "\n")
     assert any("too large" in message for message, _, _ in errors)
+
+
+def test_unit_case_slip_in_a_library_says_what_to_write() -> None:
+    bad = RELAY.replace("inductance: 1.1 H", "inductance: 1.1 h")  # h is the hour
+    [(message, line, column)] = _errors(bad)
+    assert message.startswith("parts.gp-relay-10a.coil.inductance:")
+    assert message.endswith("write 1.1 H")
+    assert (line, column) == (6, bad.splitlines()[5].index("inductance") + 1)

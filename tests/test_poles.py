@@ -10,8 +10,8 @@ from __future__ import annotations
 
 import pytest
 
+from netcheck.input.poles import infer_poles
 from netcheck.model import Pole
-from netcheck.poles import infer_poles
 
 
 @pytest.mark.parametrize(
@@ -21,8 +21,10 @@ from netcheck.poles import infer_poles
         (["21", "22"], [Pole("21", nc="22")]),
         (["11", "12", "14"], [Pole("11", no="14", nc="12")]),
         (["11", "14"], [Pole("11", no="14")]),  # a changeover used as NO
-        (["1", "2", "3", "4", "5", "6"], [Pole("1", no="2"), Pole("3", no="4"),
-                                          Pole("5", no="6")]),
+        (
+            ["1", "2", "3", "4", "5", "6"],
+            [Pole("1", no="2"), Pole("3", no="4"), Pole("5", no="6")],
+        ),
         (["67", "68"], [Pole("67", no="68")]),  # special-function NO (from memory)
         (["55", "56"], [Pole("55", nc="56")]),  # special-function NC (from memory)
     ],
@@ -34,11 +36,17 @@ def test_convention(terminals: list[str], poles: list[Pole]) -> None:
 
 @pytest.mark.parametrize(
     ("terminals", "unexplained"),
-    [(["13", "24"], ["13", "24"]), (["13"], ["13"]), (["X1"], ["X1"]), (["1"], ["1"]),
-     (["A1", "A2"], [])],
+    [
+        (["13", "24"], ["13", "24"]),
+        (["13"], ["13"]),
+        (["X1"], ["X1"]),
+        (["1"], ["1"]),
+        (["A1", "A2"], []),
+    ],
 )
-def test_unexplained_terminals_are_named(terminals: list[str], unexplained: list[str]
-                                         ) -> None:
+def test_unexplained_terminals_are_named(
+    terminals: list[str], unexplained: list[str]
+) -> None:
     assert infer_poles(terminals, has_coil=True)[1] == unexplained
 
 

@@ -19,6 +19,7 @@ from netcheck.analysis.circuit import Diode, Resistor, Solution, solve_dc
 from netcheck.analysis.constants import SILICON_DIODE_CONDUCTION_VF
 from netcheck.analysis.loads import LoadFacts, load_facts
 from netcheck.graph import COIL, CONDUCTOR, LOAD, SUPPLY, SWITCH, Branch, Domain
+from netcheck.kinds import RECTIFYING_KINDS
 
 __all__ = [
     "DomainState",
@@ -160,7 +161,7 @@ def _rails(domain: Domain, group: dict[str, str]) -> tuple[dict, dict, dict, lis
 def _internal_components(state: DomainState) -> list[set[str]]:
     graph = nx.Graph()
     for branch in state.resistive + [
-        b for b in state.domain.branches if b.kind in ("diode", "zener", "tvs")
+        b for b in state.domain.branches if b.kind in RECTIFYING_KINDS
     ]:
         ga, gb = state.group[branch.a], state.group[branch.b]
         for g in (ga, gb):

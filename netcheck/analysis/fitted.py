@@ -19,7 +19,6 @@ from netcheck.model import Component
 from netcheck.units import Q_
 
 __all__ = [
-    "SEMICONDUCTOR",
     "Fitted",
     "effective",
     "unsuppressed_loads",
@@ -29,7 +28,6 @@ __all__ = [
     "standing_voltage",
 ]
 
-SEMICONDUCTOR = ("ssr", "output")
 
 
 @dataclass(frozen=True)

@@ -6,7 +6,8 @@ from collections import Counter
 from collections.abc import Iterable, Mapping, Sequence
 from dataclasses import dataclass
 
-from netcheck.graph import SUPPRESSOR_KINDS, Branch
+from netcheck.graph import Branch
+from netcheck.kinds import RECTIFYING_KINDS, SUPPRESSOR_KINDS
 
 __all__ = ["Chain", "find_chains", "chain_kind"]
 
@@ -97,8 +98,7 @@ def find_chains(
             polarity = {
                 b.key: _polarity(b, nets[i])
                 for i, b in enumerate(path)
-                if b.kind in ("diode", "zener", "tvs")
-                and not b.component.value("bidirectional")
+                if b.kind in RECTIFYING_KINDS and not b.component.value("bidirectional")
             }
             chain = Chain(
                 chain_kind(b.kind for b in path), origin, net, tuple(path), polarity

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 from netcheck.analysis.ratings import Assessment, assess_breaking
 from netcheck.analysis.switched import ElementAnalysis
+from netcheck.kinds import MECHANICAL_KINDS
 
 __all__ = [
     "element_rating",
@@ -13,12 +14,10 @@ __all__ = [
     "rating_values",
 ]
 
-_MECHANICAL = ("relay", "contactor", "switch")
-
 
 def element_rating(element: ElementAnalysis) -> Assessment | None:
     """The verdict on a mechanical DC element's break, or None where none applies."""
-    if element.component.kind not in _MECHANICAL or element.supply != "dc":
+    if element.component.kind not in MECHANICAL_KINDS or element.supply != "dc":
         return None
     if not element.loads or element.voltage is None or element.load_category is None:
         return None

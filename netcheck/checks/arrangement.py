@@ -9,6 +9,7 @@ from netcheck.analysis.verdicts import arrangement_lead, fits_device, rating_val
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding
+from netcheck.kinds import SEMICONDUCTOR_KINDS
 
 __all__ = [
     "polarized_pole_reversed",
@@ -53,7 +54,7 @@ def polarized_pole_bidirectional(ctx: CheckContext) -> Iterator[Finding]:
 
 def _can_break_alone(ctx: CheckContext, element: ElementAnalysis) -> bool | None:
     """Whether the element's device (its series poles included) can break alone."""
-    if element.component.kind in ("ssr", "output"):
+    if element.component.kind in SEMICONDUCTOR_KINDS:
         limit = element.component.value("current_max")
         if limit is None or element.current is None:
             return None

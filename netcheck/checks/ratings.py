@@ -15,6 +15,7 @@ from netcheck.analysis.verdicts import (
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding
+from netcheck.kinds import SEMICONDUCTOR_KINDS
 
 __all__ = [
     "dc_break_ac_only",
@@ -60,7 +61,7 @@ def _outputs_over(
         limit = element.component.value(limit_key)
         value = getattr(element, attribute)
         if (
-            element.component.kind in ("ssr", "output")
+            element.component.kind in SEMICONDUCTOR_KINDS
             and limit is not None
             and (value is not None and value > limit)
         ):

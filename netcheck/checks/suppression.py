@@ -4,12 +4,13 @@ from __future__ import annotations
 
 from collections.abc import Iterator
 
-from netcheck.analysis.fitted import SEMICONDUCTOR, effective, unsuppressed_loads
+from netcheck.analysis.fitted import effective, unsuppressed_loads
 from netcheck.analysis.opening import element_transient, load_transient, zener_release
 from netcheck.analysis.switched import ElementAnalysis, Suppressor
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding, Severity
+from netcheck.kinds import POLARIZED_SUPPRESSORS, SEMICONDUCTOR_KINDS
 from netcheck.units import Q_
 
 __all__ = [
@@ -19,12 +20,10 @@ __all__ = [
     "slow_release_suppression",
 ]
 
-POLARIZED = ("diode", "diode-zener", "zener", "diode-resistor")
-
 
 def _clamp_case(ctx: CheckContext, element: ElementAnalysis) -> tuple[str, dict] | None:
     """For a semiconductor output: ("ok"|"output", values) from its clamp data."""
-    if element.component.kind not in SEMICONDUCTOR:
+    if element.component.kind not in SEMICONDUCTOR_KINDS:
         return None
     rating = element.component.value("clamp_energy")
     model = element_transient(element, None)
@@ -73,7 +72,7 @@ def inductive_load_unsuppressed(ctx: CheckContext) -> Iterator[Finding]:
 
 
 def _polarized(suppressor: Suppressor) -> bool:
-    return suppressor.kind in POLARIZED or (
+    return suppressor.kind in POLARIZED_SUPPRESSORS or (
         suppressor.kind == "tvs"
         and suppressor.chain is not None
         and bool(suppressor.chain.polarity)

@@ -6,12 +6,13 @@ from collections.abc import Iterator
 
 import pint
 
-from netcheck.analysis.fitted import SEMICONDUCTOR, Fitted, element_peak
+from netcheck.analysis.fitted import Fitted, element_peak
 from netcheck.analysis.switched import ElementAnalysis
 from netcheck.analysis.transients import OpeningTransient
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding
+from netcheck.kinds import SEMICONDUCTOR_KINDS
 from netcheck.model import Component
 from netcheck.units import Q_
 
@@ -140,7 +141,7 @@ def peak_voltage_over_rating(ctx: CheckContext) -> Iterator[Finding]:
     """Flag opening peaks above an output's or a snubber capacitor's rating."""
     for element in ctx.switching_elements(supply="dc"):
         rated = element.component.value("voltage_max")
-        if element.component.kind not in SEMICONDUCTOR or rated is None:
+        if element.component.kind not in SEMICONDUCTOR_KINDS or rated is None:
             continue
         opening = element_peak(element)
         peak = opening.peak_voltage if opening is not None else element.voltage

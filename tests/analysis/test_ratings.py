@@ -25,7 +25,7 @@ from netcheck.analysis.ratings import (
     poles_needed,
     t95_of,
 )
-from netcheck.parts import parse_library
+from netcheck.input.parts import parse_library
 from netcheck.units import Q_
 
 # T0.95 = L/R·ln 20: the 95 % rise of an RL current (first principles).

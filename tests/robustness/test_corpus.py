@@ -16,7 +16,7 @@ import pytest
 import yaml
 from robust_helpers import assert_well_behaved, run_cli
 
-from netcheck.design import MAX_FILE_BYTES, MAX_INCLUDE_DEPTH
+from netcheck.input.cnet.read import MAX_FILE_BYTES, MAX_INCLUDE_DEPTH
 
 CORPUS = Path(__file__).resolve().parent / "corpus"
 LONG = os.environ.get("NETCHECK_FUZZ_LONG") == "1"

@@ -37,10 +37,10 @@ from hypothesis import strategies as st
 from robust_helpers import SAMPLES, assert_well_behaved, run_cli, sample_names
 
 from netcheck.attributes import QUANTITY_KEYS
-from netcheck.design import MAX_INCLUDE_DEPTH
 from netcheck.errors import InputError
+from netcheck.input.cnet.read import MAX_INCLUDE_DEPTH
+from netcheck.input.parts import parse_library
 from netcheck.model import Part
-from netcheck.parts import parse_library
 from netcheck.units import DIMENSIONS, parse_quantity
 
 LONG = os.environ.get("NETCHECK_FUZZ_LONG") == "1"

@@ -16,9 +16,10 @@ from pathlib import Path
 import pytest
 from robust_helpers import assert_well_behaved, run_cli, time_limit
 
-from netcheck.design import MAX_FILE_BYTES, MAX_INCLUDE_DEPTH, load_design
 from netcheck.errors import InputError, QuantityError
-from netcheck.parse import parse_text
+from netcheck.input import load_design
+from netcheck.input.cnet.parse import parse_text
+from netcheck.input.cnet.read import MAX_FILE_BYTES, MAX_INCLUDE_DEPTH
 from netcheck.source import Span, excerpt, register_text
 from netcheck.units import parse_quantity
 from netcheck.yamlsafe import MAX_DEPTH, MAX_NODES, load_located_yaml

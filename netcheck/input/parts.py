@@ -11,6 +11,7 @@ import jsonschema
 
 from netcheck.attributes import QUANTITY_KEYS
 from netcheck.errors import InputError, InputErrors, PartsError, QuantityError
+from netcheck.input.quantity_hints import parse_with_hint
 from netcheck.model import Part
 from netcheck.resources import data_path
 from netcheck.units import check_sign, parse_quantity
@@ -26,7 +27,7 @@ _NON_QUANTITY = {"category", "material", "form", "supply", "suppression", "kind"
 def _validator() -> jsonschema.protocols.Validator:
     path = data_path("schema", "parts.schema.json")
     if not path.is_file():
-        path = Path(__file__).parent / "schema" / "parts.schema.json"
+        path = Path(__file__).parent.parent / "schema" / "parts.schema.json"
     schema = json.loads(path.read_text(encoding="utf-8"))
     checker = jsonschema.FormatChecker()
     for dimension in set(QUANTITY_KEYS.values()):
@@ -41,7 +42,7 @@ def _format_check(dimension: str):  # type: ignore[no-untyped-def]
             return True
         if not isinstance(value, str):
             return True  # the "type" keyword reports it
-        parse_quantity(value, dimension)
+        parse_with_hint(value, dimension)
         return True
 
     return check

@@ -10,6 +10,12 @@ from lark import Lark, Token, Transformer, Tree, UnexpectedInput, v_args
 from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedToken
 
 from netcheck.errors import InputError, InputErrors, SyntaxInputError
+from netcheck.input.cnet.messages import (
+    CHARACTER_HINTS,
+    STATE_EXAMPLES,
+    SYNTAX_MESSAGES,
+)
+from netcheck.input.cnet.slips import slip
 from netcheck.resources import read_text
 from netcheck.source import Span, register_text
 
@@ -25,49 +31,6 @@ __all__ = [
 ]
 
 MAX_ERRORS = 20
-
-# Friendly messages for syntax errors, each with tiny inputs that produce it.
-# The table is also the test of these messages (tests/test_parse_errors.py).
-SYNTAX_MESSAGES: dict[str, list[str]] = {
-    "a component statement needs a reference after its kind (e.g. 'relay K1')": [
-        "relay",
-        "relay\n",
-    ],
-    "expected 'key=value' or 'terminal:net'": [
-        "relay K1 A1",
-        "relay K1 A1 A2:M",
-        "relay K1 A1:N3 A2",
-        "load Y1 R=10ohm R",
-    ],
-    "expected a net name after ':'": [
-        "relay K1 A1:",
-        "relay K1 A1:\n",
-        'relay K1 A1:"x"',
-    ],
-    "expected a value after '='": ["load Y1 R=", "load Y1 R=\n", "load Y1 R=10ohm="],
-    "'title', 'parts' and 'include' take one quoted string": [
-        "title foo",
-        "parts x.yaml",
-        'include "a" "b"',
-        "title",
-        'title "a" b',
-        "include",
-    ],
-    "waive takes a rule, a reference or element, and a quoted reason": [
-        "waive",
-        "waive rule-x",
-        "waive rule-x K1",
-        "waive rule-x K1 reason",
-        'waive rule-x K1 "r" more',
-        "waive rule-x K1:",
-    ],
-}
-
-_CHARACTER_HINTS = {
-    '"': "unterminated or misplaced string (strings are double-quoted on one line)",
-    "=": "unexpected '=' (write key=value with no spaces around '=')",
-    ":": "unexpected ':' (write terminal:net with no spaces around ':')",
-}
 
 
 @dataclass(frozen=True)
@@ -125,7 +88,8 @@ class SourceFile:
 
 
 @lru_cache(maxsize=1)
-def _parser() -> Lark:
+def parser() -> Lark:
+    """The .cnet LALR parser (built once)."""
     return Lark(
         read_text("grammar", "cnet.lark"),
         parser="lalr",
@@ -139,7 +103,8 @@ def _span(file: str, token: Token | Tree) -> Span:
     return Span(file, meta.line, meta.column, meta.end_line, meta.end_column)
 
 
-def _unquote(token: Token) -> str:
+def unquote(token: Token) -> str:
+    """The text of a STRING token, quotes and escapes removed."""
     body = str(token)[1:-1]
     out, i = [], 0
     while i < len(body):
@@ -160,7 +125,7 @@ class _ToStatements(Transformer):
 
     def _file_statement(self, keyword: str, meta: Tree, string: Token) -> FileStatement:
         return FileStatement(
-            keyword, _unquote(string), _span(self.file, meta), _span(self.file, string)
+            keyword, unquote(string), _span(self.file, meta), _span(self.file, string)
         )
 
     @v_args(tree=True)
@@ -186,7 +151,7 @@ class _ToStatements(Transformer):
         return WaiveStatement(
             str(rule),
             target,
-            _unquote(reason),
+            unquote(reason),
             _span(self.file, tree),
             target_span,
             _span(self.file, reason),
@@ -195,7 +160,7 @@ class _ToStatements(Transformer):
     def _value_of(self, tree: Tree) -> tuple[str, bool, Span]:
         token = tree.children[0]
         quoted = token.type == "STRING"
-        text = _unquote(token) if quoted else str(token)
+        text = unquote(token) if quoted else str(token)
         return text, quoted, _span(self.file, token)
 
     def _joined(self, tree: Tree, first: Token, last: Token, sign: str) -> Span:
@@ -270,20 +235,23 @@ def _examples() -> dict[str, list[str]]:
     return {
         message: [p + e for p in prefixes for e in examples]
         for message, examples in SYNTAX_MESSAGES.items()
+    } | {
+        message: [p + e for p in prefixes for e in SYNTAX_MESSAGES[message] + more]
+        for message, more in STATE_EXAMPLES.items()
     }
 
 
 def _message(error: UnexpectedInput) -> str:
     if isinstance(error, UnexpectedCharacters):
         char = error.char
-        hint = _CHARACTER_HINTS.get(char)
+        hint = CHARACTER_HINTS.get(char)
         if hint:
             return hint
         if char in " \t":
             return "unexpected white space"
         return f"unexpected character {char!r} (names use A-Z a-z 0-9 _ + - . / ~ ! *)"
     label = error.match_examples(
-        _parser().parse, _examples(), use_accepts=True, token_type_match_fallback=True
+        parser().parse, _examples(), use_accepts=True, token_type_match_fallback=True
     )
     if label:
         return str(label)
@@ -362,12 +330,13 @@ def _syntax_errors(text: str, file: str) -> tuple[Tree | None, list[InputError]]
     work, offset = text, 0
     while True:
         try:
-            tree = _parser().parse(work)
+            tree = parser().parse(work)
             return (tree if not errors else None), errors
         except UnexpectedInput as error:
             span = _error_span(file, error, work)
-            errors.append(SyntaxInputError(_message(error), _shifted(span, offset)))
             lines = work.split("\n")
+            message, span = slip(lines, span) or (_message(error), span)
+            errors.append(SyntaxInputError(message, _shifted(span, offset)))
             rest = _statement_lines(lines, span.line).stop
             if len(errors) >= MAX_ERRORS or rest > len(lines):
                 return None, errors

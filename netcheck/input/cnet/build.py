@@ -1,22 +1,13 @@
-"""Read a whole design: includes, part libraries, attributes, poles -> Netlist."""
+"""Build the model from a .cnet design's statements: attributes, parts, poles."""
 
 from __future__ import annotations
 
 import difflib
-import os
 from collections.abc import Mapping, Sequence
-from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Any
 
-from netcheck.attributes import (
-    COIL_KEYS,
-    CONTACT_KEYS,
-    KIND_ATTRIBUTES,
-    KIND_TERMINALS,
-    QUANTITY_KEYS,
-    choices,
-)
+from netcheck.attributes import QUANTITY_KEYS, choices
 from netcheck.errors import (
     IncludeError,
     InputError,
@@ -25,142 +16,40 @@ from netcheck.errors import (
     QuantityError,
     UnknownKindError,
 )
-from netcheck.model import (
+from netcheck.input.cnet.parse import ComponentStatement
+from netcheck.input.cnet.read import Reader, read_libraries
+from netcheck.input.poles import (
+    check_terminals,
+    elements_of,
+    infer_poles,
+    poles_from_part,
+)
+from netcheck.input.quantity_hints import parse_with_hint
+from netcheck.input.waivers import check_waiver_targets
+from netcheck.kinds import (
+    COIL_KEYS,
+    COIL_KINDS,
+    CONTACT_KEYS,
+    KIND_ATTRIBUTES,
+    KIND_TERMINALS,
     KINDS,
+    OUTPUT_TERMINALS,
     POLE_KINDS,
+    PROTECTIVE_KINDS,
+    SEMICONDUCTOR_KINDS,
+)
+from netcheck.model import (
     Attribute,
     Component,
     Connection,
     Netlist,
     Part,
     SwitchingElement,
-    Waiver,
 )
-from netcheck.parse import (
-    ComponentStatement,
-    FileStatement,
-    WaiveStatement,
-    decode_source,
-    parse_text,
-)
-from netcheck.parts import load_library
-from netcheck.poles import check_terminals, elements_of, infer_poles, poles_from_part
 from netcheck.source import Span
-from netcheck.units import check_sign, parse_quantity
+from netcheck.units import check_sign
 
-__all__ = ["load_design", "read_design_text", "MAX_FILE_BYTES", "MAX_INCLUDE_DEPTH"]
-
-MAX_FILE_BYTES = 32 * 1024 * 1024
-MAX_INCLUDE_DEPTH = 16
-
-
-@dataclass
-class _Reader:
-    root: Path
-    allow_outside: bool
-    display_base: Path
-    errors: list[InputError] = field(default_factory=list)
-    statements: list[ComponentStatement] = field(default_factory=list)
-    waivers: list[Waiver] = field(default_factory=list)
-    libraries: list[tuple[Path, Span | None]] = field(default_factory=list)
-    files: list[str] = field(default_factory=list)
-    title: str | None = None
-    title_span: Span | None = None
-
-    def display(self, path: Path) -> str:
-        try:
-            return Path(os.path.relpath(path, self.display_base)).as_posix()
-        except ValueError:
-            return path.as_posix()
-
-    def resolve(self, base: Path, text: str, span: Span, what: str) -> Path | None:
-        try:
-            target = (base.parent / text).resolve()
-        except (RuntimeError, OSError) as problem:  # a symbolic-link loop
-            self.errors.append(IncludeError(f"{what} {text!r}: {problem}", span))
-            return None
-        if not self.allow_outside and not target.is_relative_to(self.root):
-            self.errors.append(
-                IncludeError(
-                    f"{what} {text!r} is outside the design's folder "
-                    f"({self.display(self.root)}); --allow-outside permits it",
-                    span,
-                )
-            )
-            return None
-        if not target.is_file():
-            self.errors.append(IncludeError(f"{what} {text!r} not found", span))
-            return None
-        return target
-
-    def read(self, path: Path, chain: tuple[Path, ...], span: Span | None) -> None:
-        display = self.display(path)
-        if path in chain:
-            cycle = " -> ".join(self.display(p) for p in (*chain, path))
-            self.errors.append(IncludeError(f"include cycle: {cycle}", span))
-            return
-        if len(chain) > MAX_INCLUDE_DEPTH:
-            self.errors.append(
-                IncludeError(f"includes nested deeper than {MAX_INCLUDE_DEPTH}", span)
-            )
-            return
-        if path.stat().st_size > MAX_FILE_BYTES:
-            self.errors.append(
-                InputError(f"{display} is larger than {MAX_FILE_BYTES} bytes", span)
-            )
-            return
-        self.files.append(display)
-        try:
-            parsed = parse_text(decode_source(path.read_bytes(), display), display)
-        except InputErrors as errors:
-            self.errors.extend(errors.errors)
-            return
-        except InputError as error:
-            self.errors.append(error)
-            return
-        for statement in parsed.statements:
-            self.statement(statement, path, (*chain, path))
-
-    def statement(self, statement: object, path: Path, chain: tuple[Path, ...]) -> None:
-        if isinstance(statement, ComponentStatement):
-            self.statements.append(statement)
-        elif isinstance(statement, WaiveStatement):
-            if not statement.reason.strip():
-                self.errors.append(
-                    InputError(
-                        "a waiver needs a non-empty reason", statement.reason_span
-                    )
-                )
-            self.waivers.append(
-                Waiver(
-                    statement.rule, statement.target, statement.reason, statement.span
-                )
-            )
-        elif isinstance(statement, FileStatement):
-            self.file_statement(statement, path, chain)
-
-    def file_statement(
-        self, statement: FileStatement, path: Path, chain: tuple[Path, ...]
-    ) -> None:
-        if statement.keyword == "title":
-            if self.title_span is not None:
-                self.errors.append(
-                    InputError(
-                        f"a second title (the first is at {self.title_span})",
-                        statement.span,
-                    )
-                )
-            self.title, self.title_span = statement.text, statement.span
-        elif statement.keyword == "parts":
-            target = self.resolve(
-                path, statement.text, statement.text_span, "part library"
-            )
-            if target is not None:
-                self.libraries.append((target, statement.text_span))
-        else:
-            target = self.resolve(path, statement.text, statement.text_span, "include")
-            if target is not None:
-                self.read(target, chain, statement.text_span)
+__all__ = ["load_cnet"]
 
 
 def _close(word: str, options: Sequence[str]) -> str:
@@ -172,7 +61,7 @@ def _parse_value(key: str, text: str, span: Span, quoted: bool) -> Any:
     base = key.rsplit(".", 1)[-1]
     dimension = QUANTITY_KEYS.get(base)
     if dimension is not None:
-        quantity = parse_quantity(text, dimension, span)
+        quantity = parse_with_hint(text, dimension, span)
         check_sign(key, quantity, span)
         return quantity
     allowed = choices(base)
@@ -195,7 +84,7 @@ def _allowed_keys(kind: str) -> list[str]:
     keys = list(KIND_ATTRIBUTES[kind])
     if kind in POLE_KINDS:
         keys += [f"contacts.{k}" for k in CONTACT_KEYS]
-        if kind != "switch":
+        if kind in COIL_KINDS:
             keys += [f"coil.{k}" for k in COIL_KEYS]
     return keys
 
@@ -312,8 +201,8 @@ class _Builder:
         kind = statement.kind
         used = [c.terminal for c in connections]
         spans = {c.terminal: c.span for c in connections}
-        has_coil = kind in ("relay", "contactor")
-        if kind in ("fuse", "breaker"):
+        has_coil = kind in COIL_KINDS
+        if kind in PROTECTIVE_KINDS:
             return self.protective_poles(statement, connections)
         if kind not in POLE_KINDS:
             return (), self.output_elements(statement, connections)
@@ -355,10 +244,10 @@ class _Builder:
     def output_elements(
         self, statement: ComponentStatement, connections: Sequence[Connection]
     ) -> tuple:
-        if statement.kind not in ("ssr", "output") or len(connections) != 2:
+        if statement.kind not in SEMICONDUCTOR_KINDS or len(connections) != 2:
             return ()
         terminals = [c.terminal for c in connections]
-        for first, second in (("+", "-"), ("1", "2"), ("Q", "M")):
+        for first, second in OUTPUT_TERMINALS:
             if set(terminals) == {first, second}:
                 return (
                     SwitchingElement(
@@ -398,37 +287,7 @@ class _Builder:
         )
 
 
-def _libraries(reader: _Reader, extra: Sequence[Path]) -> dict[str, Part]:
-    parts: dict[str, Part] = {}
-    for path, span in [*reader.libraries, *((p, None) for p in extra)]:
-        try:
-            parts.update(load_library(path, reader.display(path)))
-        except InputErrors as errors:
-            reader.errors.extend(errors.errors)
-        except InputError as error:
-            if error.span is None:
-                error.span = span
-            reader.errors.append(error)
-    return parts
-
-
-def load_design(
-    path: Path,
-    extra_parts: Sequence[Path] = (),
-    allow_outside: bool = False,
-    display_base: Path | None = None,
-) -> Netlist:
-    """Read the design whose top file is ``path``; raise InputErrors on bad input."""
-    top = path.resolve()
-    reader = _Reader(top.parent, allow_outside, (display_base or Path.cwd()).resolve())
-    if not top.is_file():
-        raise IncludeError(f"{reader.display(top)}: no such file")
-    for extra in extra_parts:
-        if not extra.is_file():
-            raise IncludeError(f"part library {extra}: no such file")
-    reader.read(top, (), None)
-    parts = _libraries(reader, [p.resolve() for p in extra_parts])
-    builder = _Builder(parts, reader.errors)
+def _components(reader: Reader, builder: _Builder) -> list[Component]:
     components: list[Component] = []
     seen: dict[str, Span] = {}
     for statement in reader.statements:
@@ -445,6 +304,27 @@ def load_design(
         component = builder.component(statement)
         if component is not None:
             components.append(component)
+    return components
+
+
+def load_cnet(
+    path: Path,
+    extra_parts: Sequence[Path] = (),
+    allow_outside: bool = False,
+    display_base: Path | None = None,
+) -> Netlist:
+    """Read the design whose top file is ``path``; raise InputErrors on bad input."""
+    top = path.resolve()
+    reader = Reader(top.parent, allow_outside, (display_base or Path.cwd()).resolve())
+    if not top.is_file():
+        raise IncludeError(f"{reader.display(top)}: no such file")
+    for extra in extra_parts:
+        if not extra.is_file():
+            raise IncludeError(f"part library {extra}: no such file")
+    reader.read(top, (), None)
+    parts = read_libraries(reader, [p.resolve() for p in extra_parts])
+    components = _components(reader, _Builder(parts, reader.errors))
+    reader.errors.extend(check_waiver_targets(reader.waivers, components))
     if reader.errors:
         raise InputErrors(reader.errors)
     return Netlist(
@@ -455,13 +335,3 @@ def load_design(
         tuple(reader.files),
         parts,
     )
-
-
-def read_design_text(text: str, file: str = "design.cnet") -> Netlist:
-    """Build a Netlist from text alone (tests and snippets; no includes or parts)."""
-    import tempfile
-
-    with tempfile.TemporaryDirectory() as folder:
-        target = Path(folder) / file
-        target.write_text(text, encoding="utf-8")
-        return load_design(target, display_base=Path(folder))
