@@ -24,6 +24,7 @@ from netcheck.units import parse_quantity
 __all__ = [
     "DIMENSION_KEYWORD",
     "schema_names",
+    "describe",
     "schema_path",
     "schema_text",
     "load_schema",
