@@ -119,17 +119,62 @@ def check_sign(key: str, quantity: pint.Quantity, span: Span | None = None) -> N
         )
 
 
+# SI prefixes by power of ten; a prefix is only ever put on an unprefixed unit.
+_PREFIXES = {
+    -15: "f",
+    -12: "p",
+    -9: "n",
+    -6: "µ",
+    -3: "m",
+    0: "",
+    3: "k",
+    6: "M",
+    9: "G",
+    12: "T",
+}
+
+
+def _base_unit(quantity: pint.Quantity) -> str | None:
+    """The unprefixed unit to print ``quantity`` in, or None for no prefix at all.
+
+    A quantity of a known dimension goes to its SI unit (``ms`` -> ``s``); another
+    single unit loses its prefix (``kWh`` is left alone: it is not one unit).
+    """
+    for unit in DIMENSIONS.values():
+        if unit and quantity.dimensionality == Q_(1, unit).dimensionality:
+            return unit
+    items = list(quantity.unit_items())
+    if len(items) != 1 or items[0][1] != 1:
+        return None
+    names = ureg.parse_unit_name(items[0][0])
+    if len(names) != 1:
+        return None
+    prefix, name, _suffix = names[0]
+    return name if prefix else None
+
+
 def format_quantity(quantity: pint.Quantity, digits: int = 4) -> str:
-    """Format with an engineering prefix: ``Q_(0.0021, 'H')`` -> ``'2.1 mH'``."""
+    """Format with one engineering prefix: ``Q_(0.048, 'ms')`` -> ``'48 µs'``.
+
+    The prefix is chosen from the magnitude in the unprefixed unit, so prefixes
+    never stack (``0.0005 kV`` prints ``500 mV``, not ``500 µkV``).
+    """
+    base = _base_unit(quantity)
+    if base is not None:
+        quantity = quantity.to(base)
     magnitude = float(quantity.magnitude)
     unit = f"{quantity.units:~}"
     symbol = _SYMBOL.get(unit, unit)
     if symbol in ("", "dimensionless"):
         return f"{magnitude:.{digits}g}"
-    if magnitude == 0 or not math.isfinite(magnitude):
-        return f"{magnitude:g} {symbol}"
-    prefixes = {-12: "p", -9: "n", -6: "µ", -3: "m", 0: "", 3: "k", 6: "M", 9: "G"}
+    if base is None or magnitude == 0 or not math.isfinite(magnitude):
+        return f"{magnitude:.{digits}g} {symbol}"
     exponent = int(math.floor(math.log10(abs(magnitude)) / 3) * 3)
-    exponent = max(-12, min(9, exponent))
-    scaled = magnitude / 10**exponent
-    return f"{scaled:.{digits}g} {prefixes[exponent]}{symbol}"
+    if exponent not in _PREFIXES:
+        return f"{magnitude:.{digits}g} {symbol}"
+    scaled = float(f"{magnitude / 10**exponent:.{digits}g}")
+    if abs(scaled) >= 1000 and exponent + 3 in _PREFIXES:
+        # 999.96 m rounds to 1000 m: print it as 1 of the next prefix instead.
+        exponent += 3
+        scaled = float(f"{magnitude / 10**exponent:.{digits}g}")
+    return f"{scaled:.{digits}g} {_PREFIXES[exponent]}{symbol}"

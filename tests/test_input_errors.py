@@ -17,7 +17,7 @@ from netcheck import cli
 from netcheck.errors import InputError, InputErrors
 from netcheck.input.cnet.parse import SYNTAX_MESSAGES, parse_text
 from netcheck.input.cnet.slips import SLIP_EXAMPLES
-from netcheck.input.quantity_hints import quantity_hint
+from netcheck.quantity_hints import quantity_hint
 
 CASES = Path(__file__).resolve().parent / "input_errors"
 MARK = re.compile(r"#\s*error:\s*(?P<text>.*?)\s*@(?P<line>\d+):(?P<col>\d+)\s*$")

@@ -2,18 +2,16 @@
 
 from __future__ import annotations
 
-import json
-from functools import lru_cache
 from pathlib import Path
 from typing import Any
 
 import jsonschema
 
+from netcheck import schema
 from netcheck.attributes import QUANTITY_KEYS
 from netcheck.errors import InputError, InputErrors, PartsError, QuantityError
-from netcheck.input.quantity_hints import parse_with_hint
 from netcheck.model import Part
-from netcheck.resources import data_path
+from netcheck.schema import DIMENSION_KEYWORD
 from netcheck.units import check_sign, parse_quantity
 from netcheck.yamlsafe import LocatedYaml, load_located_yaml
 
@@ -23,29 +21,9 @@ MAX_LIBRARY_BYTES = 8 * 1024 * 1024
 _NON_QUANTITY = {"category", "material", "form", "supply", "suppression", "kind"}
 
 
-@lru_cache(maxsize=1)
 def _validator() -> jsonschema.protocols.Validator:
-    path = data_path("schema", "parts.schema.json")
-    if not path.is_file():
-        path = Path(__file__).parent.parent / "schema" / "parts.schema.json"
-    schema = json.loads(path.read_text(encoding="utf-8"))
-    checker = jsonschema.FormatChecker()
-    for dimension in set(QUANTITY_KEYS.values()):
-        checker.checks(dimension, raises=QuantityError)(_format_check(dimension))
-    cls = jsonschema.validators.validator_for(schema)
-    return cls(schema, format_checker=checker)
-
-
-def _format_check(dimension: str):  # type: ignore[no-untyped-def]
-    def check(value: object) -> bool:
-        if isinstance(value, (int, float)) and dimension == "ratio":
-            return True
-        if not isinstance(value, str):
-            return True  # the "type" keyword reports it
-        parse_with_hint(value, dimension)
-        return True
-
-    return check
+    # The shipped schema checks each quantity's dimension (netcheckDimension).
+    return schema.validator("parts")
 
 
 def _path_text(path: tuple[Any, ...]) -> str:
@@ -62,7 +40,7 @@ def _known(keys: Any) -> str:
 def _schema_message(error: jsonschema.ValidationError) -> tuple[tuple[Any, ...], str]:
     """Return the key path an error is about and a message for it."""
     path = tuple(error.absolute_path)
-    if error.validator == "format" and isinstance(error.cause, QuantityError):
+    if error.validator == DIMENSION_KEYWORD and isinstance(error.cause, QuantityError):
         return path, error.cause.message
     if error.validator == "additionalProperties":
         extra = sorted(set(error.instance) - set(error.schema.get("properties", {})))
@@ -76,9 +54,9 @@ def _schema_message(error: jsonschema.ValidationError) -> tuple[tuple[Any, ...],
         )
     if error.validator == "enum":
         return path, f"{error.instance!r} is not one of {_known(error.validator_value)}"
-    if error.validator == "type" and "format" in error.schema:
+    if error.validator == "type" and DIMENSION_KEYWORD in error.schema:
         return path, (
-            f"expected a {error.schema['format']} with its unit "
+            f"expected a {error.schema[DIMENSION_KEYWORD]} with its unit "
             f"(e.g. '24 V'), got {error.instance!r}"
         )
     if error.validator == "type":
@@ -99,6 +77,8 @@ def _validate(doc: LocatedYaml) -> list[InputError]:
     found: dict[tuple[str, ...], InputError] = {}
     for top in _validator().iter_errors(doc.data):
         for error in _leaf_errors(top):
+            if error.validator == "pattern" and DIMENSION_KEYWORD in error.schema:
+                continue  # the pattern is for editors; the dimension check says more
             path, message = _schema_message(error)
             where = _path_text(path)
             key = tuple(map(str, path))

@@ -19,6 +19,7 @@ from netcheck.catalogue import RuleMeta
 from netcheck.findings import Finding, Severity
 from netcheck.report import Report, fix_dict, references, unique_rules, value_dicts
 from netcheck.report.json import dump
+from netcheck.report.template_words import readable
 
 __all__ = ["SCHEMA_URI", "LEVELS", "render_sarif"]
 
@@ -71,13 +72,17 @@ def _descriptor(meta: RuleMeta) -> dict[str, Any]:
 
 
 def help_text(meta: RuleMeta) -> str:
-    """Join the rationale, the references and the fix template(s) as help text."""
+    """Join the rationale, the references and the fix template(s) as help text.
+
+    Placeholders of the templates read as words (``<breaking current>``): the
+    help is shown before any finding fills them.
+    """
     parts = [meta.rationale]
     if meta.references:
         parts.append("References: " + "; ".join(meta.references) + ".")
     for variant, template in sorted(meta.fixes.items()):
         label = "Fix" if variant == "default" else f"Fix ({variant})"
-        parts.append(f"{label}: {template}")
+        parts.append(f"{label}: {readable(template, meta.name)}")
     return "\n\n".join(parts)
 
 

@@ -20,6 +20,7 @@ from rich.text import Text
 from netcheck.catalogue import RuleMeta
 from netcheck.findings import Finding, Severity, quantity_dict
 from netcheck.report import CAUTION, Report, unique_rules
+from netcheck.report.template_words import readable
 
 __all__ = [
     "render_plain",
@@ -189,9 +190,9 @@ def render_explain(meta: RuleMeta, asked: str) -> str:
     lines += ["", "rationale:", _wrap(meta.rationale)]
     if meta.references:
         lines += ["", "references:", *(f"  - {r}" for r in meta.references)]
-    lines += ["", "message:", *_templates(meta.messages)]
+    lines += ["", "message:", *_templates(meta.messages, meta.name)]
     if meta.fixes:
-        lines += ["", "fix:", *_templates(meta.fixes)]
+        lines += ["", "fix:", *_templates(meta.fixes, meta.name)]
     if meta.margins:
         lines += ["", "margins (configurable under 'margins' in netcheck.yaml):"]
         for name in sorted(meta.margins):
@@ -206,7 +207,9 @@ def _wrap(text: str) -> str:
     return textwrap.fill(text, width=86, initial_indent="  ", subsequent_indent="  ")
 
 
-def _templates(templates: Mapping[str, str]) -> list[str]:
-    if set(templates) == {"default"}:
-        return [f"  {templates['default']}"]
-    return [f"  {variant}: {text}" for variant, text in sorted(templates.items())]
+def _templates(templates: Mapping[str, str], rule: str) -> list[str]:
+    # Placeholders read as words: nothing has filled them yet.
+    shown = {variant: readable(text, rule) for variant, text in templates.items()}
+    if set(shown) == {"default"}:
+        return [f"  {shown['default']}"]
+    return [f"  {variant}: {text}" for variant, text in sorted(shown.items())]

@@ -24,7 +24,6 @@ from netcheck.input.poles import (
     infer_poles,
     poles_from_part,
 )
-from netcheck.input.quantity_hints import parse_with_hint
 from netcheck.input.waivers import check_waiver_targets
 from netcheck.kinds import (
     COIL_KEYS,
@@ -46,6 +45,7 @@ from netcheck.model import (
     Part,
     SwitchingElement,
 )
+from netcheck.quantity_hints import parse_with_hint
 from netcheck.source import Span
 from netcheck.units import check_sign
 
