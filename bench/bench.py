@@ -195,12 +195,17 @@ def _time_cli(top: Path, timeout: float) -> float | None:
 
 
 def measure_size(
-    size: int, repeat: int, timeout: float, cli: bool, keep: Path | None = None
+    size: int,
+    repeat: int,
+    timeout: float,
+    cli: bool,
+    keep: Path | None = None,
+    one_rail: bool = False,
 ) -> dict[str, Any]:
     """Generate a design of ``size`` components and measure it in a subprocess."""
     with tempfile.TemporaryDirectory(prefix=f"netcheck-bench-{size}-") as folder:
         out_dir = (keep / str(size)) if keep is not None else Path(folder)
-        top = gen_design.generate(size, out_dir)
+        top = gen_design.generate(size, out_dir, one_rail=one_rail)
         command = [
             sys.executable,
             str(Path(__file__).resolve()),
@@ -381,6 +386,11 @@ def build_parser() -> argparse.ArgumentParser:
         default=None,
         help="keep the generated designs under this directory",
     )
+    parser.add_argument(
+        "--one-rail",
+        action="store_true",
+        help="generate every rung on one rail pair (one supply, one sheet)",
+    )
     parser.add_argument("--worker", type=Path, help=argparse.SUPPRESS)
     return parser
 
@@ -398,7 +408,9 @@ def main(argv: Sequence[str] | None = None) -> int:
     for size in args.sizes:
         print(f"bench: {size} components ...", file=sys.stderr, flush=True)
         results.append(
-            measure_size(size, args.repeat, args.timeout, args.cli, args.keep)
+            measure_size(
+                size, args.repeat, args.timeout, args.cli, args.keep, args.one_rail
+            )
         )
     _exponents(results)
     print(table(results))

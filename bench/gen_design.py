@@ -277,13 +277,19 @@ def _write(path: Path, lines: Sequence[str]) -> None:
 
 
 def generate(
-    n: int, out_dir: Path, *, seed: int = SEED, hazard_rate: float = 0.01
+    n: int,
+    out_dir: Path,
+    *,
+    seed: int = SEED,
+    hazard_rate: float = 0.01,
+    one_rail: bool = False,
 ) -> Path:
     """Write a design of about ``n`` components under ``out_dir``; return the top file.
 
     The count is exact for ``n`` of a few components per sheet and up. About
     ``hazard_rate`` of the coils and valves have no freewheel diode, so the
-    checks have something to find.
+    checks have something to find. ``one_rail`` puts every rung on one
+    sheet's bus: one supply, one rail pair, the shape of a real cabinet.
     """
     if n < 1:
         raise ValueError("n must be at least 1")
@@ -291,7 +297,7 @@ def generate(
     sheet_dir = out_dir / SHEET_DIR
     sheet_dir.mkdir(parents=True, exist_ok=True)
     rng = random.Random(seed)
-    n_supplies, n_sheets, quotas = _plan(n)
+    n_supplies, n_sheets, quotas = (1, 1, [max(1, n - 2)]) if one_rail else _plan(n)
     supplies = [_supply(i) for i in range(n_supplies)]
     counters: dict[str, int] = {}
     top = [
@@ -338,10 +344,20 @@ def main(argv: Sequence[str] | None = None) -> int:
         default=0.01,
         help="fraction of coils/valves left without a diode (default 0.01)",
     )
+    parser.add_argument(
+        "--one-rail", action="store_true", help="every rung on one rail pair"
+    )
     args = parser.parse_args(argv)
     if args.n < 1:
         parser.error("N must be at least 1")
-    print(generate(args.n, args.out_dir, seed=args.seed, hazard_rate=args.hazards))
+    top = generate(
+        args.n,
+        args.out_dir,
+        seed=args.seed,
+        hazard_rate=args.hazards,
+        one_rail=args.one_rail,
+    )
+    print(top)
     return 0
 
 

@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 from collections import deque
-from collections.abc import Iterable
+from collections.abc import Iterable, Iterator
 
 import networkx as nx
 
@@ -70,27 +70,53 @@ class ZeroOhm:
     def sides(self, key: str, removed: set[str]) -> tuple[set[str], str]:
         """The smaller side of ``key`` once it and ``removed`` are open.
 
-        Returns (nets of that side, "a" or "b": the element terminal it holds).
-        The search runs from both ends in step, so it costs the smaller side.
+        Returns (nets of that side, "a" or "b": the element terminal it holds);
+        an empty set when the two ends stay joined. Side "b" is returned when
+        the two sides hold equally many nets. The searches from both ends
+        advance one edge at a time, so a call costs about the smaller side even
+        when the other end is a rail net with thousands of branches.
         """
         branch = self.by_key[key]
-        skip = removed | {key}
-        seen = {"a": {branch.a}, "b": {branch.b}}
-        queues = {"a": deque([branch.a]), "b": deque([branch.b])}
         if branch.a == branch.b:
             return {branch.a}, "a"
+        skip = removed | {key}
+        seen = {"a": {branch.a}, "b": {branch.b}}
+        steps = {side: self._walk(seen[side], skip) for side in ("a", "b")}
         while True:
-            for side in ("b", "a"):
-                queue = queues[side]
-                if not queue:
-                    return seen[side], side
-                net = queue.popleft()
-                for edge, other in self.adjacent.get(net, ()):
-                    if edge in skip:
-                        continue
-                    if other in seen["a" if side == "b" else "b"]:
-                        # Still joined around the element: nothing is switched.
-                        return set(), side
-                    if other not in seen[side]:
-                        seen[side].add(other)
-                        queues[side].append(other)
+            for side, other_side in (("b", "a"), ("a", "b")):
+                step = next(steps[side], None)
+                if step is None:
+                    return self._settle(seen, steps, side, other_side)
+                if step in seen[other_side]:
+                    return set(), side  # still joined: nothing is switched
+
+    def _walk(self, seen: set[str], skip: set[str]) -> Iterator[str]:
+        """Breadth-first search that yields the far net of every edge it tries."""
+        queue = deque(seen)
+        while queue:
+            net = queue.popleft()
+            for edge, other in self.adjacent.get(net, ()):
+                if edge in skip:
+                    continue
+                yield other
+                if other not in seen:
+                    seen.add(other)
+                    queue.append(other)
+
+    @staticmethod
+    def _settle(
+        seen: dict[str, set[str]],
+        steps: dict[str, Iterator[str]],
+        done: str,
+        other: str,
+    ) -> tuple[set[str], str]:
+        """``done`` is a whole side apart from ``other``: return the smaller."""
+        size = len(seen[done])
+        # "b" wins a tie: the other side must outgrow it strictly to lose.
+        limit = size if done == "b" else size + 1
+        while len(seen[other]) < limit:
+            if next(steps[other], None) is None:
+                break
+        if len(seen[other]) >= limit:
+            return seen[done], done
+        return seen[other], other

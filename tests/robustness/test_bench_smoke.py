@@ -87,3 +87,27 @@ def test_bad_sizes_are_refused(bench: ModuleType, text: str) -> None:
 
     with pytest.raises(argparse.ArgumentTypeError):
         bench._sizes(text)
+
+
+def test_the_one_rail_shape_puts_every_rung_on_one_bus(tmp_path: Path) -> None:
+    """One supply, one fused bus: every rung hangs off the same rail pair."""
+    sys.path.insert(0, str(BENCH.parent))
+    try:
+        import gen_design
+    finally:
+        sys.path.remove(str(BENCH.parent))
+    from netcheck.analysis.elements import analyse
+    from netcheck.design import load_design
+    from netcheck.graph import build_graph
+
+    top = gen_design.generate(300, tmp_path, one_rail=True)
+    netlist = load_design(top, display_base=tmp_path)
+    assert len(netlist.components) == 300
+    kinds = [c for c in netlist.components if c.ref.startswith("G")]
+    assert len(kinds) == 1  # one supply
+    assert len(list((tmp_path / gen_design.SHEET_DIR).glob("*.cnet"))) == 1
+    graph = build_graph(netlist)
+    assert len(graph.domains) == 1  # one supply, one domain
+    analysis = analyse(graph)
+    switches = [b for b in graph.domains[0].branches if b.role == "switch"]
+    assert switches and set(analysis.elements) >= {b.key for b in switches}
