@@ -117,3 +117,15 @@ def test_project_root_without_config_or_git(tmp_path):
     if not any((p / ".git").exists() for p in (tmp_path, *tmp_path.parents)):
         assert project_root([design]) == tmp_path.resolve()
         assert project_root([tmp_path]) == tmp_path.resolve()
+
+
+def test_rerunning_baseline_refreshes_it(project, capsys):
+    # Refreshing a baseline is writing it again: only current findings remain.
+    _drawings(project)
+    assert project.run("baseline", "drawings", "-o", "base.json") == 0
+    project.write("drawings/a.cnet", ERROR + "\n")
+    assert project.run("baseline", "drawings", "-o", "base.json") == 0
+    capsys.readouterr()
+    assert project.run("check", "drawings", "--baseline", "base.json") == 0
+    out = capsys.readouterr().out.splitlines()
+    assert out[0] == "no findings (2 files read, 2 in the baseline)"
