@@ -14,7 +14,7 @@ depend on line numbers, so moving or reformatting statements keeps them.
 from __future__ import annotations
 
 import json
-from collections.abc import Iterable
+from collections.abc import Collection, Iterable
 from pathlib import Path
 from typing import Any
 
@@ -30,6 +30,7 @@ __all__ = [
     "BaselineError",
     "render_baseline",
     "load_baseline",
+    "load_baseline_entries",
     "apply_baseline",
 ]
 
@@ -60,7 +61,7 @@ def render_baseline(findings: Iterable[Finding]) -> str:
 
 
 def apply_baseline(
-    findings: Iterable[Finding], fingerprints: frozenset[str]
+    findings: Iterable[Finding], fingerprints: Collection[str]
 ) -> tuple[list[Finding], int]:
     """Return the findings not in the baseline and how many active ones it hid."""
     kept: list[Finding] = []
@@ -75,6 +76,15 @@ def apply_baseline(
 
 def load_baseline(path: Path) -> frozenset[str]:
     """Read a baseline file's fingerprints; BaselineError (located) if it is broken."""
+    return frozenset(load_baseline_entries(path))
+
+
+def load_baseline_entries(path: Path) -> dict[str, dict[str, str]]:
+    """Read a baseline file's entries by fingerprint; BaselineError if broken.
+
+    Each entry keeps the file's ``fingerprint`` and whichever of ``rule``,
+    ``element`` and ``file`` are strings, so stale entries can be named.
+    """
     shown = display_path(path)
     try:
         text = Path(path).read_text(encoding="utf-8")
@@ -91,7 +101,14 @@ def load_baseline(path: Path) -> frozenset[str]:
     if problem is not None:
         where, message = problem
         raise BaselineError(message, _span_at(shown, text, where))
-    return frozenset(entry["fingerprint"] for entry in data["fingerprints"])
+    return {
+        entry["fingerprint"]: {
+            key: value
+            for key in ("fingerprint", "rule", "element", "file")
+            if isinstance(value := entry.get(key), str)
+        }
+        for entry in data["fingerprints"]
+    }
 
 
 def _problem(data: Any) -> tuple[tuple[str | int, ...], str] | None:

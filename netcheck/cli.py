@@ -9,7 +9,6 @@ from __future__ import annotations
 import argparse
 import importlib
 import os
-import re
 import shutil
 import sys
 from collections.abc import Mapping, Sequence
@@ -20,7 +19,7 @@ from typing import Any
 
 from netcheck import __version__, pipeline
 from netcheck.atomic import write_text_atomic
-from netcheck.baseline import apply_baseline, load_baseline, render_baseline
+from netcheck.baseline import apply_baseline, load_baseline_entries, render_baseline
 from netcheck.catalogue import RuleMeta, load_catalogue
 from netcheck.config import (
     FAIL_ON,
@@ -31,12 +30,13 @@ from netcheck.config import (
     load_config,
 )
 from netcheck.errors import InputError
-from netcheck.findings import Finding, Severity
+from netcheck.findings import Finding, Severity, fingerprint
 from netcheck.pipeline import CheckOptions, CheckResult
-from netcheck.report import Report, display_path, prepare_finding
+from netcheck.report import Report, display_path, display_root
 from netcheck.report.json import render_json
 from netcheck.report.sarif import render_sarif
 from netcheck.report.text import render_explain, render_plain, render_rich, render_rules
+from netcheck.session import included_files, project_root
 
 __all__ = ["main", "build_parser"]
 
@@ -256,26 +256,6 @@ def resolve_rules(
         raise UsageError(f"{option}: {err}") from None
 
 
-# An include statement starts in column 1 (language.md, "Lexical rules").
-_INCLUDE = re.compile(r'^include[ \t]+"((?:[^"\\\r\n]|\\.)*)"', re.MULTILINE)
-
-
-def _included_by(file: Path) -> list[Path]:
-    """Return the files that ``file`` includes, by a cheap scan (no parsing)."""
-    try:
-        text = file.read_text(encoding="utf-8", errors="replace")
-    except OSError:
-        return []  # the pipeline reports the unreadable file properly
-    names = (re.sub(r"\\(.)", r"\1", m.group(1)) for m in _INCLUDE.finditer(text))
-    found = []
-    for name in names:
-        try:
-            found.append((file.parent / name).resolve())
-        except (RuntimeError, OSError):
-            continue  # a symbolic-link loop: the pipeline reports it, located
-    return found
-
-
 def _cnet_files(directory: Path) -> list[Path]:
     """List every ``.cnet`` below ``directory``, skipping hidden directories."""
     found = []
@@ -310,19 +290,19 @@ def discover_designs(paths: Sequence[Path]) -> list[Path]:
         if not found:
             raise UsageError(f"{path}: no .cnet files found below it")
         for file in found:
-            candidates.setdefault(file.resolve(), Path(display_path(file)))
+            candidates.setdefault(file.resolve(), Path(os.path.normpath(file)))
     graph = {
-        key: [t for t in _included_by(key) if t in candidates] for key in candidates
+        key: [t for t in included_files(key) if t in candidates] for key in candidates
     }
     included = {target for targets in graph.values() for target in targets}
-    order = sorted(candidates, key=lambda key: candidates[key].as_posix())
+    order = sorted(candidates, key=lambda key: display_path(candidates[key]))
     tops = [key for key in order if key not in included]
     covered = _reach(tops, graph)
     for key in order:
         if key not in covered:
             tops.append(key)
             covered |= _reach([key], graph)
-    return sorted((candidates[key] for key in tops), key=lambda p: p.as_posix())
+    return sorted((candidates[key] for key in tops), key=display_path)
 
 
 @dataclass(frozen=True)
@@ -334,7 +314,7 @@ class Settings:
     ignore: frozenset[str]
     severity: Mapping[str, Severity]
     options: CheckOptions
-    baseline: frozenset[str] | None
+    baseline: Mapping[str, Mapping[str, str]] | None  # entries by fingerprint
 
 
 def settings_for(
@@ -378,7 +358,9 @@ def _merge(
         ignore=frozenset((*config.ignore, *(ignore or []))),
         severity=dict(config.severity),
         options=options,
-        baseline=load_baseline(baseline_file) if baseline_file is not None else None,
+        baseline=(
+            load_baseline_entries(baseline_file) if baseline_file is not None else None
+        ),
     )
 
 
@@ -431,7 +413,11 @@ def _apply(findings: Sequence[Finding], settings: Settings) -> list[Finding]:
         if finding.rule in settings.ignore:
             continue
         severity = settings.severity.get(finding.rule, finding.severity)
-        out.append(prepare_finding(replace(finding, severity=severity)))
+        # The fingerprint is made again from the project-root display path; the
+        # span keeps its working path until Report.build shows it.
+        shown = display_path(finding.span.file) if finding.span.file else ""
+        mark = fingerprint(finding.rule, shown, finding.element, finding.key)
+        out.append(replace(finding, severity=severity, fingerprint=mark))
     return out
 
 
@@ -448,9 +434,11 @@ def collect(
         raise _CheckErrors(errors)
     findings: list[Finding] = []
     files: set[str] = set()
+    seen: set[str] = set()
     suppressed, failing = 0, False
     for path, setting, result in zip(designs, settings, results, strict=True):
         kept = _apply(result.findings, setting)
+        seen |= {f.fingerprint for f in kept if f.fingerprint}
         if setting.baseline is not None:
             kept, count = apply_baseline(kept, setting.baseline)
             suppressed += count
@@ -460,7 +448,24 @@ def collect(
         )
         findings += kept
         files |= {str(path), *(str(f) for f in result.files)}
-    return Report.build(findings, files, suppressed), failing
+    stale = _stale_entries(settings, seen)
+    return Report.build(findings, files, suppressed, stale), failing
+
+
+def _stale_entries(
+    settings: Sequence[Settings], seen: set[str]
+) -> list[Mapping[str, str]]:
+    """Baseline entries that match no current finding, in baseline order."""
+    entries: dict[str, Mapping[str, str]] = {}
+    for setting in settings:
+        entries.update(setting.baseline or {})
+    return [entry for mark, entry in entries.items() if mark not in seen]
+
+
+def run_root(args: argparse.Namespace) -> Path:
+    """The project root of a run: see :func:`netcheck.session.project_root`."""
+    paths = getattr(args, "paths", None) or [getattr(args, "file", Path("."))]
+    return project_root(paths, getattr(args, "config", None))
 
 
 def _render(
@@ -477,8 +482,9 @@ def _render(
 
 def run_check(args: argparse.Namespace, catalogue: dict[str, RuleMeta]) -> int:
     """``netcheck check``: 1 if a finding reaches --fail-on, else 0."""
-    report, failing = collect(args, catalogue)
-    text = _render(args.format, report, catalogue, terminal_of(args))
+    with display_root(run_root(args)):
+        report, failing = collect(args, catalogue)
+        text = _render(args.format, report, catalogue, terminal_of(args))
     if args.output is not None:
         write_text_atomic(args.output, text)
     else:
@@ -488,7 +494,8 @@ def run_check(args: argparse.Namespace, catalogue: dict[str, RuleMeta]) -> int:
 
 def run_baseline(args: argparse.Namespace, catalogue: dict[str, RuleMeta]) -> int:
     """``netcheck baseline``: write the active findings' fingerprints to -o FILE."""
-    report, _ = collect(args, catalogue)
+    with display_root(run_root(args)):
+        report, _ = collect(args, catalogue)
     write_text_atomic(args.output, render_baseline(report.findings))
     count = len({f.fingerprint for f in report.active})
     print(f"netcheck: wrote {count} fingerprints to {display_path(args.output)}")

@@ -28,7 +28,7 @@ from typing import Any
 from netcheck.catalogue import RuleMeta, all_margins
 from netcheck.errors import ConfigError
 from netcheck.findings import Severity
-from netcheck.report import display_path
+from netcheck.report import display_path, working_path
 from netcheck.yamlsafe import LocatedYaml, load_located_yaml
 
 __all__ = [
@@ -163,7 +163,7 @@ class _Reader:
         path = self.base / self.string(value, where, f"the path of {what}")
         if not path.is_file():
             raise self.fail(f"{what} not found: {display_path(path)}", where)
-        return Path(display_path(path))
+        return working_path(path)
 
     # One method per key; each returns the Config field's value.
     def fail_on(self, value: Any, where: tuple[Any, ...]) -> str:

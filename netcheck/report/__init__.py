@@ -6,11 +6,12 @@ to text; they do no analysis and hold no rule logic.
 
 from __future__ import annotations
 
+import contextlib
 import dataclasses
 import math
 import os
-from collections.abc import Iterable, Mapping
-from dataclasses import dataclass
+from collections.abc import Iterable, Iterator, Mapping
+from dataclasses import dataclass, field
 from pathlib import Path, PurePath
 from typing import Any
 
@@ -27,6 +28,9 @@ __all__ = [
     "CAUTION",
     "Report",
     "display_path",
+    "display_root",
+    "working_path",
+    "project_root_in_use",
     "prepare_finding",
     "unique_rules",
     "value_dicts",
@@ -41,23 +45,64 @@ CAUTION = (
 )
 
 
-def display_path(file: str | os.PathLike[str]) -> str:
-    """Return ``file`` relative to the working directory when inside it, posix style.
+# The project root paths are shown relative to (one for the whole run), set by the
+# session; without one, the working directory.
+_ROOTS: list[Path] = []
 
-    Paths outside the working directory stay absolute (there is no shorter name
-    that means the same file everywhere).
-    """
-    path = Path(file)
-    absolute = Path(os.path.abspath(path))
+
+@contextlib.contextmanager
+def display_root(root: str | os.PathLike[str]) -> Iterator[Path]:
+    """Show paths relative to ``root`` (made absolute) while the block runs."""
+    absolute = Path(os.path.abspath(root))
+    _ROOTS.append(absolute)
     try:
-        relative = absolute.relative_to(Path(os.path.abspath(os.getcwd())))
+        yield absolute
+    finally:
+        _ROOTS.pop()
+
+
+def project_root_in_use() -> Path | None:
+    """The root set by :func:`display_root`, or None (working directory)."""
+    return _ROOTS[-1] if _ROOTS else None
+
+
+def display_path(file: str | os.PathLike[str]) -> str:
+    """Return ``file`` relative to the project root when inside it, posix style.
+
+    A relative ``file`` is taken relative to the working directory. The root is
+    the one :func:`display_root` set, else the working directory. Paths outside
+    the root stay absolute (there is no shorter name that means the same file
+    wherever netcheck runs).
+    """
+    absolute = Path(os.path.abspath(Path(file)))
+    root = project_root_in_use() or Path(os.path.abspath(os.getcwd()))
+    try:
+        relative = absolute.relative_to(root)
     except ValueError:
         return absolute.as_posix()
     return PurePath(relative).as_posix() or "."
 
 
+def working_path(file: str | os.PathLike[str]) -> Path:
+    """Return ``file`` relative to the working directory when inside it.
+
+    For paths that are opened later, not shown: unlike :func:`display_path`
+    this does not depend on the project root.
+    """
+    absolute = Path(os.path.abspath(Path(file)))
+    try:
+        return absolute.relative_to(Path(os.path.abspath(os.getcwd())))
+    except ValueError:
+        return absolute
+
+
 def prepare_finding(finding: Finding) -> Finding:
-    """Give a finding its display path and, if it has none, a fingerprint."""
+    """Give a finding its display path and, if it has none, a fingerprint.
+
+    The fingerprint made here is that of the display path; the session clears
+    the pipeline's fingerprint first, so fingerprints are the same from whatever
+    working directory netcheck runs in.
+    """
     file = display_path(finding.span.file) if finding.span.file else ""
     span = dataclasses.replace(finding.span, file=file)
     mark = finding.fingerprint or fingerprint(
@@ -73,12 +118,16 @@ class Report:
     ``findings`` holds waived findings too (``finding.waived`` is the reason);
     they are shown only where a format has a place for them and never count
     towards ``--fail-on``. Findings matched by a baseline are not kept at all;
-    ``baseline_suppressed`` says how many there were.
+    ``baseline_suppressed`` says how many there were, ``stale_baseline`` lists
+    the baseline entries that matched no current finding. ``root`` is the
+    absolute project root the paths are relative to (None: not known).
     """
 
     findings: tuple[Finding, ...]
     files: tuple[str, ...] = ()
     baseline_suppressed: int = 0
+    stale_baseline: tuple[Mapping[str, str], ...] = field(default=())
+    root: str | None = None
 
     @classmethod
     def build(
@@ -86,13 +135,21 @@ class Report:
         findings: Iterable[Finding],
         files: Iterable[str] = (),
         baseline_suppressed: int = 0,
+        stale_baseline: Iterable[Mapping[str, str]] = (),
     ) -> Report:
         """Prepare and sort the findings, sort and de-duplicate the files."""
         # Two designs that include one sheet can both report the same finding.
         unique = {_identity(f): f for f in map(prepare_finding, findings)}
         prepared = sorted(unique.values(), key=_order)
         shown = sorted({display_path(f) for f in files})
-        return cls(tuple(prepared), tuple(shown), baseline_suppressed)
+        root = project_root_in_use()
+        return cls(
+            tuple(prepared),
+            tuple(shown),
+            baseline_suppressed,
+            tuple(stale_baseline),
+            root.as_posix() if root is not None else None,
+        )
 
     @property
     def active(self) -> tuple[Finding, ...]:
@@ -112,13 +169,14 @@ class Report:
         return counts
 
     def summary(self) -> dict[str, int]:
-        """Return counts by severity, the total, waived and baseline-suppressed."""
+        """Return counts by severity, the total, waived, baseline-suppressed, stale."""
         counts = self.counts()
         return {
             **counts,
             "total": sum(counts.values()),
             "waived": len(self.waived),
             "baseline_suppressed": self.baseline_suppressed,
+            "baseline_stale": len(self.stale_baseline),
         }
 
 

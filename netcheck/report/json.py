@@ -7,7 +7,8 @@ Shape (cli.md, "JSON output")::
      "files": ["design/top.cnet", ...],          # every file read, sorted
      "findings": [ {finding}, ... ],             # sorted by file, line, column, rule
      "summary": {"error": n, "warning": n, "info": n, "total": n,
-                 "waived": n, "baseline_suppressed": n}}
+                 "waived": n, "baseline_suppressed": n, "baseline_stale": n},
+     "stale_baseline": [{"fingerprint", "rule", "element", "file"}, ...]}
 
 Each finding has ``rule``, ``severity``, ``message``, ``file``, ``line``,
 ``column``, ``element``, ``values`` (name -> ``{"value", "unit", "text"}``),
@@ -15,6 +16,8 @@ Each finding has ``rule``, ``severity``, ``message``, ``file``, ``line``,
 ``waived``: null, or the reason of the ``waive`` statement that accepted it.
 Waived findings are listed so that a review can see them, but the counts of
 the summary (except ``waived``) and ``--fail-on`` leave them out.
+``stale_baseline`` lists the baseline entries that matched no current finding
+(empty without a baseline), as the baseline file has them.
 """
 
 from __future__ import annotations
@@ -59,6 +62,7 @@ def render_json(report: Report, catalogue: Mapping[str, RuleMeta]) -> str:
         "files": list(report.files),
         "findings": [finding_dict(f, catalogue.get(f.rule)) for f in report.findings],
         "summary": report.summary(),
+        "stale_baseline": [dict(entry) for entry in report.stale_baseline],
     }
     return dump(document)
 

@@ -25,6 +25,7 @@ from netcheck.report.template_words import readable
 __all__ = [
     "render_plain",
     "render_rich",
+    "stale_lines",
     "summary_line",
     "render_rules",
     "render_explain",
@@ -46,6 +47,7 @@ def render_plain(report: Report) -> str:
         f"{_one_line(f.message)} [{f.rule}]"
         for f in report.active
     ]
+    lines += stale_lines(report)
     lines.append(summary_line(report))
     lines.append(f"note: {CAUTION}")
     return "\n".join(lines) + "\n"
@@ -53,6 +55,16 @@ def render_plain(report: Report) -> str:
 
 def _plural(count: int, word: str) -> str:
     return f"{count} {word}" if count == 1 or word == "info" else f"{count} {word}s"
+
+
+def stale_lines(report: Report) -> list[str]:
+    """One ``note:`` line per baseline entry that matches no current finding."""
+    return [
+        f"{entry.get('file') or '(baseline)'}: note: baseline entry matches no "
+        f"current finding: {entry.get('rule', '?')} {entry.get('element', '?')} "
+        f"[{entry['fingerprint']}]"
+        for entry in report.stale_baseline
+    ]
 
 
 def summary_line(report: Report) -> str:
@@ -69,6 +81,8 @@ def summary_line(report: Report) -> str:
         notes.append(f"{len(report.waived)} waived")
     if report.baseline_suppressed:
         notes.append(f"{report.baseline_suppressed} in the baseline")
+    if report.stale_baseline:
+        notes.append(f"{len(report.stale_baseline)} stale in the baseline")
     return f"{line} ({', '.join(notes)})" if notes else line
 
 
@@ -131,6 +145,7 @@ def render_rich(report: Report, *, color: bool = True, width: int = 100) -> str:
                 )
             )
             parts.append(Padding(_finding_table(group), (0, 0, 1, 4), expand=False))
+    parts += [Text(line, "dim") for line in stale_lines(report)]
     parts.append(Text(summary_line(report), "bold"))
     parts.append(Text(CAUTION, "italic dim"))
     return to_text(Group(*parts), color=color, width=width)

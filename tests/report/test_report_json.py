@@ -12,9 +12,18 @@ from netcheck.report.json import render_json
 
 
 def test_top_level_shape(report, catalogue):
-    # cli.md: {"format": "netcheck-findings/1", "tool", "files", "findings", "summary"}
+    # cli.md: {"format": "netcheck-findings/1", "tool", "files", "findings", "summary"},
+    # extended by "stale_baseline" (baseline entries matching no current finding)
     document = json.loads(render_json(report, catalogue))
-    assert list(document) == ["format", "tool", "files", "findings", "summary"]
+    assert list(document) == [
+        "format",
+        "tool",
+        "files",
+        "findings",
+        "summary",
+        "stale_baseline",
+    ]
+    assert document["stale_baseline"] == []
     assert document["format"] == "netcheck-findings/1"
     assert document["tool"] == {"name": "netcheck", "version": __version__}
     assert document["files"] == ["design/sheet-02.cnet", "design/top.cnet"]
@@ -70,6 +79,7 @@ def test_waived_listed_but_not_counted(report, catalogue):
         "total": 4,
         "waived": 1,
         "baseline_suppressed": 0,
+        "baseline_stale": 0,
     }
 
 
