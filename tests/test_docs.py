@@ -17,17 +17,16 @@ from pathlib import Path
 import pytest
 
 from netcheck import schema
-from netcheck.attributes import (
+from netcheck.attributes import LOAD_TYPES, choices
+from netcheck.input.poles import COIL_TERMINALS
+from netcheck.kinds import (
     COIL_KEYS,
     CONTACT_KEYS,
     KIND_ATTRIBUTES,
     KIND_TERMINALS,
-    LOAD_TYPES,
-    SUPPRESSION_KINDS,
-    choices,
+    KINDS,
 )
-from netcheck.model import KINDS
-from netcheck.poles import COIL_TERMINALS
+from netcheck.kinds import SUPPRESSION_CHOICES as SUPPRESSION_KINDS
 
 ROOT = Path(__file__).resolve().parent.parent
 PAGES = [ROOT / "README.md", *sorted((ROOT / "docs").glob("*.md"))]
