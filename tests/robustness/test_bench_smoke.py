@@ -97,7 +97,7 @@ def test_the_one_rail_shape_puts_every_rung_on_one_bus(tmp_path: Path) -> None:
     finally:
         sys.path.remove(str(BENCH.parent))
     from netcheck.analysis.elements import analyse
-    from netcheck.design import load_design
+    from netcheck.input import load_design
     from netcheck.graph import build_graph
 
     top = gen_design.generate(300, tmp_path, one_rail=True)
