@@ -28,6 +28,7 @@ from typing import Any
 from netcheck.catalogue import RuleMeta, all_margins
 from netcheck.errors import ConfigError
 from netcheck.findings import Severity
+from netcheck.levels import FAIL_ON, SEVERITIES
 from netcheck.report import display_path, working_path
 from netcheck.yamlsafe import LocatedYaml, load_located_yaml
 
@@ -42,8 +43,6 @@ __all__ = [
 ]
 
 CONFIG_NAME = "netcheck.yaml"
-FAIL_ON = ("error", "warning", "info", "never")
-SEVERITIES = ("error", "warning", "info")
 
 
 @dataclass(frozen=True)

@@ -2,7 +2,6 @@
 
 from __future__ import annotations
 
-import argparse
 import dataclasses
 import io
 import json
@@ -10,8 +9,8 @@ import json
 import pytest
 from rich.console import Console
 
+from netcheck import cli
 from netcheck.report.size import render_size_text, size_to_json
-from netcheck.size_cli import register
 from netcheck.sizing import size_load
 from netcheck.units import Q_
 
@@ -21,10 +20,7 @@ SI = {"V", "A", "s", "J", "ohm", "F"}
 
 
 def run(argv, capsys):
-    parser = argparse.ArgumentParser(prog="netcheck")
-    register(parser.add_subparsers(dest="command"))
-    args = parser.parse_args(["size", *argv])
-    code = args.func(args)
+    code = cli.main(["size", *argv])
     out, err = capsys.readouterr()
     return code, out, err
 
@@ -139,9 +135,9 @@ def test_bad_quantities_exit_2_without_traceback(argv, fragment, capsys):
 
 
 def test_missing_required_option_is_a_usage_error(capsys):
-    with pytest.raises(SystemExit) as stop:
-        run(["--voltage", "24V"], capsys)
-    assert stop.value.code == 2
+    code, out, err = run(["--voltage", "24V"], capsys)
+    assert code == 2 and out == ""
+    assert "the following arguments are required: --resistance" in err
 
 
 def test_size_takes_margins_from_a_config_file(tmp_path, capsys):
@@ -153,8 +149,17 @@ def test_size_takes_margins_from_a_config_file(tmp_path, capsys):
 
     config = tmp_path / "netcheck.yaml"
     config.write_text("margins: {diode-reverse-voltage: 10}\n", encoding="utf-8")
-    argv = ["size", "--voltage", "110V", "--resistance", "302ohm", "--inductance",
-            "1H", "--format", "json"]
+    argv = [
+        "size",
+        "--voltage",
+        "110V",
+        "--resistance",
+        "302ohm",
+        "--inductance",
+        "1H",
+        "--format",
+        "json",
+    ]
     assert _cli.main([*argv, "--config", str(config)]) == 0
     options = _json.loads(capsys.readouterr().out)["options"]
     diode = next(o for o in options if o["kind"] == "diode")

@@ -27,6 +27,7 @@ from report_samples import (  # noqa: E402
     sarif_schema,
 )
 
+from netcheck import catalogue as catalogue_module  # noqa: E402
 from netcheck import cli, pipeline  # noqa: E402
 from netcheck.errors import SyntaxInputError  # noqa: E402
 from netcheck.pipeline import CheckOptions, CheckResult  # noqa: E402
@@ -111,7 +112,7 @@ def project(tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> Project:
     monkeypatch.chdir(tmp_path)
     monkeypatch.delenv("NO_COLOR", raising=False)
     rules = make_catalogue()
-    monkeypatch.setattr(cli, "load_catalogue", lambda: rules)
+    monkeypatch.setattr(catalogue_module, "load_catalogue", lambda: rules)
     result = Project(tmp_path)
     monkeypatch.setattr(pipeline, "check_path", fake_check_path(rules, result.calls))
     return result

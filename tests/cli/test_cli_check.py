@@ -10,7 +10,9 @@ import sys
 import jsonschema
 import pytest
 
-from netcheck import cli
+from netcheck import pipeline
+from netcheck.cli import inspect as cli_inspect
+from netcheck.cli import output
 from netcheck.report import CAUTION
 
 ERROR = "# fake: dc-break-over-rating K1:13-14"
@@ -113,7 +115,7 @@ def test_os_error_from_pipeline_is_exit_2(project, monkeypatch, capsys):
     def unreadable(path, options):
         raise PermissionError(13, "Permission denied", str(path))
 
-    monkeypatch.setattr(cli.pipeline, "check_path", unreadable)
+    monkeypatch.setattr(pipeline, "check_path", unreadable)
     assert project.run("check", "a.cnet") == 2
     assert capsys.readouterr().err.strip() == "a.cnet: error: Permission denied"
 
@@ -163,7 +165,7 @@ def test_paths_relative_to_cwd_with_posix_separators(project, capsys):
 
 @pytest.fixture
 def tty(monkeypatch):
-    monkeypatch.setattr(cli, "stdout_is_terminal", lambda: True)
+    monkeypatch.setattr(output, "stdout_is_terminal", lambda: True)
     monkeypatch.setenv("COLUMNS", "100")
 
 
@@ -347,33 +349,21 @@ def test_explain_unknown_suggests(project, capsys):
     )
 
 
-def test_inspect_missing_module_is_a_clear_error(project, monkeypatch, capsys):
-    project.write("a.cnet", design())
-    monkeypatch.setitem(sys.modules, "netcheck.inspect_cli", None)
-    assert project.run("inspect", "a.cnet") == 2
-    assert "'inspect' is not available" in capsys.readouterr().err
-
-
-def test_inspect_calls_run_inspect(project, monkeypatch):
-    import types
-
+def test_inspect_takes_settings_not_args(project, monkeypatch):
+    # inspect gets one settings object: the file, the merged netcheck.yaml
+    # options, the format and whether to colour (no argparse namespace).
     project.write("a.cnet", design())
     project.write("netcheck.yaml", "margins: {diode-reverse-voltage: 3}\n")
     seen = []
-    module = types.ModuleType("netcheck.inspect_cli")
-    module.run_inspect = lambda args: seen.append(args) or 0
-    monkeypatch.setitem(sys.modules, "netcheck.inspect_cli", module)
+    monkeypatch.setattr(
+        cli_inspect, "inspect_text", lambda settings: seen.append(settings) or ""
+    )
     assert project.run("inspect", "a.cnet", "--format", "json") == 0
-    (args,) = seen
-    assert args.file.as_posix() == "a.cnet" and args.format == "json"
-    assert args.options.margins == {"diode-reverse-voltage": 3.0}
-    assert args.color is False and args.terminal is False
-
-
-def test_size_placeholder_when_module_missing(project, monkeypatch, capsys):
-    monkeypatch.setitem(sys.modules, "netcheck.size_cli", None)
-    assert project.run("size", "--voltage", "24V") == 2
-    assert "'size' is not available" in capsys.readouterr().err
+    (settings,) = seen
+    assert isinstance(settings, cli_inspect.InspectSettings)
+    assert settings.file.as_posix() == "a.cnet" and settings.format == "json"
+    assert settings.options.margins == {"diode-reverse-voltage": 3.0}
+    assert settings.color is False
 
 
 def test_help_exits_0(project, capsys):

@@ -1,0 +1,58 @@
+"""The table of report formats of ``check --format``: name -> writer.
+
+A writer is ``function(report, catalogue) -> str`` in a module of
+``netcheck.report`` (``view=True``: it also takes the terminal view, to choose
+between the grouped terminal view and one finding a line). A new format is one
+module plus one row; the module loads only when its format is asked for.
+"""
+
+from __future__ import annotations
+
+import importlib
+from collections.abc import Mapping
+from dataclasses import dataclass
+from typing import TYPE_CHECKING
+
+from netcheck.cli.output import Terminal
+
+if TYPE_CHECKING:
+    from netcheck.catalogue import RuleMeta
+    from netcheck.report import Report
+
+__all__ = ["FORMATS", "Format", "render_text"]
+
+
+@dataclass(frozen=True)
+class Format:
+    """One output format of ``check``."""
+
+    module: str
+    function: str
+    view: bool = False
+
+    def render(
+        self, report: Report, catalogue: Mapping[str, RuleMeta], view: Terminal
+    ) -> str:
+        """The report in this format."""
+        writer = getattr(importlib.import_module(self.module), self.function)
+        if self.view:
+            return str(writer(report, catalogue, view))
+        return str(writer(report, catalogue))
+
+
+def render_text(
+    report: Report, catalogue: Mapping[str, RuleMeta], view: Terminal
+) -> str:
+    """The grouped view on a terminal, else one finding a line (cli.md)."""
+    from netcheck.report.text import render_plain, render_rich
+
+    if view.is_terminal:
+        return render_rich(report, color=view.color, width=view.width)
+    return render_plain(report)
+
+
+FORMATS: dict[str, Format] = {
+    "text": Format("netcheck.cli.formats", "render_text", view=True),
+    "json": Format("netcheck.report.json", "render_json"),
+    "sarif": Format("netcheck.report.sarif", "render_sarif"),
+}
