@@ -4,8 +4,9 @@ So encoding, colour and ``-o FILE`` behave the same for every command:
 
 - ``-o FILE`` writes the product atomically as UTF-8 (never the terminal view);
 - on standard output or error, a character the stream's encoding cannot hold is
-  spelled in ASCII (``µ`` -> ``u``, ``Ω`` -> ``ohm``, ``°`` -> ``deg``; anything
-  else unspellable becomes ``?``): an ASCII or cp1252 console never crashes;
+  spelled in ASCII (``µ`` -> ``u``, ``Ω`` -> ``ohm``, ``°`` -> ``deg``, table
+  borders as ``+-|``; anything else becomes ``?``): an ASCII or cp1252 console
+  never crashes;
 - colour only on a terminal, and never with ``--no-color`` or ``NO_COLOR`` set.
 """
 
@@ -14,6 +15,7 @@ from __future__ import annotations
 import os
 import shutil
 import sys
+import unicodedata
 from dataclasses import dataclass
 from pathlib import Path
 from typing import TextIO
@@ -45,6 +47,20 @@ ASCII_SPELLINGS = {
 }
 
 
+def _spelling(char: str) -> str:
+    """The ASCII spelling of a character: the table, box lines, else ``?``."""
+    if char in ASCII_SPELLINGS:
+        return ASCII_SPELLINGS[char]
+    name = unicodedata.name(char, "")
+    if name.startswith("BOX DRAWINGS"):  # rich's table borders
+        ways = set(name.split()) & {"HORIZONTAL", "VERTICAL", "LEFT", "RIGHT", "UP"}
+        ways |= {"UP"} if "DOWN" in name.split() else set()
+        if ways <= {"HORIZONTAL", "LEFT", "RIGHT"} and len(ways) == 1:
+            return "-"
+        return "|" if ways in ({"VERTICAL"}, {"UP"}) else "+"
+    return "?"
+
+
 def encodable(text: str, encoding: str | None) -> str:
     """Return ``text`` with every character ``encoding`` cannot hold spelled out."""
     if not encoding:
@@ -60,7 +76,7 @@ def encodable(text: str, encoding: str | None) -> str:
             char.encode(encoding)
             out.append(char)
         except (UnicodeEncodeError, LookupError):
-            spelled = ASCII_SPELLINGS.get(char, "?")
+            spelled = _spelling(char)
             out.append(spelled.encode(encoding, errors="replace").decode(encoding))
     return "".join(out)
 
