@@ -22,8 +22,12 @@ from netcheck.cli.output import Output
 __all__ = ["COMMANDS", "build_parser", "main"]
 
 
-def build_parser() -> argparse.ArgumentParser:
-    """Build the argument parser with every subcommand of ``COMMANDS``."""
+def build_parser(only: str | None = None) -> argparse.ArgumentParser:
+    """Build the argument parser with every subcommand of ``COMMANDS``.
+
+    With ``only``, just that command gets its options (and its module loaded);
+    the others are listed by name and help, which is all ``--help`` shows.
+    """
     parser = argparse.ArgumentParser(
         prog="netcheck",
         description="Lint control-circuit netlists for DC switching hazards.",
@@ -33,6 +37,9 @@ def build_parser() -> argparse.ArgumentParser:
     )
     commands = parser.add_subparsers(dest="command", metavar="COMMAND", required=True)
     for command in COMMANDS:
+        if only is not None and command.name != only:
+            commands.add_parser(command.name, help=command.help)
+            continue
         module = command.load()
         sub = commands.add_parser(
             command.name,
@@ -42,6 +49,15 @@ def build_parser() -> argparse.ArgumentParser:
         module.add_options(sub)
         sub.set_defaults(run=getattr(module, command.function), parser=sub)
     return parser
+
+
+def _command_named(argv: Sequence[str]) -> str:
+    """The command an argument list names: its first word not starting with ``-``.
+
+    The top-level options (``--help``, ``--version``) take no value, so that word
+    is the command, or a usage error argparse reports. "" when there is none.
+    """
+    return next((word for word in argv if not word.startswith("-")), "")
 
 
 def _missing_paths(args: argparse.Namespace) -> list[str]:
@@ -94,9 +110,10 @@ def main(argv: Sequence[str] | None = None) -> int:
     cannot fail. Called with ``argv`` (tests, embedding), the process's
     standard output is left alone and the status is just 1.
     """
-    parser = build_parser()
+    words = sys.argv[1:] if argv is None else list(argv)
+    parser = build_parser(only=_command_named(words))
     try:
-        args = parser.parse_args(argv)
+        args = parser.parse_args(words)
     except SystemExit as stop:  # --help, --version, or a usage error (status 2)
         return int(stop.code or 0)
     out = _output(args)

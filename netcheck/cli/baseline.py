@@ -3,7 +3,6 @@
 from __future__ import annotations
 
 import argparse
-from pathlib import Path
 
 from netcheck.cli import options
 from netcheck.cli.check import request_of
@@ -19,7 +18,7 @@ def add_options(parser: argparse.ArgumentParser) -> None:
     parser.add_argument(
         "-o",
         "--output",
-        type=Path,
+        type=options.path,
         metavar="FILE",
         required=True,
         help="the baseline file to write (atomically)",

@@ -7,7 +7,6 @@ the session (``netcheck.session.Request``).
 from __future__ import annotations
 
 import argparse
-from pathlib import Path
 from typing import TYPE_CHECKING
 
 from netcheck.cli import options
@@ -32,7 +31,7 @@ def add_options(parser: argparse.ArgumentParser) -> None:
     )
     parser.add_argument(
         "--baseline",
-        type=Path,
+        type=options.path,
         metavar="FILE",
         help="report only findings not in this baseline",
     )

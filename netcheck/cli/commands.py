@@ -10,14 +10,13 @@ function named here, ``function(args, out) -> exit status`` (``out`` is the
 from __future__ import annotations
 
 import importlib
-from dataclasses import dataclass
 from types import ModuleType
+from typing import NamedTuple
 
 __all__ = ["COMMANDS", "Command"]
 
 
-@dataclass(frozen=True)
-class Command:
+class Command(NamedTuple):
     """One subcommand of ``netcheck``."""
 
     name: str

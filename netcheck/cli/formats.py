@@ -10,8 +10,7 @@ from __future__ import annotations
 
 import importlib
 from collections.abc import Mapping
-from dataclasses import dataclass
-from typing import TYPE_CHECKING
+from typing import TYPE_CHECKING, NamedTuple
 
 from netcheck.cli.output import Terminal
 
@@ -22,8 +21,7 @@ if TYPE_CHECKING:
 __all__ = ["FORMATS", "Format", "render_text"]
 
 
-@dataclass(frozen=True)
-class Format:
+class Format(NamedTuple):
     """One output format of ``check``."""
 
     module: str

@@ -3,21 +3,20 @@
 from __future__ import annotations
 
 import argparse
-from dataclasses import dataclass
-from pathlib import Path
-from typing import TYPE_CHECKING
+from typing import TYPE_CHECKING, NamedTuple
 
 from netcheck.cli import options
 from netcheck.cli.output import Output
 
 if TYPE_CHECKING:
+    from pathlib import Path
+
     from netcheck.pipeline import CheckOptions
 
 __all__ = ["InspectSettings", "add_options", "inspect_text", "run", "settings_of"]
 
 
-@dataclass(frozen=True)
-class InspectSettings:
+class InspectSettings(NamedTuple):
     """One ``inspect`` run: the design, how to read it, and how to show it."""
 
     file: Path
@@ -28,7 +27,7 @@ class InspectSettings:
 
 def add_options(parser: argparse.ArgumentParser) -> None:
     """The design, how to read it, and the output options."""
-    parser.add_argument("file", type=Path, metavar="FILE")
+    parser.add_argument("file", type=options.path, metavar="FILE")
     options.add_input_options(parser)
     options.add_output_options(parser, ("text", "json"))
 

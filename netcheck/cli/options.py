@@ -8,15 +8,21 @@ from __future__ import annotations
 import argparse
 import os
 from collections.abc import Sequence
-from pathlib import Path
+from typing import TYPE_CHECKING
 
 from netcheck.levels import FAIL_ON
 
+if TYPE_CHECKING:
+    from pathlib import Path
+
 __all__ = [
     "FAIL_ON",
+    "add_color_option",
     "add_input_options",
     "add_output_options",
     "add_selection_options",
+    "jobs",
+    "path",
     "split_names",
 ]
 
@@ -28,6 +34,13 @@ def split_names(values: Sequence[str] | None) -> tuple[str, ...] | None:
     return tuple(
         name.strip() for value in values for name in value.split(",") if name.strip()
     )
+
+
+def path(text: str) -> Path:
+    """A path option (pathlib loads when one is given, not for ``--help``)."""
+    from pathlib import Path
+
+    return Path(text)
 
 
 def jobs(text: str) -> int:
@@ -50,7 +63,7 @@ def add_output_options(
     parser.add_argument(
         "-o",
         "--output",
-        type=Path,
+        type=path,
         metavar="FILE",
         help="write to FILE (atomically) instead of standard output",
     )
@@ -58,6 +71,7 @@ def add_output_options(
 
 
 def add_color_option(parser: argparse.ArgumentParser) -> None:
+    """``--no-color`` (the NO_COLOR variable is read by the output funnel)."""
     parser.add_argument(
         "--no-color", action="store_true", help="no colour (also when NO_COLOR is set)"
     )
@@ -67,13 +81,13 @@ def add_input_options(parser: argparse.ArgumentParser) -> None:
     """Options of the commands that read designs."""
     parser.add_argument(
         "--config",
-        type=Path,
+        type=path,
         metavar="FILE",
         help="configuration file (default: the nearest netcheck.yaml)",
     )
     parser.add_argument(
         "--parts",
-        type=Path,
+        type=path,
         action="append",
         default=[],
         metavar="FILE",
@@ -88,7 +102,7 @@ def add_input_options(parser: argparse.ArgumentParser) -> None:
 
 def add_selection_options(parser: argparse.ArgumentParser) -> None:
     """Options of the commands that check many designs."""
-    parser.add_argument("paths", nargs="+", type=Path, metavar="PATH")
+    parser.add_argument("paths", nargs="+", type=path, metavar="PATH")
     parser.add_argument(
         "--select",
         action="append",

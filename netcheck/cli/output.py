@@ -13,12 +13,11 @@ So encoding, colour and ``-o FILE`` behave the same for every command:
 from __future__ import annotations
 
 import os
-import shutil
 import sys
-import unicodedata
-from dataclasses import dataclass
-from pathlib import Path
-from typing import TextIO
+from typing import TYPE_CHECKING, NamedTuple, TextIO
+
+if TYPE_CHECKING:
+    from pathlib import Path
 
 __all__ = ["ASCII_SPELLINGS", "Output", "Terminal", "encodable", "stdout_is_terminal"]
 
@@ -51,6 +50,8 @@ def _spelling(char: str) -> str:
     """The ASCII spelling of a character: the table, box lines, else ``?``."""
     if char in ASCII_SPELLINGS:
         return ASCII_SPELLINGS[char]
+    import unicodedata
+
     name = unicodedata.name(char, "")
     if name.startswith("BOX DRAWINGS"):  # rich's table borders
         ways = set(name.split()) & {"HORIZONTAL", "VERTICAL", "LEFT", "RIGHT", "UP"}
@@ -87,8 +88,7 @@ def stdout_is_terminal() -> bool:
     return bool(isatty and isatty())
 
 
-@dataclass(frozen=True)
-class Terminal:
+class Terminal(NamedTuple):
     """Where output goes and how it may look."""
 
     is_terminal: bool
@@ -101,19 +101,23 @@ def _write(stream: TextIO, text: str) -> None:
     stream.flush()
 
 
-@dataclass(frozen=True)
 class Output:
     """A command's output: its product to ``path`` or standard output."""
 
-    path: Path | None = None
-    no_color: bool = False
+    def __init__(self, path: Path | None = None, no_color: bool = False) -> None:
+        self.path = path
+        self.no_color = no_color
 
     @property
     def terminal(self) -> Terminal:
         """Terminal view only on a tty with no ``-o``; colour unless refused."""
         is_tty = self.path is None and stdout_is_terminal()
         refused = self.no_color or bool(os.environ.get("NO_COLOR"))
-        width = shutil.get_terminal_size((100, 24)).columns if is_tty else 100
+        width = 100
+        if is_tty:
+            import shutil
+
+            width = shutil.get_terminal_size((100, 24)).columns
         return Terminal(is_tty, is_tty and not refused, width)
 
     def write(self, text: str) -> None:

@@ -5,14 +5,14 @@ from __future__ import annotations
 import argparse
 import io
 from collections.abc import Mapping
-from dataclasses import dataclass
-from pathlib import Path
-from typing import TYPE_CHECKING
+from typing import TYPE_CHECKING, NamedTuple
 
 from netcheck.cli import options
 from netcheck.cli.output import Output, Terminal
 
 if TYPE_CHECKING:
+    from pathlib import Path
+
     from netcheck.units import Quantity
 
 __all__ = ["SizeSettings", "add_options", "run", "settings_of", "size_text"]
@@ -40,8 +40,7 @@ QUANTITIES = {
 }
 
 
-@dataclass(frozen=True)
-class SizeSettings:
+class SizeSettings(NamedTuple):
     """One ``size`` run: the load, the sizing choices and the margins."""
 
     voltage: Quantity
@@ -66,7 +65,7 @@ def add_options(parser: argparse.ArgumentParser) -> None:
         )
     parser.add_argument(
         "--config",
-        type=Path,
+        type=options.path,
         metavar="FILE",
         help="take the margins from this netcheck.yaml (its margins: key)",
     )
