@@ -13,7 +13,9 @@ the top of the repository (a directory holding ``.git``) or of the file system;
     baseline: netcheck-baseline.json    # relative to this file
 
 Any other key, a value of the wrong type, an unknown rule or margin, or a
-missing file is a ConfigError located at the offending node.
+missing file is a ConfigError located at the offending node. The readers below
+word the common mistakes; the shipped schema (``netcheck schema config``) then
+has the last word, so a file netcheck accepts is one editors' validators accept.
 """
 
 from __future__ import annotations
@@ -238,4 +240,15 @@ def load_config(path: Path, catalogue: Mapping[str, RuleMeta]) -> Config:
                 (key,),
             )
         values[key.replace("-", "_")] = _KEYS[key](reader, value, (key,))
+    _check_schema(reader, data)
     return Config(path=Path(path), **values)
+
+
+def _check_schema(reader: _Reader, data: dict[str, Any]) -> None:
+    """Raise a located ConfigError for the first departure from the schema."""
+    from netcheck.schema import iter_errors
+
+    for error in iter_errors("config", data):
+        where = tuple(error.absolute_path)
+        named = "'" + ".".join(map(str, where)) + "': " if where else ""
+        raise reader.fail(f"{named}{error.message} (netcheck schema config)", where)
