@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import difflib
 import os
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field, replace
@@ -59,20 +60,31 @@ def _apply_waivers(
                 finding = replace(finding, waived=waiver.reason)
                 break
         out.append(finding)
-    meta = catalogue["unused-waiver"]
-    for index, waiver in enumerate(netlist.waivers):
-        if index in used:
-            continue
-        out.append(
-            meta.finding(
-                waiver.span,
-                waiver.target,
-                {"rule": waiver.rule, "target": waiver.target},
-                message="default" if waiver.rule in catalogue else "unknown-rule",
-                key=waiver.rule,
-            )
-        )
+    out += [
+        _unused_waiver(waiver, catalogue)
+        for index, waiver in enumerate(netlist.waivers)
+        if index not in used
+    ]
     return out
+
+
+def _unused_waiver(waiver: Waiver, catalogue: Mapping[str, RuleMeta]) -> Finding:
+    """``unused-waiver``; a misspelled rule name gets the closest real one."""
+    values: dict[str, str] = {"rule": waiver.rule, "target": waiver.target}
+    variant = "default"
+    if waiver.rule not in catalogue:
+        close = difflib.get_close_matches(waiver.rule, sorted(catalogue), 1, 0.6)
+        variant = "misspelled-rule" if close else "unknown-rule"
+        if close:
+            values["suggestion"] = catalogue[close[0]].name
+    return catalogue["unused-waiver"].finding(
+        waiver.span,
+        waiver.target,
+        values,
+        message=variant,
+        fix=variant if variant == "misspelled-rule" else "default",
+        key=waiver.rule,
+    )
 
 
 def run_checks(

@@ -64,6 +64,7 @@ WORDS: dict[str, str] = {
     "resistance": "coil resistance",
     "rule": "rule",
     "second": "second supply",
+    "suggestion": "closest rule name",
     "supply": "supply",
     "t95": "T0.95",
     "t95_limit": "T0.95 of the rating",
