@@ -11,8 +11,6 @@ from netcheck.cli import options
 from netcheck.cli.output import Output, Terminal
 
 if TYPE_CHECKING:
-    from pathlib import Path
-
     from netcheck.units import Quantity
 
 __all__ = ["SizeSettings", "add_options", "run", "settings_of", "size_text"]
@@ -87,22 +85,15 @@ def _quantity(args: argparse.Namespace, name: str) -> Quantity | None:
         raise QuantityError(f"{option}: {error.message}") from None
 
 
-def _configured_margins(config: Path | None) -> dict[str, float] | None:
-    """The margins of a netcheck.yaml given with --config (None without one)."""
-    if config is None:
-        return None
-    from netcheck.catalogue import load_catalogue
-    from netcheck.config import load_config
-
-    return dict(load_config(config, load_catalogue()).margins)
-
-
 def settings_of(args: argparse.Namespace) -> SizeSettings:
     """Parse the command line into settings; InputError for a bad quantity."""
+    from netcheck.catalogue import load_catalogue
+    from netcheck.session import configured_margins
+
     values = {name: _quantity(args, name) for name in QUANTITIES}
     return SizeSettings(
         **values,  # type: ignore[arg-type]  # required ones are never None
-        margins=_configured_margins(args.config),
+        margins=configured_margins(args.config, load_catalogue()),
         format=args.format,
     )
 

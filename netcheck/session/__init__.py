@@ -21,6 +21,7 @@ from netcheck.session.settings import (
     Settings,
     SettingsCache,
     UsageError,
+    configured_margins,
     resolve_rules,
 )
 
@@ -32,6 +33,7 @@ __all__ = [
     "SettingsCache",
     "UsageError",
     "check_designs",
+    "configured_margins",
     "discover_designs",
     "os_error_line",
     "project_root",

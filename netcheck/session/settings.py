@@ -17,7 +17,14 @@ from netcheck.config import Config, canonical_rule, find_config, load_config
 from netcheck.findings import Severity
 from netcheck.pipeline import CheckOptions
 
-__all__ = ["Request", "Settings", "SettingsCache", "UsageError", "resolve_rules"]
+__all__ = [
+    "Request",
+    "Settings",
+    "SettingsCache",
+    "UsageError",
+    "configured_margins",
+    "resolve_rules",
+]
 
 DEFAULT_FAIL_ON = "error"
 
@@ -111,3 +118,15 @@ class SettingsCache:
             config = load_config(path, self.catalogue) if path else Config()
             self._cache[key] = merge(config, self.request, self.catalogue)
         return self._cache[key]
+
+
+def configured_margins(
+    config: Path | None, catalogue: Mapping[str, RuleMeta]
+) -> dict[str, float] | None:
+    """The ``margins:`` of a netcheck.yaml named with --config (None: none named).
+
+    For ``size``, which has no design to find a configuration from.
+    """
+    if config is None:
+        return None
+    return dict(load_config(config, catalogue).margins)
