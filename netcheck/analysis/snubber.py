@@ -6,6 +6,8 @@ is common practice with no published validation, and has two algebraic readings.
 
 from __future__ import annotations
 
+import math
+
 from netcheck.units import Q_, Quantity
 
 __all__ = [
@@ -30,15 +32,22 @@ def _number(value: Quantity, unit: str) -> float:
 
 def common_practice_rc(
     voltage: Quantity, current: Quantity
-) -> tuple[Quantity, Quantity]:
+) -> tuple[Quantity, Quantity | None]:
     """Return the "I²/10" rule, power form: C = I²/10 µF, R = E/(10·I^(1+50/E)).
 
     Common practice: an empirical rule in A and V, printed in a film-capacitor
     catalogue and attributed to a 1960s transient-suppression guide. The power form
     is the formula as printed there; ``common_practice_rc_product`` is the other one.
+    R is None where the power form leaves floating point (a few volts or less, or
+    tens of amperes: far outside the range the rule was drawn for).
     """
     e, i = _number(voltage, "V"), _number(current, "A")
-    return Q_(i * i / 10, "uF").to("F"), Q_(e / (10 * i ** (1 + 50 / e)), "ohm")
+    try:
+        resistance = e / (10 * i ** (1 + 50 / e))
+    except (ZeroDivisionError, OverflowError):
+        resistance = math.inf
+    usable = math.isfinite(resistance) and resistance > 0
+    return Q_(i * i / 10, "uF").to("F"), Q_(resistance, "ohm") if usable else None
 
 
 def common_practice_rc_product(

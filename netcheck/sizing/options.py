@@ -160,8 +160,13 @@ def _rc(c: Circuit) -> SizeOption:
         rating("resistance_min", lowest, ">=", "supply / closing surge current"),
         rating("resistance_max", c.resistance, "<=", "coil resistance"),
         rating("common_practice_capacitance", rule_c, "=", "I²/10 µF"),
-        rating("common_practice_resistance", rule_r, "=", "E/(10·I^(1+50/E))"),
     ]
+    if rule_r is not None:
+        ratings.append(
+            rating("common_practice_resistance", rule_r, "=", "E/(10·I^(1+50/E))")
+        )
+    else:
+        notes.append("the I²/10 rule's R is out of its range at this voltage")
     notes.append("the I²/10 values are common practice (power form), not used here")
     return _option("rc", transient, ratings, notes)
 
