@@ -12,12 +12,22 @@ from netcheck.analysis.elements import Analysis, analyse
 from netcheck.catalogue import RuleMeta, load_catalogue, verify_catalogue
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import all_checks
+from netcheck.coverage import ElementStatus, element_statuses
+from netcheck.error_records import ErrorRecord, os_error_record, records_of
+from netcheck.errors import InputError
 from netcheck.findings import Finding, fingerprint
 from netcheck.graph import build_graph
 from netcheck.input import load_design
 from netcheck.model import Netlist, Waiver
 
-__all__ = ["CheckOptions", "CheckResult", "check_path", "analyse_path", "run_checks"]
+__all__ = [
+    "CheckOptions",
+    "CheckResult",
+    "check_design",
+    "check_path",
+    "analyse_path",
+    "run_checks",
+]
 
 
 @dataclass(frozen=True)
@@ -31,11 +41,18 @@ class CheckOptions:
 
 @dataclass(frozen=True)
 class CheckResult:
-    """The findings of one design (waivers applied) and the files it read."""
+    """The findings of one design (waivers applied) and the files it read.
+
+    ``elements`` is the status of each switching element (see
+    :mod:`netcheck.coverage`). A design that could not be read has no findings
+    and no elements, and ``errors`` says why.
+    """
 
     file: str
     findings: Sequence[Finding]
     files: Sequence[str]
+    elements: Sequence[ElementStatus] = ()
+    errors: Sequence[ErrorRecord] = ()
 
 
 def _matches(
@@ -133,4 +150,20 @@ def check_path(path: Path, options: CheckOptions = CheckOptions()) -> CheckResul
     """Check one top-level ``.cnet`` design; raises InputError on bad input."""
     netlist, analysis = analyse_path(path, options)
     findings = run_checks(netlist, analysis, options.margins)
-    return CheckResult(netlist.file, findings, netlist.files)
+    statuses = element_statuses(analysis, findings)
+    return CheckResult(netlist.file, findings, netlist.files, statuses)
+
+
+def check_design(path: Path, options: CheckOptions = CheckOptions()) -> CheckResult:
+    """Check one design as :func:`check_path` does, an input error included.
+
+    Bad input does not raise: the result carries it as records, so that one
+    broken file among many costs only its own findings.
+    """
+    file = Path(path).as_posix()
+    try:
+        return check_path(path, options)
+    except InputError as err:
+        return CheckResult(file, (), (file,), errors=tuple(records_of(err, file)))
+    except OSError as err:
+        return CheckResult(file, (), (), errors=(os_error_record(err, file),))

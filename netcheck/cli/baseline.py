@@ -27,7 +27,7 @@ def add_options(parser: argparse.ArgumentParser) -> None:
 
 
 def run(args: argparse.Namespace, out: Output) -> int:
-    """Always 0: a baseline records findings, it does not judge them."""
+    """0: a baseline records findings, it does not judge them; 2 on input errors."""
     from netcheck.baseline import render_baseline
     from netcheck.catalogue import load_catalogue
     from netcheck.report import display_path, display_root
@@ -36,6 +36,11 @@ def run(args: argparse.Namespace, out: Output) -> int:
     request = request_of(args, use_baseline=False)
     with display_root(project_root(request.paths, request.config)):
         outcome = check_designs(request, load_catalogue())
+    if outcome.report.errors:
+        # A baseline of the files that could be read would drop the others' entries.
+        out.error("\n".join(e.rendered for e in outcome.report.errors))
+        out.error("netcheck: error: baseline not written (input errors)")
+        return 2
     out.write(render_baseline(outcome.report.findings))
     count = len({f.fingerprint for f in outcome.report.active})
     out.say(f"netcheck: wrote {count} fingerprints to {display_path(args.output)}")

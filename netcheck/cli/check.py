@@ -14,9 +14,12 @@ from netcheck.cli.formats import FORMATS
 from netcheck.cli.output import Output
 
 if TYPE_CHECKING:
-    from netcheck.session import Request
+    from collections.abc import Mapping
 
-__all__ = ["add_options", "request_of", "run"]
+    from netcheck.catalogue import RuleMeta
+    from netcheck.session import Outcome, Request
+
+__all__ = ["add_options", "request_of", "run", "outcome_or_errors"]
 
 
 def add_options(parser: argparse.ArgumentParser) -> None:
@@ -34,6 +37,22 @@ def add_options(parser: argparse.ArgumentParser) -> None:
         type=options.path,
         metavar="FILE",
         help="report only findings not in this baseline",
+    )
+    parser.add_argument(
+        "--details",
+        action="store_true",
+        help="in one-line text output, print each finding's values and fix under it",
+    )
+    parser.add_argument(
+        "-q",
+        "--quiet",
+        action="store_true",
+        help="text output: only the summary (input errors still go to stderr)",
+    )
+    parser.add_argument(
+        "--fail-on-unverified",
+        action="store_true",
+        help="exit 1 when any switching element could not be verified",
     )
 
 
@@ -56,15 +75,47 @@ def request_of(args: argparse.Namespace, *, use_baseline: bool) -> Request:
 
 
 def run(args: argparse.Namespace, out: Output) -> int:
-    """1 if a finding reaches --fail-on, else 0."""
+    """2 on input errors, 1 if --fail-on is reached, else 0.
+
+    Every file that could be read is reported; input errors go to standard
+    error and into the report, and the output file is written all the same.
+    """
     from netcheck.catalogue import load_catalogue
     from netcheck.report import display_root
-    from netcheck.session import check_designs, project_root
+    from netcheck.session import project_root
 
     request = request_of(args, use_baseline=True)
     catalogue = load_catalogue()
     with display_root(project_root(request.paths, request.config)):
-        outcome = check_designs(request, catalogue)
-        text = FORMATS[args.format].render(outcome.report, catalogue, out.terminal)
+        outcome = outcome_or_errors(request, catalogue)
+        text = FORMATS[args.format].render(
+            outcome.report,
+            catalogue,
+            out.terminal,
+            details=bool(args.details),
+            quiet=bool(args.quiet),
+        )
+    for error in outcome.report.errors:
+        out.error(error.rendered)
     out.write(text)
-    return 1 if outcome.failing else 0
+    if outcome.report.errors:
+        return 2
+    unverified = args.fail_on_unverified and bool(outcome.report.unverified)
+    return 1 if outcome.failing or unverified else 0
+
+
+def outcome_or_errors(request: Request, catalogue: Mapping[str, RuleMeta]) -> Outcome:
+    """Check the designs; a run-wide input error empties the report.
+
+    A broken configuration or baseline leaves a report that carries only the
+    error, so that the requested output is still written and says why.
+    """
+    from netcheck.error_records import records_of
+    from netcheck.errors import InputError
+    from netcheck.report import Report
+    from netcheck.session import Outcome, check_designs
+
+    try:
+        return check_designs(request, catalogue)
+    except InputError as err:
+        return Outcome(Report.build([], errors=records_of(err, "")), False)

@@ -29,24 +29,37 @@ class Format(NamedTuple):
     view: bool = False
 
     def render(
-        self, report: Report, catalogue: Mapping[str, RuleMeta], view: Terminal
+        self,
+        report: Report,
+        catalogue: Mapping[str, RuleMeta],
+        view: Terminal,
+        **style: bool,
     ) -> str:
-        """The report in this format."""
+        """The report in this format (``style``: how much a view shows)."""
         writer = getattr(importlib.import_module(self.module), self.function)
         if self.view:
-            return str(writer(report, catalogue, view))
+            return str(writer(report, catalogue, view, **style))
         return str(writer(report, catalogue))
 
 
 def render_text(
-    report: Report, catalogue: Mapping[str, RuleMeta], view: Terminal
+    report: Report,
+    catalogue: Mapping[str, RuleMeta],
+    view: Terminal,
+    *,
+    details: bool = False,
+    quiet: bool = False,
 ) -> str:
-    """The grouped view on a terminal, else one finding a line (cli.md)."""
+    """The grouped view on a terminal, else one finding a line (cli.md).
+
+    ``details`` adds values and fix under each line (the terminal view always
+    shows them); ``quiet`` leaves only the summary.
+    """
     from netcheck.report.text import render_plain, render_rich
 
     if view.is_terminal:
-        return render_rich(report, color=view.color, width=view.width)
-    return render_plain(report)
+        return render_rich(report, color=view.color, width=view.width, quiet=quiet)
+    return render_plain(report, details=details, quiet=quiet)
 
 
 FORMATS: dict[str, Format] = {

@@ -16,6 +16,8 @@ from pathlib import Path, PurePath
 from typing import Any
 
 from netcheck.catalogue import RuleMeta
+from netcheck.coverage import ElementStatus
+from netcheck.error_records import ErrorRecord
 from netcheck.findings import (
     Finding,
     Severity,
@@ -121,6 +123,9 @@ class Report:
     ``baseline_suppressed`` says how many there were, ``stale_baseline`` lists
     the baseline entries that matched no current finding. ``root`` is the
     absolute project root the paths are relative to (None: not known).
+    ``elements`` is the status of every switching element checked (see
+    :mod:`netcheck.coverage`); ``errors`` the input errors of the files that
+    could not be checked.
     """
 
     findings: tuple[Finding, ...]
@@ -128,6 +133,8 @@ class Report:
     baseline_suppressed: int = 0
     stale_baseline: tuple[Mapping[str, str], ...] = field(default=())
     root: str | None = None
+    elements: tuple[ElementStatus, ...] = ()
+    errors: tuple[ErrorRecord, ...] = ()
 
     @classmethod
     def build(
@@ -136,8 +143,11 @@ class Report:
         files: Iterable[str] = (),
         baseline_suppressed: int = 0,
         stale_baseline: Iterable[Mapping[str, str]] = (),
+        *,
+        elements: Iterable[ElementStatus] = (),
+        errors: Iterable[ErrorRecord] = (),
     ) -> Report:
-        """Prepare and sort the findings, sort and de-duplicate the files."""
+        """Prepare and sort findings, files, elements and errors; drop repeats."""
         # Two designs that include one sheet can both report the same finding.
         unique = {_identity(f): f for f in map(prepare_finding, findings)}
         prepared = sorted(unique.values(), key=_order)
@@ -149,6 +159,8 @@ class Report:
             baseline_suppressed,
             tuple(stale_baseline),
             root.as_posix() if root is not None else None,
+            _shown(elements),
+            _shown(errors),
         )
 
     @property
@@ -168,8 +180,29 @@ class Report:
             counts[finding.severity.label] += 1
         return counts
 
-    def summary(self) -> dict[str, int]:
-        """Return counts by severity, the total, waived, baseline-suppressed, stale."""
+    @property
+    def unverified(self) -> tuple[ElementStatus, ...]:
+        """The switching elements no check could verify."""
+        return tuple(e for e in self.elements if e.status == "unverified")
+
+    def by_rule(self) -> dict[str, int]:
+        """Count active findings by rule, in rule-name order."""
+        counts: dict[str, int] = {}
+        for finding in self.active:
+            counts[finding.rule] = counts.get(finding.rule, 0) + 1
+        return dict(sorted(counts.items()))
+
+    def element_counts(self) -> dict[str, int]:
+        """Switching elements: all of them, verified, unverified."""
+        statuses = [e.status for e in self.elements]
+        return {
+            "switching_elements": len(statuses),
+            "verified": statuses.count("verified"),
+            "unverified": statuses.count("unverified"),
+        }
+
+    def summary(self) -> dict[str, Any]:
+        """Counts by severity, total, waived, baseline, by rule, elements, errors."""
         counts = self.counts()
         return {
             **counts,
@@ -177,7 +210,21 @@ class Report:
             "waived": len(self.waived),
             "baseline_suppressed": self.baseline_suppressed,
             "baseline_stale": len(self.stale_baseline),
+            "by_rule": self.by_rule(),
+            **self.element_counts(),
+            "input_errors": len(self.errors),
         }
+
+
+def _shown(
+    items: Iterable[ElementStatus] | Iterable[ErrorRecord],
+) -> tuple[Any, ...]:
+    """Give records their display path; sort them; drop repeats (shared sheets)."""
+    out = {
+        dataclasses.replace(item, file=display_path(item.file) if item.file else "")
+        for item in items
+    }
+    return tuple(sorted(out))
 
 
 def _order(finding: Finding) -> tuple[Any, ...]:

@@ -3,11 +3,15 @@
 Shape (cli.md, "JSON output")::
 
     {"format": "netcheck-findings/1",
-     "tool": {"name": "netcheck", "version": "0.1.0"},
+     "tool": {"name": "netcheck", "version": "0.1.0", "caution": "..."},
      "files": ["design/top.cnet", ...],          # every file read, sorted
      "findings": [ {finding}, ... ],             # sorted by file, line, column, rule
+     "errors": [{"file", "line", "column", "message"}, ...],   # input errors
+     "unverified": [{"element", "file", "line", "column", "reason"}, ...],
      "summary": {"error": n, "warning": n, "info": n, "total": n,
-                 "waived": n, "baseline_suppressed": n, "baseline_stale": n},
+                 "waived": n, "baseline_suppressed": n, "baseline_stale": n,
+                 "by_rule": {rule: n}, "switching_elements": n, "verified": n,
+                 "unverified": n, "input_errors": n},
      "stale_baseline": [{"fingerprint", "rule", "element", "file"}, ...]}
 
 Each finding has ``rule``, ``severity``, ``message``, ``file``, ``line``,
@@ -17,7 +21,11 @@ Each finding has ``rule``, ``severity``, ``message``, ``file``, ``line``,
 Waived findings are listed so that a review can see them, but the counts of
 the summary (except ``waived``) and ``--fail-on`` leave them out.
 ``stale_baseline`` lists the baseline entries that matched no current finding
-(empty without a baseline), as the baseline file has them.
+(empty without a baseline), as the baseline file has them. ``errors`` are the
+input errors of files that could not be checked (the other files' findings are
+all there; the run exits 2); ``unverified`` the switching elements that no
+check could verify, ``reason`` ``rating-data-missing`` or ``not-analysed``
+(see ``netcheck.coverage``).
 """
 
 from __future__ import annotations
@@ -28,10 +36,19 @@ from typing import Any
 
 from netcheck import __version__
 from netcheck.catalogue import RuleMeta
+from netcheck.coverage import ElementStatus
+from netcheck.error_records import ErrorRecord
 from netcheck.findings import Finding
-from netcheck.report import Report, fix_dict, references, value_dicts
+from netcheck.report import CAUTION, Report, fix_dict, references, value_dicts
 
-__all__ = ["FORMAT", "render_json", "finding_dict", "dump"]
+__all__ = [
+    "FORMAT",
+    "render_json",
+    "finding_dict",
+    "error_dict",
+    "unverified_dict",
+    "dump",
+]
 
 FORMAT = "netcheck-findings/1"
 
@@ -58,13 +75,36 @@ def render_json(report: Report, catalogue: Mapping[str, RuleMeta]) -> str:
     """Render the report as ``netcheck-findings/1`` JSON text."""
     document = {
         "format": FORMAT,
-        "tool": {"name": "netcheck", "version": __version__},
+        "tool": {"name": "netcheck", "version": __version__, "caution": CAUTION},
         "files": list(report.files),
         "findings": [finding_dict(f, catalogue.get(f.rule)) for f in report.findings],
+        "errors": [error_dict(e) for e in report.errors],
+        "unverified": [unverified_dict(e) for e in report.unverified],
         "summary": report.summary(),
         "stale_baseline": [dict(entry) for entry in report.stale_baseline],
     }
     return dump(document)
+
+
+def error_dict(error: ErrorRecord) -> dict[str, Any]:
+    """One input error: file, line and column (0: not located), message."""
+    return {
+        "file": error.file,
+        "line": error.line,
+        "column": error.column,
+        "message": error.message,
+    }
+
+
+def unverified_dict(element: ElementStatus) -> dict[str, Any]:
+    """One switching element no check could verify, and why."""
+    return {
+        "element": element.element,
+        "file": element.file,
+        "line": element.line,
+        "column": element.column,
+        "reason": element.reason,
+    }
 
 
 def dump(document: Any) -> str:

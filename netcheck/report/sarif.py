@@ -4,11 +4,14 @@ Artifact URIs are relative to the working directory under the base id
 ``%SRCROOT%``; the base itself is left for the consumer to resolve so that the
 output holds no absolute path and stays byte-identical between machines.
 Waived findings are results with an ``inSource`` suppression that carries the
-waiver's reason.
+waiver's reason. Input errors of files that could not be checked are
+``toolExecutionNotifications`` of the one invocation, which then says
+``executionSuccessful: false``; the other files' results are all there.
 """
 
 from __future__ import annotations
 
+import re
 from collections.abc import Mapping
 from pathlib import Path
 from typing import Any
@@ -16,9 +19,17 @@ from urllib.parse import quote
 
 from netcheck import __version__
 from netcheck.catalogue import RuleMeta
+from netcheck.error_records import ErrorRecord
 from netcheck.findings import Finding, Severity
-from netcheck.report import Report, fix_dict, references, unique_rules, value_dicts
-from netcheck.report.json import dump
+from netcheck.report import (
+    CAUTION,
+    Report,
+    fix_dict,
+    references,
+    unique_rules,
+    value_dicts,
+)
+from netcheck.report.json import dump, unverified_dict
 from netcheck.report.template_words import readable
 
 __all__ = ["SCHEMA_URI", "LEVELS", "render_sarif"]
@@ -30,6 +41,7 @@ SCHEMA_URI = (
 # rules.md: SARIF levels error, warning, note.
 LEVELS = {Severity.ERROR: "error", Severity.WARNING: "warning", Severity.INFO: "note"}
 SRCROOT = "%SRCROOT%"
+DESCRIPTION = "Lints control-circuit netlists for DC switching hazards."
 
 
 def render_sarif(report: Report, catalogue: Mapping[str, RuleMeta]) -> str:
@@ -42,9 +54,12 @@ def render_sarif(report: Report, catalogue: Mapping[str, RuleMeta]) -> str:
                 "name": "netcheck",
                 "version": __version__,
                 "semanticVersion": __version__,
+                "fullDescription": {"text": f"{DESCRIPTION} {CAUTION}"},
                 "rules": [_descriptor(meta) for meta in rules],
+                "properties": {"caution": CAUTION},
             }
         },
+        "invocations": [_invocation(report)],
         "originalUriBaseIds": {
             SRCROOT: {"description": {"text": "The directory netcheck was run in."}}
         },
@@ -53,7 +68,10 @@ def render_sarif(report: Report, catalogue: Mapping[str, RuleMeta]) -> str:
             _result(f, catalogue.get(f.rule), index.get(f.rule))
             for f in report.findings
         ],
-        "properties": {"summary": report.summary()},
+        "properties": {
+            "summary": report.summary(),
+            "unverified": [unverified_dict(e) for e in report.unverified],
+        },
     }
     log = {"$schema": SCHEMA_URI, "version": "2.1.0", "runs": [run]}
     return dump(log)
@@ -95,7 +113,7 @@ def _result(
     result.update(
         {
             "level": LEVELS[finding.severity],
-            "message": {"text": finding.message},
+            "message": result_message(finding),
             "locations": [_location(finding)],
             "partialFingerprints": {"netcheck/v1": finding.fingerprint},
             "properties": {
@@ -111,6 +129,57 @@ def _result(
             {"kind": "inSource", "status": "accepted", "justification": finding.waived}
         ]
     return result
+
+
+def _invocation(report: Report) -> dict[str, Any]:
+    """Whether every file could be checked; each input error as a notification."""
+    return {
+        "executionSuccessful": not report.errors,
+        "toolExecutionNotifications": [_notification(e) for e in report.errors],
+    }
+
+
+def _notification(error: ErrorRecord) -> dict[str, Any]:
+    notification: dict[str, Any] = {
+        "level": "error",
+        "message": {"text": error.message},
+    }
+    if error.file:
+        region = {"startLine": error.line, "startColumn": max(1, error.column)}
+        physical: dict[str, Any] = {"artifactLocation": artifact_location(error.file)}
+        if error.line >= 1:
+            physical["region"] = region
+        notification["locations"] = [{"physicalLocation": physical}]
+    return notification
+
+
+def result_message(finding: Finding) -> dict[str, str]:
+    """The message, and the fix as its second sentence, in text and markdown.
+
+    SARIF's own ``fixes`` need concrete file replacements (``artifactChanges``
+    is required); a fix such as "fit a diode" is advice, not an edit, so it
+    travels in the message, where viewers show it, and in ``properties.fix``.
+    """
+    if not finding.fix:
+        return {"text": finding.message}
+    message, fix = _sentence(finding.message), _sentence(finding.fix)
+    return {
+        "text": f"{message} Fix: {fix}",
+        "markdown": f"{_markdown(message)}\n\n**Fix:** {_markdown(fix)}",
+    }
+
+
+def _sentence(text: str) -> str:
+    text = " ".join(text.split())
+    return text if text.endswith((".", "!", "?")) else f"{text}."
+
+
+_MARKDOWN_SPECIAL = re.compile(r"([\\`*_{}\[\]<>()#+!|~])")
+
+
+def _markdown(text: str) -> str:
+    """Escape what markdown would read as markup (names like K1_A, [rule])."""
+    return _MARKDOWN_SPECIAL.sub(r"\\\1", text)
 
 
 def _location(finding: Finding) -> dict[str, Any]:

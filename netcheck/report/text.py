@@ -18,6 +18,7 @@ from rich.table import Table
 from rich.text import Text
 
 from netcheck.catalogue import RuleMeta
+from netcheck.coverage import MISSING_DATA, NOT_ANALYSED
 from netcheck.findings import Finding, Severity, quantity_dict
 from netcheck.report import CAUTION, Report, unique_rules
 from netcheck.report.template_words import readable
@@ -26,7 +27,10 @@ __all__ = [
     "render_plain",
     "render_rich",
     "stale_lines",
+    "unverified_lines",
+    "elements_line",
     "summary_line",
+    "summary_lines",
     "render_rules",
     "render_explain",
     "to_text",
@@ -40,17 +44,82 @@ def _one_line(text: str) -> str:
     return " ".join(text.split())
 
 
-def render_plain(report: Report) -> str:
-    """Render ``file:line:column: severity: message [rule]`` lines and a summary."""
-    lines = [
-        f"{f.span.file}:{f.span.line}:{f.span.column}: {f.severity.label}: "
-        f"{_one_line(f.message)} [{f.rule}]"
-        for f in report.active
-    ]
-    lines += stale_lines(report)
-    lines.append(summary_line(report))
+def render_plain(report: Report, *, details: bool = False, quiet: bool = False) -> str:
+    """Render ``file:line:column: severity: message [rule]`` lines and a summary.
+
+    ``details`` adds the computed values and the fix, indented under each
+    finding (the first line stays one finding for grep), and a note per
+    unverified element; ``quiet`` leaves only the summary and the caution.
+    """
+    lines: list[str] = []
+    for finding in () if quiet else report.active:
+        span = finding.span
+        lines.append(
+            f"{span.file}:{span.line}:{span.column}: {finding.severity.label}: "
+            f"{_one_line(finding.message)} [{finding.rule}]"
+        )
+        if details:
+            lines += _detail_lines(finding)
+    if not quiet:
+        lines += stale_lines(report)
+        lines += unverified_lines(report) if details else []
+    lines += summary_lines(report)
     lines.append(f"note: {CAUTION}")
     return "\n".join(lines) + "\n"
+
+
+def _detail_lines(finding: Finding) -> list[str]:
+    values = _values_text(finding)
+    lines = [f"    values: {values}"] if values else []
+    if finding.fix:
+        lines.append(f"    fix: {_one_line(finding.fix)}")
+    return lines
+
+
+# Why an element is unverified, in words (netcheck.coverage's reasons).
+_REASONS = {
+    MISSING_DATA: "a value its checks need is not given (rating-data-missing)",
+    NOT_ANALYSED: "its circuit was not analysed (no supply, or AC and DC together)",
+}
+
+
+def unverified_lines(report: Report) -> list[str]:
+    """One ``note:`` line per switching element no check could verify."""
+    return [
+        f"{e.file}:{e.line}:{e.column}: note: {e.element} is not verified: "
+        f"{_REASONS.get(e.reason, e.reason)}"
+        for e in report.unverified
+    ]
+
+
+def summary_lines(report: Report) -> list[str]:
+    """The summary: counts by severity, by rule, and what could be verified."""
+    by_rule = report.by_rule()
+    lines = []
+    if by_rule:
+        lines.append(
+            "by rule: " + ", ".join(f"{rule} {n}" for rule, n in by_rule.items())
+        )
+    return [summary_line(report), *lines, elements_line(report)]
+
+
+def elements_line(report: Report) -> str:
+    """Say how many switching elements were verified; plainly when none was."""
+    counts = report.element_counts()
+    total, verified = counts["switching_elements"], counts["verified"]
+    unverified = counts["unverified"]
+    ac = total - verified - unverified
+    others = [f"{unverified} unverified"] if unverified else []
+    if ac:
+        others.append(f"{ac} on AC supplies, outside the DC checks")
+    if total == 0:
+        return "nothing could be verified: no switching element was checked"
+    if verified == 0:
+        return (
+            f"nothing could be verified: {_plural(total, 'switching element')}, "
+            f"none verified ({', '.join(others)})"
+        )
+    return f"switching elements: {', '.join([f'{verified} verified', *others])}"
 
 
 def _plural(count: int, word: str) -> str:
@@ -83,6 +152,8 @@ def summary_line(report: Report) -> str:
         notes.append(f"{report.baseline_suppressed} in the baseline")
     if report.stale_baseline:
         notes.append(f"{len(report.stale_baseline)} stale in the baseline")
+    if report.errors:
+        notes.append(_plural(len(report.errors), "input error"))
     return f"{line} ({', '.join(notes)})" if notes else line
 
 
@@ -131,10 +202,16 @@ def _finding_table(group: list[Finding]) -> Table:
     return table
 
 
-def render_rich(report: Report, *, color: bool = True, width: int = 100) -> str:
-    """Render the grouped terminal view (file, element, most severe first)."""
+def render_rich(
+    report: Report, *, color: bool = True, width: int = 100, quiet: bool = False
+) -> str:
+    """Render the grouped terminal view (file, element, most severe first).
+
+    ``quiet`` leaves only the summary and the caution.
+    """
     parts: list[RenderableType] = []
-    for file, findings in groupby(report.active, key=lambda f: f.span.file):
+    shown = () if quiet else report.active
+    for file, findings in groupby(shown, key=lambda f: f.span.file):
         parts.append(Text(file, "bold underline"))
         for group in _groups(tuple(findings)):
             parts.append(
@@ -145,8 +222,9 @@ def render_rich(report: Report, *, color: bool = True, width: int = 100) -> str:
                 )
             )
             parts.append(Padding(_finding_table(group), (0, 0, 1, 4), expand=False))
-    parts += [Text(line, "dim") for line in stale_lines(report)]
-    parts.append(Text(summary_line(report), "bold"))
+    if not quiet:
+        parts += [Text(line, "dim") for line in stale_lines(report)]
+    parts += [Text(line, "bold") for line in summary_lines(report)]
     parts.append(Text(CAUTION, "italic dim"))
     return to_text(Group(*parts), color=color, width=width)
 

@@ -15,7 +15,7 @@ from __future__ import annotations
 
 from netcheck.session.discover import discover_designs
 from netcheck.session.root import project_root
-from netcheck.session.run import CheckErrors, Outcome, check_designs, os_error_line
+from netcheck.session.run import Outcome, check_designs, os_error_line
 from netcheck.session.settings import (
     Request,
     Settings,
@@ -26,7 +26,6 @@ from netcheck.session.settings import (
 )
 
 __all__ = [
-    "CheckErrors",
     "Outcome",
     "Request",
     "Settings",

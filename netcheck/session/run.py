@@ -14,26 +14,13 @@ from pathlib import Path
 from netcheck import pipeline
 from netcheck.baseline import apply_baseline
 from netcheck.catalogue import RuleMeta
-from netcheck.errors import InputError
 from netcheck.findings import Finding, fingerprint
 from netcheck.pipeline import CheckOptions, CheckResult
 from netcheck.report import Report, display_path
 from netcheck.session.discover import discover_designs
 from netcheck.session.settings import Request, Settings, SettingsCache
 
-__all__ = ["CheckErrors", "Outcome", "check_designs", "os_error_line"]
-
-
-class CheckErrors(InputError):
-    """Input errors of one or more designs, already rendered in the worker."""
-
-    def __init__(self, rendered: list[str]) -> None:
-        super().__init__(rendered[0])
-        self.rendered = rendered
-
-    def render(self) -> str:
-        """Every design's errors, in design order."""
-        return "\n".join(self.rendered)
+__all__ = ["Outcome", "check_designs", "os_error_line"]
 
 
 @dataclass(frozen=True)
@@ -51,23 +38,14 @@ def os_error_line(err: OSError) -> str:
     return f"{display_path(err.filename)}: error: {err.strerror or err}"
 
 
-def _check_one(path: Path, options: CheckOptions) -> CheckResult | str:
-    """Check one design; an input error comes back rendered.
-
-    Rendering here keeps the error's span and excerpt: InputError does not
-    survive pickling from a worker process with its span intact.
-    """
-    try:
-        return pipeline.check_path(path, options)
-    except InputError as err:
-        return err.render()
-    except OSError as err:
-        return os_error_line(err)
+def _check_one(path: Path, options: CheckOptions) -> CheckResult:
+    """Check one design; its input errors come back in the result, rendered."""
+    return pipeline.check_design(path, options)
 
 
 def _check_all(
     designs: list[Path], settings: list[Settings], jobs: int
-) -> list[CheckResult | str]:
+) -> list[CheckResult]:
     """Results in the order of ``designs``, whatever order the workers finish in."""
     options = [s.options for s in settings]
     if jobs <= 1 or len(designs) <= 1:
@@ -120,15 +98,11 @@ def check_designs(request: Request, catalogue: Mapping[str, RuleMeta]) -> Outcom
     cache = SettingsCache(request, catalogue)
     settings = [cache.for_design(path) for path in designs]
     results = _check_all(designs, settings, request.jobs)
-    errors = [r for r in results if isinstance(r, str)]
-    if errors:
-        raise CheckErrors(errors)
     findings: list[Finding] = []
     files: set[str] = set()
     seen: set[str] = set()
     suppressed, failing = 0, False
     for path, setting, result in zip(designs, settings, results, strict=True):
-        assert not isinstance(result, str)
         marked = _marked(result.findings)
         seen |= {f.fingerprint for f in marked if f.fingerprint}
         kept = _applied(marked, setting)
@@ -141,5 +115,12 @@ def check_designs(request: Request, catalogue: Mapping[str, RuleMeta]) -> Outcom
         )
         findings += kept
         files |= {str(path), *(str(f) for f in result.files)}
-    report = Report.build(findings, files, suppressed, _stale_entries(settings, seen))
+    report = Report.build(
+        findings,
+        files,
+        suppressed,
+        _stale_entries(settings, seen),
+        elements=[e for result in results for e in result.elements],
+        errors=[e for result in results for e in result.errors],
+    )
     return Outcome(report, failing)

@@ -2,7 +2,8 @@
 
 The stand-in reads ``# fake: RULE ELEMENT [waived=REASON]`` lines and returns one
 finding per line, anchored on that line, so a test moves findings by editing the
-file. A line ``BROKEN`` raises a syntax error there. Real end-to-end runs live in
+file. ``# element: NAME STATUS [REASON]`` gives a switching element its status
+(see ``netcheck.coverage``). A line ``BROKEN`` raises a syntax error there. Real end-to-end runs live in
 ``test_cli_end_to_end.py``.
 """
 
@@ -29,6 +30,7 @@ from report_samples import (  # noqa: E402
 
 from netcheck import catalogue as catalogue_module  # noqa: E402
 from netcheck import cli, pipeline  # noqa: E402
+from netcheck.coverage import ElementStatus  # noqa: E402
 from netcheck.errors import SyntaxInputError  # noqa: E402
 from netcheck.pipeline import CheckOptions, CheckResult  # noqa: E402
 from netcheck.source import Span  # noqa: E402
@@ -54,6 +56,7 @@ VALUES = {
 }
 FAKE = re.compile(r"#\s*fake:\s*(\S+)\s+(\S+)(?:\s+waived=(.+))?$")
 INCLUDE = re.compile(r'^include\s+"([^"]+)"')
+ELEMENT = re.compile(r"#\s*element:\s*(\S+)\s+(verified|unverified|ac)(?:\s+(\S+))?$")
 
 
 @dataclass
@@ -77,7 +80,7 @@ def fake_check_path(catalogue, calls):
     def check_path(path: Path, options: CheckOptions) -> CheckResult:
         calls.append((Path(path).as_posix(), options))
         text = Path(path).read_text(encoding="utf-8")
-        found, files = [], [str(path)]
+        found, files, elements = [], [str(path)], []
         for number, line in enumerate(text.splitlines(), start=1):
             if line.strip() == "BROKEN":
                 raise SyntaxInputError(
@@ -86,6 +89,12 @@ def fake_check_path(catalogue, calls):
             include = INCLUDE.match(line)
             if include:
                 files.append(str(Path(path).parent / include[1]))
+            status = ELEMENT.search(line)
+            if status:
+                name, state, reason = status.groups()
+                elements.append(
+                    ElementStatus(str(path), number, 1, name, state, reason or "")
+                )
             match = FAKE.search(line)
             if match:
                 rule, element, waived = match.groups()
@@ -100,7 +109,9 @@ def fake_check_path(catalogue, calls):
                         waived=waived,
                     )
                 )
-        return CheckResult(file=str(path), findings=found, files=files)
+        return CheckResult(
+            file=str(path), findings=found, files=files, elements=elements
+        )
 
     return check_path
 

@@ -144,14 +144,16 @@ def test_module_entry_point_no_traceback(tmp_path):
 
 
 def test_piped_text_format(project, capsys):
-    project.write("a.cnet", design(INFO, ERROR))
+    project.write("a.cnet", design(INFO, ERROR, "# element: K1:13-14 verified"))
     project.run("check", "a.cnet")
     lines = capsys.readouterr().out.splitlines()
     assert re.fullmatch(r"a\.cnet:2:1: info: .+ \[single-connection-net\]", lines[0])
     assert re.fullmatch(r"a\.cnet:3:1: error: .+ \[dc-break-over-rating\]", lines[1])
     assert lines[2] == "2 findings: 1 error, 0 warnings, 1 info (1 file read)"
-    assert lines[3] == f"note: {CAUTION}"
-    assert len(lines) == 4
+    assert lines[3] == "by rule: dc-break-over-rating 1, single-connection-net 1"
+    assert lines[4] == "switching elements: 1 verified"
+    assert lines[5] == f"note: {CAUTION}"
+    assert len(lines) == 6
 
 
 def test_paths_relative_to_cwd_with_posix_separators(project, capsys):

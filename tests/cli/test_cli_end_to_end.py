@@ -7,6 +7,7 @@ pipeline exists these run.
 from __future__ import annotations
 
 import json
+import re
 import shutil
 from pathlib import Path
 
@@ -100,4 +101,7 @@ def test_piped_text_of_a_real_run(design, capsys):
     cli.main(["check", "machine"])
     lines = capsys.readouterr().out.splitlines()
     assert lines[-1].startswith("note: Results depend on the rating data given")
-    assert all(line.startswith("machine/") for line in lines[:-2])
+    assert re.fullmatch(r"\d+ findings: .+ \(\d+ files read\)", lines[-4])
+    assert lines[-3].startswith("by rule: inductive-load-unsuppressed ")
+    assert re.fullmatch(r"switching elements: \d+ verified", lines[-2])
+    assert all(line.startswith("machine/") for line in lines[:-4])

@@ -14,6 +14,7 @@ from pathlib import Path
 import pytest
 
 from netcheck.catalogue import Margin, RuleMeta
+from netcheck.coverage import NOT_ANALYSED, ElementStatus
 from netcheck.findings import Finding, Severity, fill_template
 from netcheck.report import Report
 from netcheck.source import Span
@@ -191,9 +192,24 @@ def findings(catalogue: dict[str, RuleMeta]) -> list[Finding]:
     return make_findings(catalogue)
 
 
+def make_elements() -> list[ElementStatus]:
+    """The switching elements of the sample: each status once."""
+    top, sheet = "design/top.cnet", "design/sheet-02.cnet"
+    return [
+        ElementStatus(top, 7, 3, "K1:13-14", "verified"),
+        ElementStatus(top, 11, 1, "Q2:1-2", "verified"),
+        ElementStatus(top, 15, 1, "K7:13-14", "unverified", NOT_ANALYSED),
+        ElementStatus(sheet, 20, 1, "K8:1-2", "ac"),
+    ]
+
+
 @pytest.fixture
 def report(findings: list[Finding]) -> Report:
-    return Report.build(findings, ["design/top.cnet", "design/sheet-02.cnet"])
+    return Report.build(
+        findings,
+        ["design/top.cnet", "design/sheet-02.cnet"],
+        elements=make_elements(),
+    )
 
 
 @pytest.fixture

@@ -7,7 +7,7 @@ import json
 from report_samples import make_catalogue, make_findings
 
 from netcheck import __version__
-from netcheck.report import Report
+from netcheck.report import CAUTION, Report
 from netcheck.report.json import render_json
 
 
@@ -20,12 +20,19 @@ def test_top_level_shape(report, catalogue):
         "tool",
         "files",
         "findings",
+        "errors",
+        "unverified",
         "summary",
         "stale_baseline",
     ]
     assert document["stale_baseline"] == []
     assert document["format"] == "netcheck-findings/1"
-    assert document["tool"] == {"name": "netcheck", "version": __version__}
+    assert document["tool"] == {
+        "name": "netcheck",
+        "version": __version__,
+        "caution": CAUTION,
+    }
+    assert document["errors"] == []
     assert document["files"] == ["design/sheet-02.cnet", "design/top.cnet"]
 
 
@@ -80,6 +87,16 @@ def test_waived_listed_but_not_counted(report, catalogue):
         "waived": 1,
         "baseline_suppressed": 0,
         "baseline_stale": 0,
+        "by_rule": {
+            "dc-break-over-rating": 1,
+            "inductive-load-unsuppressed": 1,
+            "single-connection-net": 1,
+            "suppressor-underrated": 1,
+        },  # the waived finding of inductive-load-unsuppressed is not counted
+        "switching_elements": 4,
+        "verified": 2,
+        "unverified": 1,
+        "input_errors": 0,
     }
 
 

@@ -32,13 +32,26 @@ def test_plain_one_line_a_finding(report):
 def test_plain_summary_and_caution_last(report):
     lines = render_plain(report).splitlines()
     summary = "4 findings: 2 errors, 1 warning, 1 info (2 files read, 1 waived)"
-    assert lines[-2] == summary
+    assert lines[-4] == summary
+    assert lines[-3] == (
+        "by rule: dc-break-over-rating 1, inductive-load-unsuppressed 1, "
+        "single-connection-net 1, suppressor-underrated 1"
+    )
+    assert lines[-2] == (
+        "switching elements: 2 verified, 1 unverified, "
+        "1 on AC supplies, outside the DC checks"
+    )
     assert lines[-1] == f"note: {CAUTION}"
 
 
 def test_plain_no_findings():
+    # "No findings" must not read as "all is well" when nothing was checked.
     lines = render_plain(Report.build([], ["a.cnet"])).splitlines()
-    assert lines == ["no findings (1 file read)", f"note: {CAUTION}"]
+    assert lines == [
+        "no findings (1 file read)",
+        "nothing could be verified: no switching element was checked",
+        f"note: {CAUTION}",
+    ]
 
 
 def test_summary_mentions_baseline(findings):
