@@ -3,8 +3,8 @@
 The stand-in reads ``# fake: RULE ELEMENT [waived=REASON]`` lines and returns one
 finding per line, anchored on that line, so a test moves findings by editing the
 file. ``# element: NAME STATUS [REASON]`` gives a switching element its status
-(see ``netcheck.coverage``). A line ``BROKEN`` raises a syntax error there. Real end-to-end runs live in
-``test_cli_end_to_end.py``.
+(see ``netcheck.coverage``). A line ``BROKEN`` raises a syntax error there.
+Real end-to-end runs live in ``test_cli_end_to_end.py``.
 """
 
 from __future__ import annotations
