@@ -1,49 +1,45 @@
-"""Time netcheck's stages on synthetic designs of growing size.
+"""Time netcheck's stages on synthetic designs of every shape and growing size.
 
 Usage::
 
-    python bench/bench.py                       # sizes 1000 5000 20000 100000
-    python bench/bench.py --sizes 200,2000 --repeat 5 --json
+    python bench/bench.py                               # mixed shape, 1000..100000
+    python bench/bench.py --shapes all --sizes 2000,8000,20000 --jobs 2 --json
+    python bench/bench.py --quick                       # every shape, 200, once
 
-For each size the design comes from ``bench/gen_design.py`` (deterministic for
-a given size and seed) and is measured in a fresh subprocess, so that every
-size gets its own peak-memory figure (``ru_maxrss``) and no cache of one size
-helps the next. In the subprocess, after a warm-up on a tiny design (grammar
-compiled, rule catalogue loaded), each repeat times:
+Designs come from ``bench/gen_design.py`` (deterministic for a size, shape and
+seed; the shapes are in ``bench/shapes.py``). Each size is measured in a fresh
+subprocess (``bench/measure.py``), so that every size gets its own peak memory
+(``ru_maxrss``) and no cache of one size helps the next. After a warm-up on a
+tiny design (grammar compiled, rule catalogue loaded), each repeat times, in
+wall clock and CPU time:
 
-- ``parse``: ``netcheck.input.cnet.parse.parse_text`` over every ``.cnet`` file of the
-  design (syntax only; a part of ``load``);
+- ``parse``: ``netcheck.input.cnet.parse.parse_text`` over every ``.cnet`` file
+  of the design (syntax only; a part of ``load``);
 - ``load``: ``netcheck.input.load_design`` (reading, parsing, includes, part
   library, attributes, poles -> Netlist);
 - ``analysis``: ``netcheck.graph.build_graph`` + ``netcheck.analysis.elements.analyse``;
 - ``rules``: ``netcheck.pipeline.run_checks``;
-- ``report``: ``netcheck.report.Report.build`` + ``netcheck.report.json.render_json``
-  (what ``netcheck check --format json`` does with the findings);
+- ``report``: ``netcheck.report.Report.build`` + ``netcheck.report.json.render_json``;
 - ``lark``: a bare lark LALR parse of the same files with the project's grammar
   (no positions, no transformer), the yardstick of the ``ratio`` column.
 
-``total`` is load + analysis + rules + report. The table shows medians over
-``--repeat`` runs; ``ratio`` is total / lark. ``exp`` is the growth exponent of
-the total between a size and the previous one (1.0 is linear). ``--cli``
-also times the whole command line (``netcheck check --format json``) once per
-size, interpreter start-up and imports included. ``--json`` writes the
-results to ``bench/results/latest.json``.
+``total`` is load + analysis + rules + report. Tables show medians over
+``--repeat`` runs; ``exp`` is the growth exponent (log-log slope) of the total
+between a size and the previous size of the same shape (1.0 is linear).
+``--cli`` also times the whole command line once per size; ``--jobs N`` times
+``netcheck check`` on a folder of 20 designs with ``--jobs 1`` and ``--jobs N``.
+``--json`` writes everything to ``bench/results/latest.json``.
 """
 
 from __future__ import annotations
 
 import argparse
 import json
-import math
 import os
 import platform
-import resource
-import statistics
 import subprocess
 import sys
-import tempfile
-import time
-from collections.abc import Callable, Sequence
+from collections.abc import Sequence
 from pathlib import Path
 from typing import Any
 
@@ -51,181 +47,18 @@ HERE = Path(__file__).resolve().parent
 sys.path.insert(0, str(HERE))
 
 import gen_design  # noqa: E402
+from measure import STAGES, measure_jobs, measure_size, worker  # noqa: E402
+from summary import exponents, shape_table, table  # noqa: E402
+
+__all__ = ["STAGES", "main", "table", "shape_table", "build_parser"]
 
 DEFAULT_SIZES = (1000, 5000, 20000, 100000)
-STAGES = ("parse", "load", "analysis", "rules", "report", "lark")
+QUICK_SIZE = 200
+JOB_DESIGNS = 20
+JOB_DESIGN_SIZE = 1000
 RESULTS = HERE / "results" / "latest.json"
-FORMAT = "netcheck-bench/1"
-
-
-# --------------------------------------------------------------------------
-# The measuring subprocess
-# --------------------------------------------------------------------------
-
-
-def _timed(function: Callable[[], Any]) -> tuple[float, Any]:
-    start = time.perf_counter()
-    value = function()
-    return time.perf_counter() - start, value
-
-
-def _cnet_files(top: Path) -> list[Path]:
-    return sorted(top.parent.rglob("*.cnet"))
-
-
-def _measure_once(top: Path, texts: dict[str, str], bare: Any) -> dict[str, Any]:
-    """Time every stage once on the design whose top file is ``top``."""
-    from netcheck.analysis.elements import analyse
-    from netcheck.catalogue import load_catalogue
-    from netcheck.graph import build_graph
-    from netcheck.input import load_design
-    from netcheck.input.cnet.parse import parse_text
-    from netcheck.pipeline import run_checks
-    from netcheck.report import Report
-    from netcheck.report.json import render_json
-
-    out: dict[str, Any] = {}
-    out["parse"], _ = _timed(lambda: [parse_text(t, f) for f, t in texts.items()])
-    out["lark"], _ = _timed(lambda: [bare.parse(t) for t in texts.values()])
-    out["load"], netlist = _timed(lambda: load_design(top, display_base=top.parent))
-
-    def analysis() -> Any:
-        return analyse(build_graph(netlist))
-
-    out["analysis"], result = _timed(analysis)
-    out["rules"], findings = _timed(lambda: run_checks(netlist, result))
-    catalogue = load_catalogue()
-
-    def report() -> str:
-        built = Report.build(findings, netlist.files)
-        return render_json(built, catalogue)
-
-    out["report"], text = _timed(report)
-    out["findings"] = len(findings)
-    out["json_bytes"] = len(text.encode("utf-8"))
-    out["components"] = len(netlist.components)
-    return out
-
-
-def _warm_up() -> None:
-    """Compile the grammar, load the catalogue and checks on a tiny design."""
-    from netcheck.pipeline import check_path
-
-    with tempfile.TemporaryDirectory() as folder:
-        check_path(gen_design.generate(30, Path(folder)))
-
-
-def worker(top: Path, repeat: int) -> dict[str, Any]:
-    """Measure the design ``top`` ``repeat`` times; return the raw figures."""
-    from lark import Lark
-
-    from netcheck.resources import read_text
-
-    rss_start = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss
-    _warm_up()
-    bare = Lark(read_text("grammar", "cnet.lark"), parser="lalr")
-    texts = {
-        f.relative_to(top.parent).as_posix(): f.read_text(encoding="utf-8")
-        for f in _cnet_files(top)
-    }
-    rss_ready = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss
-    runs = [_measure_once(top, texts, bare) for _ in range(repeat)]
-    rss_peak = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss
-    return {
-        "runs": runs,
-        "files": len(texts),
-        "bytes": sum(len(t.encode("utf-8")) for t in texts.values()),
-        # ru_maxrss is in KiB on Linux.
-        "rss_start_kib": rss_start,
-        "rss_ready_kib": rss_ready,
-        "rss_peak_kib": rss_peak,
-    }
-
-
-# --------------------------------------------------------------------------
-# The driver
-# --------------------------------------------------------------------------
-
-
-def _summarise(size: int, raw: dict[str, Any]) -> dict[str, Any]:
-    runs = raw["runs"]
-    median = {s: statistics.median(r[s] for r in runs) for s in STAGES}
-    totals = [r["load"] + r["analysis"] + r["rules"] + r["report"] for r in runs]
-    total = statistics.median(totals)
-    return {
-        "size": size,
-        "components": runs[0]["components"],
-        "files": raw["files"],
-        "bytes": raw["bytes"],
-        "findings": runs[0]["findings"],
-        "repeat": len(runs),
-        "median_s": {**median, "total": total},
-        "min_total_s": min(totals),
-        "max_total_s": max(totals),
-        "ratio_total_to_lark": total / median["lark"] if median["lark"] else None,
-        "per_1000_components_s": total / runs[0]["components"] * 1000,
-        "peak_rss_mib": raw["rss_peak_kib"] / 1024,
-        "rss_before_design_mib": raw["rss_ready_kib"] / 1024,
-        "runs": runs,
-    }
-
-
-def _time_cli(top: Path, timeout: float) -> float | None:
-    command = [
-        sys.executable,
-        "-m",
-        "netcheck",
-        "check",
-        top.name,
-        "--format",
-        "json",
-        "-o",
-        os.devnull,
-    ]
-    start = time.perf_counter()
-    try:
-        done = subprocess.run(
-            command, cwd=top.parent, capture_output=True, timeout=timeout, check=False
-        )
-    except subprocess.TimeoutExpired:
-        return None
-    if done.returncode not in (0, 1):
-        raise RuntimeError(f"netcheck check failed:\n{done.stderr.decode()}")
-    return time.perf_counter() - start
-
-
-def measure_size(
-    size: int,
-    repeat: int,
-    timeout: float,
-    cli: bool,
-    keep: Path | None = None,
-    one_rail: bool = False,
-) -> dict[str, Any]:
-    """Generate a design of ``size`` components and measure it in a subprocess."""
-    with tempfile.TemporaryDirectory(prefix=f"netcheck-bench-{size}-") as folder:
-        out_dir = (keep / str(size)) if keep is not None else Path(folder)
-        top = gen_design.generate(size, out_dir, one_rail=one_rail)
-        command = [
-            sys.executable,
-            str(Path(__file__).resolve()),
-            "--worker",
-            str(top),
-            "--repeat",
-            str(repeat),
-        ]
-        try:
-            done = subprocess.run(
-                command, capture_output=True, text=True, timeout=timeout, check=False
-            )
-        except subprocess.TimeoutExpired:
-            return {"size": size, "timed_out": timeout}
-        if done.returncode != 0:
-            raise RuntimeError(f"bench worker failed for {size}:\n{done.stderr}")
-        result = _summarise(size, json.loads(done.stdout))
-        if cli:
-            result["cli_s"] = _time_cli(top, timeout)
-        return result
+FORMAT = "netcheck-bench/2"
+_exponents = exponents  # the name the smoke test and older scripts use
 
 
 def _machine() -> dict[str, Any]:
@@ -258,76 +91,6 @@ def _commit() -> str | None:
     except (OSError, subprocess.TimeoutExpired):
         return None
     return done.stdout.strip() or None
-
-
-def _exponents(results: Sequence[dict[str, Any]]) -> None:
-    previous = None
-    for result in results:
-        if "timed_out" in result:
-            previous = None
-            continue
-        if previous is not None:
-            t0, t1 = previous["median_s"]["total"], result["median_s"]["total"]
-            n0, n1 = previous["components"], result["components"]
-            if t0 > 0 and t1 > 0 and n1 != n0:
-                result["growth_exponent"] = math.log(t1 / t0) / math.log(n1 / n0)
-        previous = result
-
-
-def table(results: Sequence[dict[str, Any]]) -> str:
-    """The results as a plain-text (and Markdown) table."""
-    head = [
-        "components",
-        "files",
-        "parse",
-        "load",
-        "analysis",
-        "rules",
-        "report",
-        "total",
-        "lark",
-        "ratio",
-        "ms/1k",
-        "exp",
-        "peak MiB",
-    ]
-    if any("cli_s" in r for r in results):
-        head.append("cli")
-    rows = [head, ["---:"] * len(head)]
-    for r in results:
-        if "timed_out" in r:
-            rows.append(
-                [str(r["size"]), f"timed out after {r['timed_out']:.0f} s"]
-                + [""] * (len(head) - 2)
-            )
-            continue
-        m = r["median_s"]
-        exp = r.get("growth_exponent")
-        row = [
-            str(r["components"]),
-            str(r["files"]),
-            *(
-                f"{m[s]:.3f}"
-                for s in (
-                    "parse",
-                    "load",
-                    "analysis",
-                    "rules",
-                    "report",
-                    "total",
-                    "lark",
-                )
-            ),
-            f"{r['ratio_total_to_lark']:.1f}",
-            f"{r['per_1000_components_s'] * 1000:.0f}",
-            f"{exp:.2f}" if exp is not None else "-",
-            f"{r['peak_rss_mib']:.0f}",
-        ]
-        if "cli" in head:
-            cli = r.get("cli_s")
-            row.append(f"{cli:.2f}" if cli is not None else "-")
-        rows.append(row)
-    return "\n".join("| " + " | ".join(row) + " |" for row in rows)
 
 
 def _sizes(text: str) -> list[int]:
@@ -389,43 +152,132 @@ def build_parser() -> argparse.ArgumentParser:
     parser.add_argument(
         "--one-rail",
         action="store_true",
-        help="generate every rung on one rail pair (one supply, one sheet)",
+        help="the one-rail shape only (every rung on one rail pair)",
+    )
+    parser.add_argument(
+        "--shapes",
+        type=_shapes,
+        default=["mixed"],
+        help=f"comma-separated shapes, or all ({', '.join(gen_design.SHAPES)})",
+    )
+    parser.add_argument(
+        "--large",
+        type=str,
+        default=None,
+        metavar="SHAPE:N",
+        help="after the shapes, one run of N components of SHAPE (e.g. mixed:100000)",
+    )
+    parser.add_argument(
+        "--jobs",
+        type=int,
+        default=0,
+        metavar="N",
+        help=f"also time {JOB_DESIGNS} designs with --jobs 1 and --jobs N",
+    )
+    parser.add_argument(
+        "--quick",
+        action="store_true",
+        help=f"every shape at {QUICK_SIZE} components, one run (a smoke run)",
     )
     parser.add_argument("--worker", type=Path, help=argparse.SUPPRESS)
     return parser
 
 
+def _shapes(text: str) -> list[str]:
+    names = [part for part in text.replace(",", " ").split()]
+    if names == ["all"]:
+        return list(gen_design.SHAPES)
+    unknown = [n for n in names if n not in gen_design.SHAPES]
+    if not names or unknown:
+        raise argparse.ArgumentTypeError(
+            f"unknown shape {', '.join(unknown) or text!r}; "
+            f"choose from {', '.join(gen_design.SHAPES)} or all"
+        )
+    return names
+
+
+def _large(text: str | None) -> tuple[str, int] | None:
+    if text is None:
+        return None
+    shape, _, size = text.partition(":")
+    return _shapes(shape)[0], _sizes(size)[0]
+
+
+def _runs(args: argparse.Namespace) -> list[tuple[str, int, int]]:
+    """(shape, size, repeat) of every measurement asked for, in order."""
+    if args.quick:
+        return [(shape, QUICK_SIZE, 1) for shape in gen_design.SHAPES]
+    shapes = ["one-rail"] if args.one_rail else args.shapes
+    runs = [(shape, size, args.repeat) for shape in shapes for size in args.sizes]
+    large = _large(args.large)
+    if large is not None:
+        runs.append((*large, 1))
+    return runs
+
+
+def _write(target: Path, document: dict[str, Any]) -> None:
+    target.parent.mkdir(parents=True, exist_ok=True)
+    temporary = target.with_suffix(".tmp")
+    temporary.write_text(json.dumps(document, indent=2) + "\n", encoding="utf-8")
+    os.replace(temporary, target)
+
+
 def main(argv: Sequence[str] | None = None) -> int:
-    """Run the bench; print the table; optionally write JSON."""
-    args = build_parser().parse_args(argv)
+    """Run the bench; print the tables; optionally write JSON."""
+    parser = build_parser()
+    args = parser.parse_args(argv)
     if args.repeat < 1:
         print("bench: error: --repeat must be at least 1", file=sys.stderr)
+        return 2
+    try:
+        runs = _runs(args)
+    except argparse.ArgumentTypeError as error:
+        print(f"bench: error: --large: {error}", file=sys.stderr)
         return 2
     if args.worker is not None:
         print(json.dumps(worker(args.worker, args.repeat)))
         return 0
     results = []
-    for size in args.sizes:
-        print(f"bench: {size} components ...", file=sys.stderr, flush=True)
+    for shape, size, repeat in runs:
+        print(f"bench: {shape} {size} components ...", file=sys.stderr, flush=True)
         results.append(
-            measure_size(
-                size, args.repeat, args.timeout, args.cli, args.keep, args.one_rail
-            )
+            measure_size(size, repeat, args.timeout, args.cli, args.keep, shape)
         )
-    _exponents(results)
+    exponents(results)
     print(table(results))
+    print()
+    print(shape_table(results))
+    jobs = None
+    if args.jobs > 1:
+        print(f"bench: --jobs on {JOB_DESIGNS} designs ...", file=sys.stderr)
+        jobs = measure_jobs(
+            JOB_DESIGNS, JOB_DESIGN_SIZE, args.jobs, args.repeat, args.timeout
+        )
+        print(f"\n{_jobs_line(jobs)}")
     if args.json or args.output is not None:
         target = args.output or RESULTS
-        target.parent.mkdir(parents=True, exist_ok=True)
         document = {
             "format": FORMAT,
             "machine": _machine(),
             "repeat": args.repeat,
             "results": results,
+            "jobs": jobs,
         }
-        target.write_text(json.dumps(document, indent=2) + "\n", encoding="utf-8")
+        _write(target, document)
         print(f"bench: wrote {target}", file=sys.stderr)
     return 0
+
+
+def _jobs_line(jobs: dict[str, Any]) -> str:
+    medians = jobs["median_s"]
+    one, many = medians["1"], medians[str(jobs["jobs"])]
+    if one is None or many is None:
+        return "--jobs: timed out"
+    return (
+        f"--jobs on {jobs['designs']} designs of {jobs['components_each']} components:"
+        f" 1 job {one:.2f} s, {jobs['jobs']} jobs {many:.2f} s,"
+        f" speed-up {jobs['speed_up']:.2f}x"
+    )
 
 
 if __name__ == "__main__":

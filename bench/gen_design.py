@@ -1,26 +1,26 @@
 """Generate a large synthetic but valid ``.cnet`` design for benchmarks.
 
-Usage: ``python bench/gen_design.py N OUT_DIR`` writes a top file, one sheet per
-few hundred components (spliced in with ``include``) and a part library, and
-prints the top file's path. Standard library only; the same N and seed always
-give byte-identical files.
+Usage: ``python bench/gen_design.py N OUT_DIR [--shape NAME]`` writes a top
+file, sheets spliced in with ``include`` and a part library, and prints the top
+file's path. The shapes (``bench/shapes.py``) are: mixed (the default), one-rail,
+many-supplies, series, parallel, sheets, plc, unsuppressed. Standard library
+only; the same N, shape and seed always give byte-identical files.
 """
 
 from __future__ import annotations
 
 import argparse
-import math
 import random
 import sys
-from collections.abc import Callable, Sequence
+from collections.abc import Sequence
 from dataclasses import dataclass, field
 from pathlib import Path
 
-__all__ = ["generate", "main", "SEED"]
+from shapes import SHAPES, Rung
+
+__all__ = ["generate", "main", "SEED", "SHAPES"]
 
 SEED = 4711
-COMPONENTS_PER_SHEET = 400
-SHEETS_PER_SUPPLY = 10
 TOP_NAME = "design.cnet"
 PARTS_NAME = "bench.parts.yaml"
 SHEET_DIR = "sheets"
@@ -155,8 +155,10 @@ class Sheet:
     rng: random.Random
     hazard_rate: float
     counters: dict[str, int]
+    bare: bool = False
     lines: list[str] = field(default_factory=list)
     wires: int = 0
+    room: int = 0  # components the rung being written may still add
 
     @property
     def bus(self) -> str:
@@ -174,8 +176,8 @@ class Sheet:
         return f"W{self.number}.{self.wires}"
 
     def suppressed(self) -> bool:
-        """Whether this rung gets its freewheel diode (a few do not)."""
-        return self.rng.random() >= self.hazard_rate
+        """Whether this rung gets its freewheel diode (a few do not; bare: none)."""
+        return not self.bare and self.rng.random() >= self.hazard_rate
 
     def diode(self, net: str) -> None:
         """Write a freewheel diode from the negative rail to ``net``."""
@@ -201,6 +203,8 @@ class Sheet:
             count += 1
         kind = "valve-24v" if low else "solenoid-110v"
         self.lines.append(f"load    {self.ref('Y')}  part={kind}  1:{load}  2:{minus}")
+        if self.bare:
+            return count - 1  # no diode across the load either
         self.diode(load)
         return count
 
@@ -221,9 +225,8 @@ class Sheet:
         self.lines.append(
             f"switch  {self.ref('S')}  part=pb-1no  13:{self.bus}  14:{net}"
         )
-        self.lines.append(
-            f"relay   {self.ref('K')}  part=aux-relay-110v-diode  A1:{net}  A2:{minus}"
-        )
+        part = "relay-110v" if self.bare else "aux-relay-110v-diode"
+        self.lines.append(f"relay   {self.ref('K')}  part={part}  A1:{net}  A2:{minus}")
         return 2
 
     def lamp_rung(self) -> int:
@@ -234,34 +237,26 @@ class Sheet:
         )
         return 1
 
-    def fill(self, quota: int) -> None:
-        """Write rungs until exactly ``quota`` components are on the sheet."""
-        rungs: list[tuple[int, Callable[[], int]]] = [
-            (5, self.relay_rung),
-            (3, self.output_rung),
+    def fill(self, quota: int, rungs: Sequence[Rung] = (), lamps: float = 0.05) -> None:
+        """Write rungs until exactly ``quota`` components are on the sheet.
+
+        ``rungs`` are (most components written, writer) pairs; empty means
+        the mixed relay and output rungs. ``lamps`` is the share of pilot
+        lamps drawn between rungs (they also fill what no rung fits).
+        """
+        menu = list(rungs) or [
+            (5, lambda _: self.relay_rung()),
+            (3, lambda _: self.output_rung()),
         ]
         left = quota
         while left > 0:
-            fits = [rung for size, rung in rungs if size <= left]
-            if not fits or self.rng.random() < 0.05:
+            fits = [rung for size, rung in menu if size <= left]
+            if not fits or (lamps > 0 and self.rng.random() < lamps):
                 left -= self.lamp_rung()
             else:
                 # A rung writes at most its size (one less without a diode).
-                left -= self.rng.choice(fits)()
-
-
-def _plan(n: int) -> tuple[int, int, list[int]]:
-    """Return (supplies, sheets, components per sheet) for about ``n`` components."""
-    sheets = max(1, math.ceil(n / COMPONENTS_PER_SHEET))
-    supplies = min(sheets, max(2, math.ceil(sheets / SHEETS_PER_SUPPLY)))
-    rungs = n - supplies - sheets  # each sheet also has its fuse
-    while sheets > 1 and rungs < sheets:
-        sheets -= 1
-        supplies = min(supplies, sheets)
-        rungs = n - supplies - sheets
-    rungs = max(rungs, sheets)
-    base, extra = divmod(rungs, sheets)
-    return supplies, sheets, [base + (1 if i < extra else 0) for i in range(sheets)]
+                self.room = left
+                left -= self.rng.choice(fits)(self)
 
 
 def _supply(index: int) -> Supply:
@@ -283,44 +278,57 @@ def generate(
     seed: int = SEED,
     hazard_rate: float = 0.01,
     one_rail: bool = False,
+    shape: str = "mixed",
 ) -> Path:
     """Write a design of about ``n`` components under ``out_dir``; return the top file.
 
-    The count is exact for ``n`` of a few components per sheet and up. About
+    The count is exact for ``n`` of a few components per bus and up. About
     ``hazard_rate`` of the coils and valves have no freewheel diode, so the
-    checks have something to find. ``one_rail`` puts every rung on one
-    sheet's bus: one supply, one rail pair, the shape of a real cabinet.
+    checks have something to find. ``shape`` names one of ``SHAPES``;
+    ``one_rail`` is ``shape="one-rail"``: every rung on one fused bus, one
+    supply, one rail pair, the shape of a real cabinet.
     """
     if n < 1:
         raise ValueError("n must be at least 1")
+    form = SHAPES["one-rail" if one_rail else shape]
     out_dir = Path(out_dir)
     sheet_dir = out_dir / SHEET_DIR
     sheet_dir.mkdir(parents=True, exist_ok=True)
     rng = random.Random(seed)
-    n_supplies, n_sheets, quotas = (1, 1, [max(1, n - 2)]) if one_rail else _plan(n)
+    shape_name = "one-rail" if one_rail else shape
+    plan = form.plan(n)
+    quotas, n_supplies = plan.quotas, plan.supplies
+    n_sheets = len(quotas)
     supplies = [_supply(i) for i in range(n_supplies)]
     counters: dict[str, int] = {}
     top = [
         "# Synthetic benchmark design generated by bench/gen_design.py",
         f"# ({n} components requested, seed {seed}); illustrative only.",
-        f'title "Synthetic benchmark design, {n} components"',
+        f'title "Synthetic benchmark design, {n} components ({shape_name})"'
+        if shape_name != "mixed"
+        else f'title "Synthetic benchmark design, {n} components"',
         f'parts "{PARTS_NAME}"',
         "",
         *(s.statement() for s in supplies),
         "",
     ]
     written: set[str] = set()
+    page: list[str] = []
     for index, quota in enumerate(quotas):
         number = index + 1
         supply = supplies[index * n_supplies // n_sheets]
-        sheet = Sheet(number, supply, rng, hazard_rate, counters)
+        sheet = Sheet(number, supply, rng, hazard_rate, counters, form.bare)
         sheet.lines += [
             f"# Sheet {number}: rungs on {supply.ref} ({supply.volts} V DC).",
             f"fuse    F{number}  part=fuse-10a-dc  1:{supply.plus}  2:{sheet.bus}",
         ]
-        sheet.fill(quota)
-        name = f"sheet-{number:04d}.cnet"
-        _write(sheet_dir / name, sheet.lines)
+        sheet.fill(quota, form.rungs, form.lamp_rate)
+        page += sheet.lines
+        if number % plan.buses_per_file and number != n_sheets:
+            continue
+        name = f"sheet-{len(written) + 1:04d}.cnet"
+        _write(sheet_dir / name, page)
+        page = []
         written.add(name)
         top.append(f'include "{SHEET_DIR}/{name}"')
     for stale in sheet_dir.glob("sheet-*.cnet"):
@@ -333,7 +341,11 @@ def generate(
 
 
 def main(argv: Sequence[str] | None = None) -> int:
-    """Command line: ``gen_design.py N OUT_DIR [--seed S] [--hazards F]``."""
+    """Command line: ``gen_design.py N OUT_DIR [--shape NAME] [--seed S]``.
+
+    Also ``--hazards F`` (the share of loads left without a diode) and
+    ``--one-rail`` (the same as ``--shape one-rail``).
+    """
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     parser.add_argument("n", type=int, help="number of components, about")
     parser.add_argument("out_dir", type=Path, help="directory to write into")
@@ -347,6 +359,9 @@ def main(argv: Sequence[str] | None = None) -> int:
     parser.add_argument(
         "--one-rail", action="store_true", help="every rung on one rail pair"
     )
+    parser.add_argument(
+        "--shape", choices=sorted(SHAPES), default="mixed", help="design shape"
+    )
     args = parser.parse_args(argv)
     if args.n < 1:
         parser.error("N must be at least 1")
@@ -356,6 +371,7 @@ def main(argv: Sequence[str] | None = None) -> int:
         seed=args.seed,
         hazard_rate=args.hazards,
         one_rail=args.one_rail,
+        shape=args.shape,
     )
     print(top)
     return 0

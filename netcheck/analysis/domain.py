@@ -18,6 +18,7 @@ import networkx as nx
 from netcheck.analysis.circuit import Diode, Resistor, Solution, solve_dc
 from netcheck.analysis.constants import SILICON_DIODE_CONDUCTION_VF
 from netcheck.analysis.loads import LoadFacts, load_facts
+from netcheck.analysis.si import si
 from netcheck.graph import COIL, CONDUCTOR, LOAD, SUPPLY, SWITCH, Branch, Domain
 from netcheck.kinds import RECTIFYING_KINDS
 
@@ -97,11 +98,7 @@ class DomainState:
 
 def _vf(branch: Branch) -> float:
     value = branch.component.value("vf")
-    return (
-        float(value.to("V").magnitude)
-        if value is not None
-        else SILICON_DIODE_CONDUCTION_VF
-    )
+    return si(value, "V") if value is not None else SILICON_DIODE_CONDUCTION_VF
 
 
 def _groups(
@@ -128,9 +125,9 @@ def _rails(domain: Domain, group: dict[str, str]) -> tuple[dict, dict, dict, lis
     graph = nx.Graph()
     for branch in edges:
         value = branch.component.value("dc")
-        emf[branch.ref] = float(value.to("V").magnitude) if value is not None else 0.0
+        emf[branch.ref] = si(value, "V") if value is not None else 0.0
         r = branch.component.value("r_int")
-        r_int[branch.ref] = float(r.to("ohm").magnitude) if r is not None else 0.0
+        r_int[branch.ref] = si(r, "ohm") if r is not None else 0.0
         ga, gb = group[branch.a], group[branch.b]
         if ga == gb:
             shorted.append(branch)
@@ -193,7 +190,7 @@ def _elements(state: DomainState, groups: Iterable[str]) -> tuple[list, list]:
                         ga,
                         gb,
                         _vf(branch),
-                        float(vz.to("V").magnitude) if vz is not None else None,
+                        si(vz, "V") if vz is not None else None,
                     )
                 )
     return resistors, diodes
@@ -205,7 +202,7 @@ def _resistance(state: DomainState, branch: Branch) -> float:
     else:
         value = branch.component.value("R")
     # Zero and negative values are refused on input; what is left is used as given.
-    return float(value.to("ohm").magnitude)
+    return si(value, "ohm")
 
 
 def _direct_solve(state: DomainState) -> Solution:
@@ -344,7 +341,7 @@ def prospective_current(state: DomainState, drop: float = 0.0) -> float | None:
     supply = state.supplies[0]
     emf, r_int = state.emf[supply.ref], state.r_int[supply.ref]
     isc = supply.component.value("isc")
-    limit = float(isc.to("A").magnitude) if isc is not None else None
+    limit = si(isc, "A") if isc is not None else None
     if r_int > 0:
         current = max(emf - drop, 0.0) / r_int
         return min(current, limit) if limit is not None else current

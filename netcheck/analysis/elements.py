@@ -22,6 +22,7 @@ from netcheck.analysis.loads import (
 )
 from netcheck.analysis.result import Analysis, LoadInfo
 from netcheck.analysis.series import changeovers, mark_series
+from netcheck.analysis.si import quantity, si
 from netcheck.analysis.suppression import Chain, find_chains
 from netcheck.analysis.switched import (
     ElementAnalysis,
@@ -33,7 +34,6 @@ from netcheck.analysis.switched import (
 )
 from netcheck.analysis.zero_ohm import ZeroOhm
 from netcheck.graph import COIL, CONDUCTOR, LOAD, SUPPLY, SWITCH, Branch, Domain, Graph
-from netcheck.units import Q_
 
 __all__ = ["Analysis", "LoadInfo", "analyse"]
 
@@ -150,12 +150,14 @@ def _switched_loads(ctx: _Ctx, opening: Opening, power: bool) -> list[SwitchedLo
         voltage = abs(state.net_potential(branch.a) - state.net_potential(branch.b))
         energy = None
         if facts.inductance is not None:
-            energy = (0.5 * facts.inductance * Q_(current, "A") ** 2).to("J")
+            # pint's (0.5·L·I²).to("J") in floats: L is in H (load_facts), the
+            # H·A² → J factor is exactly 1.0, so the product is bit-identical.
+            energy = quantity(0.5 * si(facts.inductance, "H") * current**2, "J")
         loads.append(
             SwitchedLoad(
                 facts,
-                Q_(current, "A"),
-                Q_(voltage, "V"),
+                quantity(current, "A"),
+                quantity(voltage, "V"),
                 category_for(facts.type, power),
                 energy,
                 is_inductive(facts),
@@ -223,7 +225,7 @@ def _analyse_dc(
     taus = [
         ld.facts.time_constant for ld in loads if ld.facts.time_constant is not None
     ]
-    tau = max(taus) if taus else (Q_(0.0, "s") if loads else None)
+    tau = max(taus) if taus else (quantity(0.0, "s") if loads else None)
     energies = [ld.energy for ld in loads if ld.energy is not None]
     inlet = branch.a if opening.current_ab >= 0 else branch.b
     across = _suppressors_between(
@@ -249,13 +251,15 @@ def _analyse_dc(
         component=branch.component,
         domain=ctx.domain.name,
         supply="dc",
-        voltage=Q_(abs(opening.voltage_ab), "V"),
-        current=Q_(abs(current), "A"),
+        voltage=quantity(abs(opening.voltage_ab), "V"),
+        current=quantity(abs(current), "A"),
         loads=tuple(loads),
         load_category=most_demanding([ld.category for ld in loads]),
         time_constant=tau,
-        t95=(T95_PER_TAU * tau) if tau is not None else None,
-        energy=sum(energies, Q_(0.0, "J")) if loads else Q_(0.0, "J"),
+        # Floats, then one quantity each: tau is in s and every energy in J
+        # (load_facts, _switched_loads), so these equal pint's own products.
+        t95=quantity(T95_PER_TAU * si(tau, "s"), "s") if tau is not None else None,
+        energy=quantity(sum((si(e, "J") for e in energies), 0.0), "J"),
         suppression=suppression,
         bypass=opening.bypass,
         direction=(
@@ -312,8 +316,8 @@ def _record_dc_loads(analysis: Analysis, ctx: _Ctx) -> None:
             facts,
             ctx.domain.name,
             "dc",
-            Q_(current, "A") if current is not None else None,
-            Q_(voltage, "V"),
+            quantity(current, "A") if current is not None else None,
+            quantity(voltage, "V"),
             _load_suppressors(ctx, branch),
         )
 

@@ -12,6 +12,7 @@ from dataclasses import replace
 import pint
 
 from netcheck.analysis.constants import SILICON_RECTIFIER_VF, STRAY_CAPACITANCE
+from netcheck.analysis.si import si
 from netcheck.analysis.switched import ElementAnalysis, Suppressor, SwitchedLoad
 from netcheck.analysis.transients import (
     ACROSS_ELEMENT,
@@ -38,7 +39,7 @@ __all__ = [
 def _si(
     value: pint.Quantity | None, unit: str, default: float | None = None
 ) -> float | None:
-    return float(value.to(unit).magnitude) if value is not None else default
+    return si(value, unit) if value is not None else default
 
 
 def model_load(load: SwitchedLoad, supply: pint.Quantity) -> Load | None:

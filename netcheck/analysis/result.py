@@ -9,6 +9,7 @@ import pint
 from netcheck.analysis.domain import DomainState
 from netcheck.analysis.loads import LoadFacts
 from netcheck.analysis.ratings import Assessment
+from netcheck.analysis.si import si
 from netcheck.analysis.suppression import Chain
 from netcheck.analysis.switched import ElementAnalysis, Suppressor
 from netcheck.analysis.verdicts import element_rating
@@ -76,7 +77,7 @@ class Analysis:
 
 
 def _magnitude(value: pint.Quantity | None, unit: str) -> float | None:
-    return None if value is None else float(f"{value.to(unit).magnitude:.9g}")
+    return None if value is None else float(f"{si(value, unit):.9g}")
 
 
 def _verdict_key(element: ElementAnalysis) -> tuple:

@@ -21,6 +21,7 @@ from netcheck.analysis.clamps import (
 )
 from netcheck.analysis.constants import SILICON_RECTIFIER_VF, STRAY_CAPACITANCE
 from netcheck.analysis.ringing import ring_transient
+from netcheck.analysis.si import quantity, si
 from netcheck.units import Q_, Quantity
 
 __all__ = [
@@ -264,7 +265,9 @@ class OpeningTransient:
     @classmethod
     def of(cls, result: Transient) -> OpeningTransient:
         """The quantity form of an SI ``Transient``, waveforms included."""
-        values = {name: Q_(getattr(result, name), u) for name, u in _UNITS.items()}
+        values = {
+            name: quantity(getattr(result, name), u) for name, u in _UNITS.items()
+        }
         return cls(
             kind=result.kind,
             placement=result.placement,
@@ -279,7 +282,7 @@ def _si(value: Quantity | None, unit: str) -> float | None:
 
 
 def _magnitude(value: Quantity, unit: str) -> float:
-    return float(value.to(unit).magnitude)
+    return si(value, unit)
 
 
 def opening_transient(

@@ -1,0 +1,77 @@
+"""Fast crossings between pint quantities and SI floats for the inner loops.
+
+pint spends most of a large design's analysis time building quantities
+(``Quantity.__new__`` parses or checks its unit on every call) and converting
+them (``.to`` looks the factor up afresh each time). The analysis computes in
+SI floats and makes quantities only where a value leaves for a result; these
+two helpers make those crossings cheap while giving exactly what pint gives:
+``si(q, u) == float(q.to(u).magnitude)`` and ``quantity(x, u) == Q_(x, u)``,
+bit for bit (``tests/analysis/test_si.py``).
+"""
+
+from __future__ import annotations
+
+import numbers
+from typing import Any
+
+import numpy as np
+import pint
+
+from netcheck.units import Q_
+
+__all__ = ["si", "quantity"]
+
+# (source units, target unit text) -> multiplicative factor, or None where the
+# conversion is not a plain factor (offset units such as degC): those take
+# pint's own path every time.
+_FACTORS: dict[tuple[Any, str], float | None] = {}
+_CONTAINERS: dict[str, Any] = {}
+# Magnitude types pint stores unchanged (its _to_magnitude returns them as is).
+_PLAIN = frozenset({float, int, np.float64, np.ndarray})
+
+
+def _factor(units: Any, unit: str) -> float | None:
+    key = (units, unit)
+    try:
+        return _FACTORS[key]
+    except KeyError:
+        pass
+    one = float(Q_(1.0, units).to(unit).magnitude)
+    zero = float(Q_(0.0, units).to(unit).magnitude)
+    two = float(Q_(2.0, units).to(unit).magnitude)
+    factor = one if zero == 0.0 and two == 2.0 * one else None
+    _FACTORS[key] = factor
+    return factor
+
+
+def si(value: pint.Quantity, unit: str) -> float:
+    """``float(value.to(unit).magnitude)`` without pint's per-call look-ups."""
+    magnitude = value._magnitude
+    factor = _factor(value._units, unit)
+    if factor is None or not isinstance(magnitude, numbers.Real):
+        return float(value.to(unit).magnitude)
+    # pint converts a multiplicative unit as magnitude * factor; with matching
+    # units the factor is 1.0 and the product is the magnitude exactly.
+    return float(magnitude * factor)
+
+
+def _container(unit: str) -> Any:
+    try:
+        return _CONTAINERS[unit]
+    except KeyError:
+        container = Q_(1.0, unit)._units
+        _CONTAINERS[unit] = container
+        return container
+
+
+def quantity(magnitude: Any, unit: str) -> pint.Quantity:
+    """``Q_(magnitude, unit)``, the unit text parsed once per process."""
+    container = _container(unit)
+    if type(magnitude) in _PLAIN:
+        # What Quantity.__new__ does for these magnitudes (keeps them as they
+        # are), without re-checking the unit and the type on every call.
+        inst = object.__new__(Q_)
+        inst._magnitude = magnitude
+        inst._units = container
+        return inst
+    return Q_(magnitude, container)
