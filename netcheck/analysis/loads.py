@@ -6,6 +6,7 @@ from dataclasses import dataclass
 
 import pint
 
+from netcheck.analysis.si import ratio
 from netcheck.graph import COIL, Branch
 from netcheck.units import Q_
 
@@ -108,13 +109,13 @@ def _resistance_of(values: dict) -> pint.Quantity | None:
     if p is not None and v is not None and p.magnitude > 0:
         return (v**2 / p).to("ohm")
     if v is not None and i is not None and i.magnitude > 0:
-        return (v / i).to("ohm")
+        return ratio(v, i, "ohm")
     return None
 
 
 def _inductance(r: pint.Quantity | None, l_value, tau) -> tuple:
     if l_value is not None:
-        tau_out = (l_value / r).to("s") if r is not None and r.magnitude > 0 else None
+        tau_out = ratio(l_value, r, "s") if r is not None and r.magnitude > 0 else None
         return l_value.to("H"), tau_out
     if tau is not None:
         return ((tau * r).to("H") if r is not None else None), tau.to("s")

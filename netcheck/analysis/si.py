@@ -5,8 +5,8 @@ pint spends most of a large design's analysis time building quantities
 them (``.to`` looks the factor up afresh each time). The analysis computes in
 SI floats and makes quantities only where a value leaves for a result; these
 two helpers make those crossings cheap while giving exactly what pint gives:
-``si(q, u) == float(q.to(u).magnitude)`` and ``quantity(x, u) == Q_(x, u)``,
-bit for bit (``tests/analysis/test_si.py``).
+``si(q, u) == float(q.to(u).magnitude)``, ``quantity(x, u) == Q_(x, u)`` and
+``ratio(a, b, u) == (a / b).to(u)``, bit for bit (``tests/analysis/test_si.py``).
 """
 
 from __future__ import annotations
@@ -19,7 +19,7 @@ import pint
 
 from netcheck.units import Q_
 
-__all__ = ["si", "quantity"]
+__all__ = ["si", "quantity", "ratio"]
 
 # (source units, target unit text) -> multiplicative factor, or None where the
 # conversion is not a plain factor (offset units such as degC): those take
@@ -75,3 +75,15 @@ def quantity(magnitude: Any, unit: str) -> pint.Quantity:
         inst._units = container
         return inst
     return Q_(magnitude, container)
+
+
+def ratio(
+    numerator: pint.Quantity, denominator: pint.Quantity, unit: str
+) -> pint.Quantity:
+    """``(numerator / denominator).to(unit)`` with one cached factor."""
+    top, bottom = numerator._magnitude, denominator._magnitude
+    factor = _factor(numerator._units / denominator._units, unit)
+    if factor is None or not (isinstance(top, float) and isinstance(bottom, float)):
+        return (numerator / denominator).to(unit)
+    # pint divides the magnitudes, then converts the quotient's units.
+    return quantity((top / bottom) * factor, unit)

@@ -2,7 +2,6 @@
 
 from __future__ import annotations
 
-from collections import Counter
 from collections.abc import Iterable, Mapping, Sequence
 from dataclasses import dataclass
 
@@ -34,23 +33,26 @@ class Chain:
         return tuple(b.ref for b in self.branches)
 
 
+# Chains named by the set of their part kinds (how many of each does not matter).
+_CHAIN_NAMES = {
+    frozenset({"diode"}): "diode",
+    frozenset({"diode", "zener"}): "diode-zener",
+    frozenset({"diode", "tvs"}): "diode-zener",
+    frozenset({"zener"}): "zener",
+    frozenset({"tvs"}): "tvs",
+    frozenset({"varistor"}): "varistor",
+    frozenset({"rc"}): "rc",
+    frozenset({"resistor", "capacitor"}): "rc",
+    frozenset({"capacitor"}): "capacitor",
+    frozenset({"resistor"}): "resistor",
+    frozenset({"diode", "resistor"}): "diode-resistor",
+}
+
+
 def chain_kind(kinds: Iterable[str]) -> str:
     """Name a chain by its parts: diode, diode-zener, rc, tvs, varistor, ..."""
-    count = Counter(kinds)
-    names = {
-        frozenset({"diode"}): "diode",
-        frozenset({"diode", "zener"}): "diode-zener",
-        frozenset({"diode", "tvs"}): "diode-zener",
-        frozenset({"zener"}): "zener",
-        frozenset({"tvs"}): "tvs",
-        frozenset({"varistor"}): "varistor",
-        frozenset({"rc"}): "rc",
-        frozenset({"resistor", "capacitor"}): "rc",
-        frozenset({"capacitor"}): "capacitor",
-        frozenset({"resistor"}): "resistor",
-        frozenset({"diode", "resistor"}): "diode-resistor",
-    }
-    return names.get(frozenset(count), "+".join(sorted(count)))
+    found = frozenset(kinds)
+    return _CHAIN_NAMES.get(found) or "+".join(sorted(found))
 
 
 def _polarity(branch: Branch, toward_a: str) -> int:

@@ -7,7 +7,7 @@ import random
 import numpy as np
 import pytest
 
-from netcheck.analysis.si import quantity, si
+from netcheck.analysis.si import quantity, ratio, si
 from netcheck.units import Q_
 
 # Units the analysis reads and writes, with prefixes a design may use.
@@ -65,3 +65,19 @@ def test_quantity_keeps_arrays_and_converts_lists() -> None:
     assert np.array_equal(quantity(wave, "s").to("ms").magnitude, wave * 1000)
     listed = quantity([1.0, 2.0], "V")
     assert isinstance(listed.magnitude, np.ndarray)
+
+
+@pytest.mark.parametrize(
+    ("top", "bottom", "target"),
+    [("H", "ohm", "s"), ("mH", "ohm", "s"), ("mH", "kohm", "ms"), ("V", "mA", "ohm")],
+)
+def test_ratio_is_bit_identical_to_pint(top: str, bottom: str, target: str) -> None:
+    rng = random.Random(7)  # fixed seed
+    for _ in range(200):
+        a, b = Q_(rng.uniform(1e-3, 1e3), top), Q_(rng.uniform(1e-3, 1e3), bottom)
+        made, reference = ratio(a, b, target), (a / b).to(target)
+        assert made.magnitude == reference.magnitude and made.units == reference.units
+    # Whole-number magnitudes take pint's own path.
+    assert ratio(Q_(3, top), Q_(7, bottom), target) == (Q_(3, top) / Q_(7, bottom)).to(
+        target
+    )
