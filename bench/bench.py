@@ -179,6 +179,11 @@ def build_parser() -> argparse.ArgumentParser:
         action="store_true",
         help=f"every shape at {QUICK_SIZE} components, one run (a smoke run)",
     )
+    parser.add_argument(
+        "--no-yardstick",
+        action="store_true",
+        help="skip the parse and bare lark stages (saves about a third of the run)",
+    )
     parser.add_argument("--worker", type=Path, help=argparse.SUPPRESS)
     return parser
 
@@ -235,13 +240,21 @@ def main(argv: Sequence[str] | None = None) -> int:
         print(f"bench: error: --large: {error}", file=sys.stderr)
         return 2
     if args.worker is not None:
-        print(json.dumps(worker(args.worker, args.repeat)))
+        print(json.dumps(worker(args.worker, args.repeat, not args.no_yardstick)))
         return 0
     results = []
     for shape, size, repeat in runs:
         print(f"bench: {shape} {size} components ...", file=sys.stderr, flush=True)
         results.append(
-            measure_size(size, repeat, args.timeout, args.cli, args.keep, shape)
+            measure_size(
+                size,
+                repeat,
+                args.timeout,
+                args.cli,
+                args.keep,
+                shape,
+                yardstick=not args.no_yardstick,
+            )
         )
     exponents(results)
     print(table(results))

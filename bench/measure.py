@@ -37,7 +37,11 @@ def _timed(function: Callable[[], Any]) -> tuple[float, float, Any]:
 
 
 def _measure_once(top: Path, texts: dict[str, str], bare: Any) -> dict[str, Any]:
-    """Time every stage once on the design whose top file is ``top``."""
+    """Time every stage once on the design whose top file is ``top``.
+
+    ``bare`` is the yardstick lark parser, or None to skip the parse and lark
+    stages (they repeat work ``load`` does; recorded as 0).
+    """
     from netcheck.analysis.elements import analyse
     from netcheck.catalogue import load_catalogue
     from netcheck.graph import build_graph
@@ -54,8 +58,11 @@ def _measure_once(top: Path, texts: dict[str, str], bare: Any) -> dict[str, Any]
         out[name], cpu[name], value = _timed(function)
         return value
 
-    stage("parse", lambda: [parse_text(t, f) for f, t in texts.items()])
-    stage("lark", lambda: [bare.parse(t) for t in texts.values()])
+    if bare is not None:
+        stage("parse", lambda: [parse_text(t, f) for f, t in texts.items()])
+        stage("lark", lambda: [bare.parse(t) for t in texts.values()])
+    else:
+        out["parse"] = out["lark"] = cpu["parse"] = cpu["lark"] = 0.0
     netlist = stage("load", lambda: load_design(top, display_base=top.parent))
     result = stage("analysis", lambda: analyse(build_graph(netlist)))
     findings = stage("rules", lambda: run_checks(netlist, result))
@@ -79,7 +86,7 @@ def _warm_up() -> None:
         check_path(gen_design.generate(30, Path(folder)))
 
 
-def worker(top: Path, repeat: int) -> dict[str, Any]:
+def worker(top: Path, repeat: int, yardstick: bool = True) -> dict[str, Any]:
     """Measure the design ``top`` ``repeat`` times; return the raw figures."""
     from lark import Lark
 
@@ -87,7 +94,7 @@ def worker(top: Path, repeat: int) -> dict[str, Any]:
 
     rss_start = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss
     _warm_up()
-    bare = Lark(read_text("grammar", "cnet.lark"), parser="lalr")
+    bare = Lark(read_text("grammar", "cnet.lark"), parser="lalr") if yardstick else None
     files = sorted(top.parent.rglob("*.cnet"))
     texts = {
         f.relative_to(top.parent).as_posix(): f.read_text(encoding="utf-8")
@@ -174,13 +181,14 @@ def measure_size(
     cli: bool,
     keep: Path | None = None,
     shape: str = "mixed",
+    yardstick: bool = True,
 ) -> dict[str, Any]:
     """Generate a design of ``size`` components and measure it in a subprocess."""
     with tempfile.TemporaryDirectory(prefix=f"netcheck-bench-{size}-") as folder:
         out_dir = (keep / shape / str(size)) if keep is not None else Path(folder)
         top = gen_design.generate(size, out_dir, shape=shape)
         command = [sys.executable, str(BENCH), "--worker", str(top)]
-        command += ["--repeat", str(repeat)]
+        command += ["--repeat", str(repeat)] + ([] if yardstick else ["--no-yardstick"])
         try:
             done = subprocess.run(
                 command, capture_output=True, text=True, timeout=timeout, check=False

@@ -67,7 +67,7 @@ def _row(r: dict[str, Any], head: Sequence[str]) -> list[str]:
         str(r["components"]),
         str(r["files"]),
         *(f"{m[s]:.3f}" for s in _STAGE_COLUMNS),
-        f"{r['ratio_total_to_lark']:.1f}",
+        f"{r['ratio_total_to_lark']:.1f}" if r["ratio_total_to_lark"] else "-",
         f"{r['per_1000_components_s'] * 1000:.0f}",
         f"{exp:.2f}" if exp is not None else "-",
         f"{r['peak_rss_mib']:.0f}",
