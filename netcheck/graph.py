@@ -7,6 +7,7 @@ from dataclasses import dataclass, field
 
 import networkx as nx
 
+from netcheck.alloc import collector_paused
 from netcheck.kinds import (
     COIL_KINDS,
     NON_CONDUCTING_KINDS,
@@ -133,6 +134,11 @@ class Graph:
 
 def build_graph(netlist: Netlist) -> Graph:
     """Build the net graph and the supply domains of a netlist."""
+    with collector_paused():
+        return _build_graph(netlist)
+
+
+def _build_graph(netlist: Netlist) -> Graph:
     graph = nx.MultiGraph()
     connections: dict[str, list[tuple[Component, str]]] = {}
     for component in netlist.components:

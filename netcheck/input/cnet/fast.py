@@ -41,20 +41,21 @@ KEYWORDS = frozenset({"title", "parts", "include", "waive"})
 # name, or a string. Each must end at a blank, a comment or the line's end;
 # anything else is left to the grammar.
 _TOKEN = re.compile(
-    rf"[ \t]*(?:"
-    rf"(?P<key>{_NAME})=(?:(?P<quoted>{_STRING})|(?P<value>{_VALUE}))"
-    rf"|(?P<terminal>{_NAME}):(?P<net>{_NAME})"
-    rf"|(?P<name>{_NAME})"
-    rf"|(?P<string>{_STRING})"
+    rf"[ \t]*("
+    rf"({_NAME})=(?:({_STRING})|({_VALUE}))"
+    rf"|({_NAME}):({_NAME})"
+    rf"|({_NAME})"
+    rf"|({_STRING})"
     rf")(?=[ \t]|#|\Z)"
 )
 _REST = re.compile(r"[ \t]*(?:#.*)?\Z")
-_BLANK = re.compile(r"[ \t]*(?:#.*)?\Z")
+_BLANK = _REST
 
-# A token: (shape, texts, line, column, end column); shapes are "item" (key and
-# value), "quoted" (key and quoted value), "link" (terminal and net), "name"
-# and "string". Tokens never span lines.
-Token = tuple[str, tuple[str, ...], int, int, int]
+# A token: (shape, first text, second text, line, column, end column); shapes
+# are ITEM (key and value), QUOTED (key and quoted value), LINK (terminal and
+# net), NAME and STRING (one text). Tokens never span lines.
+ITEM, QUOTED, LINK, NAME, STRING = range(5)
+Token = tuple[int, str, str, int, int, int]
 
 
 class _GiveUp(Exception):
@@ -63,31 +64,27 @@ class _GiveUp(Exception):
 
 def _line_tokens(line: str, number: int) -> list[Token]:
     tokens: list[Token] = []
-    at, end = 0, len(line)
-    while at < end:
-        match = _TOKEN.match(line, at)
-        if match is None:
-            if _REST.match(line, at):
-                return tokens
-            raise _GiveUp
-        tokens.append(_token(match, number))
+    at = 0
+    for match in _TOKEN.finditer(line):
+        if match.start() != at:
+            break  # something no token explains: only a comment may follow
         at = match.end()
+        key, quoted, value, terminal, net, name, string = match.groups()[1:]
+        start = match.start(1) + 1
+        if key is not None:
+            if quoted is not None:
+                tokens.append((QUOTED, key, quoted, number, start, at + 1))
+            else:
+                tokens.append((ITEM, key, value, number, start, at + 1))
+        elif terminal is not None:
+            tokens.append((LINK, terminal, net, number, start, at + 1))
+        elif name is not None:
+            tokens.append((NAME, name, "", number, start, at + 1))
+        else:
+            tokens.append((STRING, string, "", number, start, at + 1))
+    if not _REST.match(line, at):
+        raise _GiveUp
     return tokens
-
-
-def _token(match: re.Match[str], number: int) -> Token:
-    kind = match.lastgroup
-    start, stop = match.span(kind if kind in ("name", "string") else 0)
-    if kind == "name" or kind == "string":
-        return kind, (match[kind],), number, start + 1, stop + 1
-    if kind == "net":
-        texts = (match["terminal"], match["net"])
-        shape = "link"
-    else:
-        texts = (match["key"], match[kind])
-        shape = "quoted" if kind == "quoted" else "item"
-    start = match.start("terminal" if shape == "link" else "key")
-    return shape, texts, number, start + 1, stop + 1
 
 
 def _statements_tokens(text: str) -> list[list[Token]]:
@@ -111,42 +108,47 @@ def _statements_tokens(text: str) -> list[list[Token]]:
 
 
 def _span(file: str, first: Token, last: Token) -> Span:
-    return Span(file, first[2], first[3], last[2], last[4])
+    return Span(file, first[3], first[4], last[3], last[5])
 
 
-def _check_names(texts: tuple[str, ...]) -> None:
-    if any(text in KEYWORDS for text in texts):
+def _check_names(*texts: str) -> None:
+    if not KEYWORDS.isdisjoint(texts):
         raise _GiveUp  # how the grammar lexes a keyword there is its business
 
 
-def _component(file: str, tokens: list[Token]) -> ComponentStatement:
-    if len(tokens) < 2 or tokens[0][0] != "name" or tokens[1][0] != "name":
-        raise _GiveUp
-    kind, ref = tokens[0], tokens[1]
-    _check_names((ref[1][0],))
+def _items(
+    file: str, tokens: list[Token]
+) -> tuple[list[RawAttribute], list[tuple[str, str, Span]]]:
     attributes: list[RawAttribute] = []
     connections: list[tuple[str, str, Span]] = []
-    for token in tokens[2:]:
-        shape, texts, line, column, end = token
+    for shape, first, second, line, column, end in tokens:
         span = Span(file, line, column, line, end)
-        if shape == "link":
-            _check_names(texts)
-            connections.append((texts[0], texts[1], span))
+        if shape == LINK:
+            _check_names(first, second)
+            connections.append((first, second, span))
             continue
-        if shape == "item":
-            _check_names(texts)
-            text, quoted = texts[1], False
-        elif shape == "quoted":
-            _check_names(texts[:1])
-            text, quoted = unquote(texts[1]), True
+        if shape == ITEM:
+            _check_names(first, second)
+            text, quoted = second, False
+        elif shape == QUOTED:
+            _check_names(first)
+            text, quoted = unquote(second), True
         else:
             raise _GiveUp
-        start = column + len(texts[0]) + 1
-        value_span = Span(file, line, start, line, end)
-        attributes.append(RawAttribute(texts[0], text, quoted, span, value_span))
+        value_span = Span(file, line, column + len(first) + 1, line, end)
+        attributes.append(RawAttribute(first, text, quoted, span, value_span))
+    return attributes, connections
+
+
+def _component(file: str, tokens: list[Token]) -> ComponentStatement:
+    if len(tokens) < 2 or tokens[0][0] != NAME or tokens[1][0] != NAME:
+        raise _GiveUp
+    kind, ref = tokens[0], tokens[1]
+    _check_names(ref[1])
+    attributes, connections = _items(file, tokens[2:])
     return ComponentStatement(
-        kind=kind[1][0],
-        ref=ref[1][0],
+        kind=kind[1],
+        ref=ref[1],
         attributes=tuple(attributes),
         connections=tuple(connections),
         span=_span(file, kind, tokens[-1]),
@@ -159,30 +161,22 @@ def _keyword_statement(
     file: str, tokens: list[Token]
 ) -> FileStatement | WaiveStatement:
     keyword, last = tokens[0], tokens[-1]
-    if last[0] != "string":
+    if last[0] != STRING:
         raise _GiveUp
     span = _span(file, keyword, last)
     last_span = _span(file, last, last)
-    if keyword[1][0] != "waive":
+    if keyword[1] != "waive":
         if len(tokens) != 2:
             raise _GiveUp
-        return FileStatement(keyword[1][0], unquote(last[1][0]), span, last_span)
-    if (
-        len(tokens) != 4
-        or tokens[1][0] != "name"
-        or tokens[2][0]
-        not in (
-            "name",
-            "link",
-        )
-    ):
+        return FileStatement(keyword[1], unquote(last[1]), span, last_span)
+    if len(tokens) != 4 or tokens[1][0] != NAME or tokens[2][0] not in (NAME, LINK):
         raise _GiveUp
     rule, target = tokens[1], tokens[2]
-    _check_names(rule[1] + target[1])
+    _check_names(rule[1], target[1], target[2])
     return WaiveStatement(
-        rule[1][0],
-        ":".join(target[1]),
-        unquote(last[1][0]),
+        rule[1],
+        f"{target[1]}:{target[2]}" if target[0] == LINK else target[1],
+        unquote(last[1]),
         span,
         _span(file, target, target),
         last_span,
@@ -195,7 +189,7 @@ def fast_statements(text: str, file: str) -> list[Statement] | None:
         out: list[Statement] = []
         for tokens in _statements_tokens(text):
             first = tokens[0]
-            if first[0] == "name" and first[1][0] in KEYWORDS:
+            if first[0] == NAME and first[1] in KEYWORDS:
                 out.append(_keyword_statement(file, tokens))
             else:
                 out.append(_component(file, tokens))
