@@ -21,6 +21,7 @@ from hypothesis import strategies as st
 
 from netcheck.errors import InputError, InputErrors
 from netcheck.input.cnet.fast import KEYWORDS, fast_statements
+from netcheck.input.cnet.includes import include_names, lexed_include_names
 from netcheck.input.cnet.parse import parse_text, parse_with_grammar
 
 ROOT = Path(__file__).resolve().parent.parent
@@ -59,6 +60,8 @@ def _reader(text: str, file: str) -> object:
 
 def _agree(text: str, file: str = "t.cnet") -> bool:
     """Assert the readers agree; return whether the fast reader answered."""
+    # Discovery's include scan too: the fast reader's includes are the lexer's.
+    assert include_names(text) == lexed_include_names(text)
     fast = fast_statements(text, file)
     grammar = _grammar(text, file)
     if fast is not None:
@@ -95,6 +98,7 @@ def test_every_documentation_example_reads_the_same(page, index, body):
 @pytest.mark.parametrize(
     "text",
     [
+        'include "sheets/a.cnet"',
         "relay title 13:a 14:b",  # a keyword as a reference
         "relay K1 part=include",  # a keyword as a value
         "load H1 title:x",  # a keyword as a terminal
@@ -111,6 +115,9 @@ def test_every_documentation_example_reads_the_same(page, index, body):
         'load H1 note="a \\" b"#c 1:a',
         "load H1 v=24V#c\n#\n\tr=4\\7",
         "load H1 1:a\u00a02:b",  # a no-break space
+        'include "a.cnet"\nload H1 1:a\ninclude\n  "b.cnet" # c\n',
+        'load H1 1:a\n  include "a.cnet"',  # a keyword continuing a statement
+        '\ufeffinclude "a.cnet"',  # a byte-order mark the include scan keeps
     ],
 )
 def test_edge_shapes_read_the_same(text):
