@@ -2,11 +2,12 @@
 
 from __future__ import annotations
 
-from collections.abc import Iterator
+from collections.abc import Iterable, Iterator
 from dataclasses import dataclass, field
 
 import networkx as nx
 
+from netcheck.alloc import collector_paused
 from netcheck.kinds import (
     COIL_KINDS,
     NON_CONDUCTING_KINDS,
@@ -133,29 +134,27 @@ class Graph:
 
 def build_graph(netlist: Netlist) -> Graph:
     """Build the net graph and the supply domains of a netlist."""
-    graph = nx.MultiGraph()
+    with collector_paused():
+        return _build_graph(netlist)
+
+
+def _build_graph(netlist: Netlist) -> Graph:
     connections: dict[str, list[tuple[Component, str]]] = {}
     for component in netlist.components:
         for connection in component.connections:
             connections.setdefault(connection.net, []).append(
                 (component, connection.terminal)
             )
-            graph.add_node(connection.net)
+    graph = nx.MultiGraph()
+    graph.add_nodes_from(connections)
     branches = [b for c in netlist.components for b in _component_branches(c)]
-    joining = nx.Graph()
-    joining.add_nodes_from(graph.nodes)
-    for branch in branches:
-        graph.add_edge(
-            branch.a, branch.b, key=branch.key, **{ROLE: branch.role, BRANCH: branch}
-        )
-        if branch.role not in NON_CONDUCTING_KINDS:
-            joining.add_edge(branch.a, branch.b)
+    graph.add_edges_from((b.a, b.b, b.key, {ROLE: b.role, BRANCH: b}) for b in branches)
     domains, domain_of = [], {}
     supplies_at: dict[str, list[Component]] = {}
     for branch in branches:
         if branch.role == SUPPLY:
             supplies_at.setdefault(branch.a, []).append(branch.component)
-    for nets in nx.connected_components(joining):
+    for nets in _joined_nets(connections, branches):
         supplies = sorted(
             {s.ref: s for n in nets for s in supplies_at.get(n, [])}.values(),
             key=lambda s: (s.span, s.ref),
@@ -168,3 +167,24 @@ def build_graph(netlist: Netlist) -> Graph:
         domain_of[branch.a].branches.append(branch)
     domains.sort(key=lambda d: (d.name, min(d.nets)))
     return Graph(netlist, graph, branches, domains, domain_of, connections)
+
+
+def _joined_nets(nets: Iterable[str], branches: list[Branch]) -> list[list[str]]:
+    """The nets that conducting branches join, group by group (union-find)."""
+    parent = {net: net for net in nets}
+
+    def root(net: str) -> str:
+        while parent[net] != net:
+            parent[net] = parent[parent[net]]  # path halving keeps trees flat
+            net = parent[net]
+        return net
+
+    for branch in branches:
+        if branch.role not in NON_CONDUCTING_KINDS:
+            a, b = root(branch.a), root(branch.b)
+            if a != b:
+                parent[a] = b
+    groups: dict[str, list[str]] = {}
+    for net in parent:
+        groups.setdefault(root(net), []).append(net)
+    return list(groups.values())

@@ -13,6 +13,7 @@ from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 from pathlib import Path
 
+from netcheck.alloc import collector_paused
 from netcheck.input import cnet
 from netcheck.model import Netlist
 
@@ -68,7 +69,8 @@ def load_design(
     (a design named on the command line may be called anything).
     """
     reader = _reader(path) or READERS[".cnet"]
-    return reader.load(path, extra_parts, allow_outside, display_base)
+    with collector_paused():
+        return reader.load(path, extra_parts, allow_outside, display_base)
 
 
 def read_design_text(text: str, file: str = "design.cnet") -> Netlist:

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import difflib
 from collections.abc import Mapping, Sequence
+from functools import cache, lru_cache
 from pathlib import Path
 from typing import Any
 
@@ -43,6 +44,7 @@ from netcheck.model import (
     Connection,
     Netlist,
     Part,
+    Pole,
     SwitchingElement,
 )
 from netcheck.quantity_hints import parse_with_hint
@@ -58,6 +60,22 @@ def _close(word: str, options: Sequence[str]) -> str:
 
 
 def _parse_value(key: str, text: str, span: Span, quoted: bool) -> Any:
+    try:
+        return _value_of(key, text)
+    except InputError:
+        return _value_at(key, text, span)  # again, to raise the error located
+
+
+@lru_cache(maxsize=4096)
+def _value_of(key: str, text: str) -> Any:
+    """The parsed value of ``key=text``, remembered: designs repeat their values.
+
+    Quantities are shared between components that way; nothing mutates them.
+    """
+    return _value_at(key, text, None)
+
+
+def _value_at(key: str, text: str, span: Span | None) -> Any:
     base = key.rsplit(".", 1)[-1]
     dimension = QUANTITY_KEYS.get(base)
     if dimension is not None:
@@ -80,34 +98,62 @@ def _parse_value(key: str, text: str, span: Span, quoted: bool) -> Any:
     return text
 
 
-def _allowed_keys(kind: str) -> list[str]:
+@cache
+def _allowed_keys(kind: str) -> tuple[str, ...]:
     keys = list(KIND_ATTRIBUTES[kind])
     if kind in POLE_KINDS:
         keys += [f"contacts.{k}" for k in CONTACT_KEYS]
         if kind in COIL_KINDS:
             keys += [f"coil.{k}" for k in COIL_KEYS]
-    return keys
+    return tuple(keys)
 
 
-def _merge(part: Part | None, attributes: Sequence[Attribute]) -> dict[str, Any]:
-    values: dict[str, Any] = {}
-    if part is not None:
-        values = {
-            k: (dict(v) if isinstance(v, Mapping) else v) for k, v in part.data.items()
-        }
+def _merge(base: Mapping[str, Any], attributes: Sequence[Attribute]) -> dict[str, Any]:
+    """The part's values (``base``) with the inline attributes written over them."""
+    values = dict(base)
+    copied: set[str] = set()
     for attribute in attributes:
         if "." in attribute.key:
             group, key = attribute.key.split(".", 1)
-            values.setdefault(group, {})[key] = attribute.value
+            if group not in copied:  # copy a group of the part's before writing it
+                values[group] = dict(values.get(group, {}))
+                copied.add(group)
+            values[group][key] = attribute.value
         else:
             values[attribute.key] = attribute.value
     return values
+
+
+@lru_cache(maxsize=1024)
+def _inferred(
+    terminals: tuple[str, ...], has_coil: bool
+) -> tuple[tuple[Pole, ...], tuple[str, ...]]:
+    """``infer_poles``, remembered: a design uses a few terminal sets many times."""
+    poles, unexplained = infer_poles(terminals, has_coil)
+    return tuple(poles), tuple(unexplained)
 
 
 class _Builder:
     def __init__(self, parts: Mapping[str, Part], errors: list[InputError]) -> None:
         self.parts = parts
         self.errors = errors
+        self.part_values: dict[str, dict[str, Any]] = {}
+
+    def values_of(self, part: Part | None) -> Mapping[str, Any]:
+        """A part's data with its groups as dicts, made once per part.
+
+        Components of one part share its groups until an inline ``group.key``
+        attribute overrides one (``_merge`` copies that group first).
+        """
+        if part is None:
+            return {}
+        values = self.part_values.get(part.name)
+        if values is None:
+            values = self.part_values[part.name] = {
+                k: (dict(v) if isinstance(v, Mapping) else v)
+                for k, v in part.data.items()
+            }
+        return values
 
     def attributes(self, statement: ComponentStatement) -> list[Attribute]:
         allowed = _allowed_keys(statement.kind)
@@ -212,7 +258,7 @@ class _Builder:
                 check_terminals(statement.ref, poles, used, has_coil, spans)
             )
         else:
-            poles, unexplained = infer_poles(used, has_coil)
+            poles, unexplained = _inferred(tuple(used), has_coil)
             for terminal in unexplained:
                 self.errors.append(
                     InputError(
@@ -229,7 +275,8 @@ class _Builder:
     def protective_poles(
         self, statement: ComponentStatement, connections: Sequence[Connection]
     ) -> tuple[tuple, tuple]:
-        poles, unexplained = infer_poles([c.terminal for c in connections], False)
+        terminals = tuple(c.terminal for c in connections)
+        poles, unexplained = _inferred(terminals, False)
         spans = {c.terminal: c.span for c in connections}
         for terminal in unexplained:
             self.errors.append(
@@ -271,7 +318,7 @@ class _Builder:
         connections = self.connections(statement)
         self.check_fixed_terminals(statement, connections)
         poles, elements = self.poles(statement, part, connections)
-        values = _merge(part, attributes)
+        values = _merge(self.values_of(part), attributes)
         tags = frozenset(values.get("tags", ()))
         return Component(
             statement.kind,

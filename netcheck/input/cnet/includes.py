@@ -15,9 +15,11 @@ from pathlib import Path
 from lark import Token
 from lark.exceptions import UnexpectedCharacters
 
+from netcheck.input.cnet.fast import fast_statements
 from netcheck.input.cnet.parse import parser, unquote
+from netcheck.input.cnet.statements import FileStatement
 
-__all__ = ["included_files", "include_names"]
+__all__ = ["included_files", "include_names", "lexed_include_names"]
 
 
 def _tokens(text: str) -> Iterator[Token]:
@@ -35,7 +37,22 @@ def _tokens(text: str) -> Iterator[Token]:
 
 
 def include_names(text: str) -> list[str]:
-    """The strings of the ``include`` statements of ``text``, unquoted, in order."""
+    """The strings of the ``include`` statements of ``text``, unquoted, in order.
+
+    Well-formed text is read by the fast reader (no lark); other text is lexed.
+    """
+    statements = fast_statements(text, "")
+    if statements is None:
+        return lexed_include_names(text)
+    return [
+        s.text
+        for s in statements
+        if isinstance(s, FileStatement) and s.keyword == "include"
+    ]
+
+
+def lexed_include_names(text: str) -> list[str]:
+    """``include_names`` by the grammar's lexer, for text of any shape."""
     names: list[str] = []
     previous: Token | None = None
     keyword = False

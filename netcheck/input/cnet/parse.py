@@ -3,19 +3,27 @@
 from __future__ import annotations
 
 import re
-from dataclasses import dataclass
 from functools import lru_cache
 
 from lark import Lark, Token, Transformer, Tree, UnexpectedInput, v_args
 from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedToken
 
 from netcheck.errors import InputError, InputErrors, SyntaxInputError
+from netcheck.input.cnet.fast import fast_statements
 from netcheck.input.cnet.messages import (
     CHARACTER_HINTS,
     STATE_EXAMPLES,
     SYNTAX_MESSAGES,
 )
 from netcheck.input.cnet.slips import slip
+from netcheck.input.cnet.statements import (
+    ComponentStatement,
+    FileStatement,
+    RawAttribute,
+    SourceFile,
+    WaiveStatement,
+    unquote,
+)
 from netcheck.resources import read_text
 from netcheck.source import Span, register_text
 
@@ -27,64 +35,11 @@ __all__ = [
     "SourceFile",
     "SYNTAX_MESSAGES",
     "parse_text",
+    "parse_with_grammar",
     "decode_source",
 ]
 
 MAX_ERRORS = 20
-
-
-@dataclass(frozen=True)
-class RawAttribute:
-    """``key=value`` as written: the value's text, unquoted, and if it was quoted."""
-
-    key: str
-    text: str
-    quoted: bool
-    span: Span
-    value_span: Span
-
-
-@dataclass(frozen=True)
-class ComponentStatement:
-    """``kind ref key=value ... terminal:net ...``."""
-
-    kind: str
-    ref: str
-    attributes: tuple[RawAttribute, ...]
-    connections: tuple[tuple[str, str, Span], ...]
-    span: Span
-    kind_span: Span
-    ref_span: Span
-
-
-@dataclass(frozen=True)
-class FileStatement:
-    """``title``, ``parts`` or ``include`` with its string."""
-
-    keyword: str
-    text: str
-    span: Span
-    text_span: Span
-
-
-@dataclass(frozen=True)
-class WaiveStatement:
-    """``waive rule target "reason"``."""
-
-    rule: str
-    target: str
-    reason: str
-    span: Span
-    target_span: Span
-    reason_span: Span
-
-
-@dataclass(frozen=True)
-class SourceFile:
-    """The statements of one file, in order."""
-
-    file: str
-    statements: tuple[ComponentStatement | FileStatement | WaiveStatement, ...]
 
 
 @lru_cache(maxsize=1)
@@ -101,20 +56,6 @@ def parser() -> Lark:
 def _span(file: str, token: Token | Tree) -> Span:
     meta = token if isinstance(token, Token) else token.meta
     return Span(file, meta.line, meta.column, meta.end_line, meta.end_column)
-
-
-def unquote(token: Token) -> str:
-    """The text of a STRING token, quotes and escapes removed."""
-    body = str(token)[1:-1]
-    out, i = [], 0
-    while i < len(body):
-        if body[i] == "\\" and i + 1 < len(body):
-            out.append(body[i + 1])
-            i += 2
-        else:
-            out.append(body[i])
-            i += 1
-    return "".join(out)
 
 
 class _ToStatements(Transformer):
@@ -347,6 +288,18 @@ def _syntax_errors(text: str, file: str) -> tuple[Tree | None, list[InputError]]
 def parse_text(text: str, file: str) -> SourceFile:
     """Parse one file's text; raise InputErrors with every syntax error found."""
     register_text(file, text)
+    fast = fast_statements(text, file)
+    if fast is not None:
+        return SourceFile(file, tuple(fast))
+    return parse_with_grammar(text, file)
+
+
+def parse_with_grammar(text: str, file: str) -> SourceFile:
+    """Parse one file's text with the lark parser, which words every error.
+
+    ``parse_text`` comes here for any text the fast reader is not sure of; the
+    tests compare the two readers on well-formed text.
+    """
     tree, errors = _syntax_errors(text, file)
     if errors:
         raise InputErrors(errors)
