@@ -139,15 +139,24 @@ class _Ctx:
     wire: Mapping[str, str]
 
 
-def _switched_loads(ctx: _Ctx, opening: Opening, power: bool) -> list[SwitchedLoad]:
+def _switched_loads(
+    ctx: _Ctx, opening: Opening, power: bool, sag: float = 1.0
+) -> list[SwitchedLoad]:
+    """The loads the element switches, at the current it breaks.
+
+    ``sag`` scales the ideal-rail solution for the supply's internal resistance
+    (linear loads: every current and load voltage by the same factor).
+    """
     state = ctx.state
     assert state is not None
     loads = []
     for key in opening.switched:
         branch = state.branch_by_key[key]
         facts = state.facts[key]
-        current = abs(state.currents.get(key, 0.0))
-        voltage = abs(state.net_potential(branch.a) - state.net_potential(branch.b))
+        current = sag * abs(state.currents.get(key, 0.0))
+        voltage = sag * abs(
+            state.net_potential(branch.a) - state.net_potential(branch.b)
+        )
         energy = None
         if facts.inductance is not None:
             energy = (0.5 * facts.inductance * Q_(current, "A") ** 2).to("J")
@@ -211,8 +220,10 @@ def _analyse_dc(
         injection = net_injections(state)
     opening = open_element(state, zero, injection, terminals, branch)
     power = branch.component.kind == "contactor" and len(branch.element.a) == 1
-    loads = _switched_loads(ctx, opening, power)
     current, supply_ref = _sag(state, opening.current_ab)
+    # The loads break at the sagged current too: ½·L·I² with I = E/(R + r_int).
+    sag = abs(current / opening.current_ab) if abs(opening.current_ab) > 1e-12 else 1.0
+    loads = _switched_loads(ctx, opening, power, sag)
     shorted = _shorted_chains(state, opening.floating_nets)
     if shorted:
         # A short on the switched side: Ohm's law does not apply to the diode;
