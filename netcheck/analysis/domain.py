@@ -224,19 +224,23 @@ CONDUCTING = (
 
 
 def _find_shorts(state: DomainState, diodes: list[Diode]) -> None:
-    """Conducting diode paths from rail to rail with no resistance: a short circuit."""
+    """Conducting diode paths from rail to rail with no resistance: a short circuit.
+
+    Each path is reported on its own: chains that meet only at the rails are
+    separate faults with their own drops, not one lumped chain.
+    """
     links = nx.Graph()
     for d in diodes:
         if abs(state.currents.get(d.key, 0.0)) > CONDUCTING:
             links.add_edge(d.a, d.b, key=d.key)
-    for component in nx.connected_components(links):
-        rails = [g for g in component if g in state.rails]
-        if len({round(state.rails[g], 9) for g in rails}) > 1:
-            keys = tuple(
-                sorted(
-                    links.edges[u, v]["key"] for u, v in links.subgraph(component).edges
-                )
-            )
+    rails = set(state.rails)
+    inner = links.subgraph(n for n in links if n not in rails)
+    paths = [list(links.edges(c, data="key")) for c in nx.connected_components(inner)]
+    paths += [[(u, v, k)] for u, v, k in links.edges(data="key") if {u, v} <= rails]
+    for edges in paths:
+        touched = {n for u, v, _k in edges for n in (u, v) if n in rails}
+        if len({round(state.rails[g], 9) for g in touched}) > 1:
+            keys = sorted({k for _u, _v, k in edges})
             state.shorts.append(tuple(state.branch_by_key[k] for k in keys))
 
 
@@ -352,9 +356,16 @@ def prospective_current(state: DomainState, drop: float = 0.0) -> float | None:
 
 
 def chain_drop(state: DomainState, chain: Iterable[Branch]) -> float:
-    """The forward drops of the diodes in a conducting chain (V)."""
-    return sum(
-        state.models[b.key].vf
-        for b in chain
-        if isinstance(state.models.get(b.key), Diode)
-    )
+    """The voltage a conducting chain holds (V), by KVL along it.
+
+    A diode conducting forward holds its forward drop; a zener conducting in
+    reverse holds its breakdown voltage vz (diode physics).
+    """
+    total = 0.0
+    for branch in chain:
+        model = state.models.get(branch.key)
+        if not isinstance(model, Diode):
+            continue
+        reverse = state.diode_state.get(branch.key) == "reverse"
+        total += model.vz if reverse and model.vz is not None else model.vf
+    return total

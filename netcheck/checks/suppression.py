@@ -43,7 +43,9 @@ def inductive_load_unsuppressed(ctx: CheckContext) -> Iterator[Finding]:
     """Flag DC elements that break inductive loads with no suppression anywhere."""
     for element in ctx.switching_elements(supply="dc"):
         loads = unsuppressed_loads(element)
-        if not loads or element.voltage is None:
+        # Behind a short (a reversed freewheel diode) the short is the one
+        # finding; turning the part round also suppresses the load again.
+        if not loads or element.voltage is None or element.short_circuit:
             continue
         case = _clamp_case(ctx, element)
         if case is not None and case[0] == "ok":
