@@ -19,7 +19,7 @@ from netcheck.analysis.circuit import Diode, Resistor, Solution, solve_dc
 from netcheck.analysis.constants import SILICON_DIODE_CONDUCTION_VF
 from netcheck.analysis.loads import LoadFacts, load_facts
 from netcheck.graph import COIL, CONDUCTOR, LOAD, SUPPLY, SWITCH, Branch, Domain
-from netcheck.kinds import RECTIFYING_KINDS
+from netcheck.kinds import RECTIFYING_KINDS, conducts_one_way
 
 __all__ = [
     "DomainState",
@@ -181,8 +181,11 @@ def _elements(state: DomainState, groups: Iterable[str]) -> tuple[list, list]:
             resistance = _resistance(state, branch)
             resistors.append(Resistor(branch.key, ga, gb, resistance))
     for branch in state.domain.branches:
-        if branch.kind in ("diode", "zener") or (
-            branch.kind == "tvs" and not branch.component.value("bidirectional")
+        component = branch.component
+        if conducts_one_way(
+            branch.kind,
+            component.value("bidirectional"),
+            {c.terminal for c in component.connections},
         ):
             ga, gb = state.group[branch.a], state.group[branch.b]
             if ga in members or gb in members:

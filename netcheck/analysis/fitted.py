@@ -29,7 +29,6 @@ __all__ = [
 ]
 
 
-
 @dataclass(frozen=True)
 class Fitted:
     """A suppressor as fitted: where, across what, and its transient at opening."""

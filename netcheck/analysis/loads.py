@@ -147,7 +147,9 @@ def load_facts(branch: Branch) -> LoadFacts:
             tau,
             coil.get("release_current"),
             str(coil.get("suppression", "none")),
-            str(coil.get("supply", "dc")),
+            # Unknown where not given: a relay with no part data is neither
+            # a DC nor an AC coil.
+            str(coil["supply"]) if coil.get("supply") is not None else None,
             coil.get("voltage"),
             missing,
         )

@@ -89,7 +89,8 @@ def suppressor_underrated(ctx: CheckContext) -> Iterator[Finding]:
 
 @check("suppressor-conducts-normally")
 def suppressor_conducts_normally(ctx: CheckContext) -> Iterator[Finding]:
-    """Flag varistors and TVS whose continuous or stand-off voltage is too low."""
+    """Flag suppressors that conduct at the working voltage (ratings too low)."""
+    yield from _zeners_conducting(ctx)
     for component in ctx.components("varistor", "tvs"):
         voltage = ctx.service_voltage(component)
         if voltage is None:
@@ -100,6 +101,39 @@ def suppressor_conducts_normally(ctx: CheckContext) -> Iterator[Finding]:
             yield _missing(ctx, component, key, voltage, key)
         elif rated < voltage:
             yield ctx.finding(component, what=key, rated=rated, voltage=voltage)
+
+
+def _zeners_conducting(ctx: CheckContext) -> Iterator[Finding]:
+    """Zeners in breakdown in the solved closed state (vz below the working voltage).
+
+    A zener with no vz cannot be judged at all: rating-data-missing.
+    """
+    # In a chain with a diode conducting forward, the reversed diode is the
+    # fault (freewheel-diode-reversed); the zener's breakdown follows from it.
+    reversed_chains = {r for rev in ctx.reversed_diodes() for r in rev.suppressor.refs}
+    breakdown = ctx.in_breakdown() - reversed_chains
+    alone = {
+        f.suppressor.refs[0]
+        for f in ctx.fitted_suppressors()
+        if f.suppressor.kind == "zener" and f.suppressor.refs
+    }
+    for component in ctx.components("zener"):
+        voltage = ctx.service_voltage(component)
+        rated = component.value("vz")
+        if rated is None and component.ref in alone:
+            # Alone across a load its vz must clear the working voltage.
+            yield _missing(ctx, component, "vz", voltage, "vz")
+        elif rated is None:
+            yield ctx.finding(
+                component,
+                rule="rating-data-missing",
+                message="suppressor-unjudged",
+                fix="suppressor",
+                what="vz",
+                key="vz",
+            )
+        elif component.ref in breakdown:
+            yield ctx.finding(component, what="vz", rated=rated, voltage=voltage)
 
 
 @check("snubber-without-resistor")
