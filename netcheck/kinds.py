@@ -97,7 +97,7 @@ _OWN_ATTRIBUTES: dict[str, tuple[str, ...]] = {
     "resistor": ("R", "P"),
     "capacitor": ("C", "voltage_rating"),
     "diode": ("voltage_rating", "current_rating", "vf"),
-    "zener": ("vz", "power"),
+    "zener": ("vz", "power", "energy"),
     "tvs": ("standoff", "vclamp", "energy", "bidirectional"),
     "varistor": ("vdc_max", "vclamp", "energy", "alpha"),
     "rc": ("R", "C", "voltage_rating"),

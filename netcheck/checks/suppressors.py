@@ -39,10 +39,14 @@ def _needs(ctx: CheckContext, fitted: Fitted, part: Component):  # type: ignore[
             i * ctx.option("diode-current"),
             part.value("current_rating"),
         )
-    elif part.kind == "zener":
+    elif part.kind == "zener" and opening is not None:
+        # A clamp at constant Vz absorbs ∫Vz·i dt = Vz·Q of each opening (first
+        # principles); in a diode + zener chain that is the zener's share.
         clamp = part.value("vz")
         if clamp is not None:
-            yield "pulse power (Vz·I0)", (clamp * i).to("W"), part.value("power")
+            share = (clamp * opening.suppressor_charge).to("J")
+            needed = share * ctx.option("zener-energy")
+            yield "energy per opening", needed, part.value("energy")
     elif part.kind in ("varistor", "tvs") and energy is not None:
         margin = "varistor-energy" if part.kind == "varistor" else "tvs-energy"
         yield "energy per opening", energy * ctx.option(margin), part.value("energy")
