@@ -16,6 +16,7 @@ from netcheck.analysis.domain import (
 )
 from netcheck.analysis.loads import (
     category_for,
+    rated_as_power_device,
     is_inductive,
     load_facts,
     most_demanding,
@@ -219,7 +220,9 @@ def _analyse_dc(
         zero = _zero_ohm(ctx.domain, state)
         injection = net_injections(state)
     opening = open_element(state, zero, injection, terminals, branch)
-    power = branch.component.kind == "contactor" and len(branch.element.a) == 1
+    power = (
+        branch.component.kind == "contactor" and len(branch.element.a) == 1
+    ) or rated_as_power_device(branch.component)
     current, supply_ref = _sag(state, opening.current_ab)
     # The loads break at the sagged current too: ½·L·I² with I = E/(R + r_int).
     sag = abs(current / opening.current_ab) if abs(opening.current_ab) > 1e-12 else 1.0
