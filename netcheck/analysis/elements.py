@@ -16,10 +16,10 @@ from netcheck.analysis.domain import (
 )
 from netcheck.analysis.loads import (
     category_for,
-    rated_as_power_device,
     is_inductive,
     load_facts,
     most_demanding,
+    rated_as_power_device,
 )
 from netcheck.analysis.result import Analysis, LoadInfo
 from netcheck.analysis.series import changeovers, mark_series
