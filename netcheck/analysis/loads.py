@@ -34,6 +34,7 @@ CONTROL_CATEGORY = {
     "clutch": "DC-13",
     "coil": "DC-13",
     "motor": "DC-13",
+    "series-motor": "DC-13",
     "economy-coil": "DC-14",
 }
 POWER_CATEGORY = {
@@ -43,6 +44,8 @@ POWER_CATEGORY = {
     "capacitive": "DC-1",
     "lamp": "DC-6",
     "motor": "DC-3",
+    # IEC 60947-4-1: DC-5 is the category of series motors (domain-facts §1).
+    "series-motor": "DC-5",
     "solenoid": "DC-13",
     "valve": "DC-13",
     "brake": "DC-13",
@@ -84,7 +87,16 @@ _COVERS = {
 }
 # Ordering used to pick the most demanding category among several loads.
 _DEMAND = ["DC-1", "DC-12", "DC-6", "DC-3", "DC-5", "DC-13", "DC-14"]
-_INDUCTIVE = {"solenoid", "valve", "brake", "clutch", "coil", "motor", "economy-coil"}
+_INDUCTIVE = {
+    "solenoid",
+    "valve",
+    "brake",
+    "clutch",
+    "coil",
+    "motor",
+    "series-motor",
+    "economy-coil",
+}
 
 
 def _base(category: str) -> str:
