@@ -57,6 +57,7 @@ LOAD_TYPES = (
     "brake",
     "clutch",
     "motor",
+    "series-motor",
     "lamp",
     "heater",
     "capacitive",

@@ -26,6 +26,7 @@ __all__ = [
     "OUTPUT_TERMINALS",
     "COIL_KEYS",
     "CONTACT_KEYS",
+    "conducts_one_way",
 ]
 
 # The component kinds of the language, in the spec's order.
@@ -96,7 +97,7 @@ _OWN_ATTRIBUTES: dict[str, tuple[str, ...]] = {
     "resistor": ("R", "P"),
     "capacitor": ("C", "voltage_rating"),
     "diode": ("voltage_rating", "current_rating", "vf"),
-    "zener": ("vz", "power"),
+    "zener": ("vz", "power", "energy"),
     "tvs": ("standoff", "vclamp", "energy", "bidirectional"),
     "varistor": ("vdc_max", "vclamp", "energy", "alpha"),
     "rc": ("R", "C", "voltage_rating"),
@@ -130,3 +131,17 @@ KIND_TERMINALS: dict[str, tuple[tuple[str, ...], ...] | None] = {
 }
 # The output terminal pairs of a semiconductor switch, first to second.
 OUTPUT_TERMINALS = (("+", "-"), ("1", "2"), ("Q", "M"))
+
+
+def conducts_one_way(kind: str, bidirectional: object, terminals: set[str]) -> bool:
+    """Whether a part conducts one way only (a diode in the operating point).
+
+    A TVS is unidirectional by its ``bidirectional`` value where given, else by
+    its terminals: A/K marks a polarized part, 1/2 a bidirectional one
+    (language.md, component kinds).
+    """
+    if kind not in RECTIFYING_KINDS:
+        return False
+    if bidirectional is not None:
+        return not bidirectional
+    return kind != "tvs" or bool(terminals & {"A", "K"})

@@ -20,7 +20,7 @@ from netcheck.analysis.constants import SILICON_DIODE_CONDUCTION_VF
 from netcheck.analysis.loads import LoadFacts, load_facts
 from netcheck.analysis.si import si
 from netcheck.graph import COIL, CONDUCTOR, LOAD, SUPPLY, SWITCH, Branch, Domain
-from netcheck.kinds import RECTIFYING_KINDS
+from netcheck.kinds import RECTIFYING_KINDS, conducts_one_way
 
 __all__ = [
     "DomainState",
@@ -178,8 +178,11 @@ def _elements(state: DomainState, groups: Iterable[str]) -> tuple[list, list]:
             resistance = _resistance(state, branch)
             resistors.append(Resistor(branch.key, ga, gb, resistance))
     for branch in state.domain.branches:
-        if branch.kind in ("diode", "zener") or (
-            branch.kind == "tvs" and not branch.component.value("bidirectional")
+        component = branch.component
+        if conducts_one_way(
+            branch.kind,
+            component.value("bidirectional"),
+            {c.terminal for c in component.connections},
         ):
             ga, gb = state.group[branch.a], state.group[branch.b]
             if ga in members or gb in members:
@@ -221,19 +224,23 @@ CONDUCTING = (
 
 
 def _find_shorts(state: DomainState, diodes: list[Diode]) -> None:
-    """Conducting diode paths from rail to rail with no resistance: a short circuit."""
+    """Conducting diode paths from rail to rail with no resistance: a short circuit.
+
+    Each path is reported on its own: chains that meet only at the rails are
+    separate faults with their own drops, not one lumped chain.
+    """
     links = nx.Graph()
     for d in diodes:
         if abs(state.currents.get(d.key, 0.0)) > CONDUCTING:
             links.add_edge(d.a, d.b, key=d.key)
-    for component in nx.connected_components(links):
-        rails = [g for g in component if g in state.rails]
-        if len({round(state.rails[g], 9) for g in rails}) > 1:
-            keys = tuple(
-                sorted(
-                    links.edges[u, v]["key"] for u, v in links.subgraph(component).edges
-                )
-            )
+    rails = set(state.rails)
+    inner = links.subgraph(n for n in links if n not in rails)
+    paths = [list(links.edges(c, data="key")) for c in nx.connected_components(inner)]
+    paths += [[(u, v, k)] for u, v, k in links.edges(data="key") if {u, v} <= rails]
+    for edges in paths:
+        touched = {n for u, v, _k in edges for n in (u, v) if n in rails}
+        if len({round(state.rails[g], 9) for g in touched}) > 1:
+            keys = sorted({k for _u, _v, k in edges})
             state.shorts.append(tuple(state.branch_by_key[k] for k in keys))
 
 
@@ -349,9 +356,16 @@ def prospective_current(state: DomainState, drop: float = 0.0) -> float | None:
 
 
 def chain_drop(state: DomainState, chain: Iterable[Branch]) -> float:
-    """The forward drops of the diodes in a conducting chain (V)."""
-    return sum(
-        state.models[b.key].vf
-        for b in chain
-        if isinstance(state.models.get(b.key), Diode)
-    )
+    """The voltage a conducting chain holds (V), by KVL along it.
+
+    A diode conducting forward holds its forward drop; a zener conducting in
+    reverse holds its breakdown voltage vz (diode physics).
+    """
+    total = 0.0
+    for branch in chain:
+        model = state.models.get(branch.key)
+        if not isinstance(model, Diode):
+            continue
+        reverse = state.diode_state.get(branch.key) == "reverse"
+        total += model.vz if reverse and model.vz is not None else model.vf
+    return total

@@ -19,6 +19,7 @@ from netcheck.analysis.loads import (
     is_inductive,
     load_facts,
     most_demanding,
+    rated_as_power_device,
 )
 from netcheck.analysis.result import Analysis, LoadInfo
 from netcheck.analysis.series import changeovers, mark_series
@@ -139,15 +140,24 @@ class _Ctx:
     wire: Mapping[str, str]
 
 
-def _switched_loads(ctx: _Ctx, opening: Opening, power: bool) -> list[SwitchedLoad]:
+def _switched_loads(
+    ctx: _Ctx, opening: Opening, power: bool, sag: float = 1.0
+) -> list[SwitchedLoad]:
+    """The loads the element switches, at the current it breaks.
+
+    ``sag`` scales the ideal-rail solution for the supply's internal resistance
+    (linear loads: every current and load voltage by the same factor).
+    """
     state = ctx.state
     assert state is not None
     loads = []
     for key in opening.switched:
         branch = state.branch_by_key[key]
         facts = state.facts[key]
-        current = abs(state.currents.get(key, 0.0))
-        voltage = abs(state.net_potential(branch.a) - state.net_potential(branch.b))
+        current = sag * abs(state.currents.get(key, 0.0))
+        voltage = sag * abs(
+            state.net_potential(branch.a) - state.net_potential(branch.b)
+        )
         energy = None
         if facts.inductance is not None:
             # pint's (0.5·L·I²).to("J") in floats: L is in H (load_facts), the
@@ -212,9 +222,13 @@ def _analyse_dc(
         zero = _zero_ohm(ctx.domain, state)
         injection = net_injections(state)
     opening = open_element(state, zero, injection, terminals, branch)
-    power = branch.component.kind == "contactor" and len(branch.element.a) == 1
-    loads = _switched_loads(ctx, opening, power)
+    power = (
+        branch.component.kind == "contactor" and len(branch.element.a) == 1
+    ) or rated_as_power_device(branch.component)
     current, supply_ref = _sag(state, opening.current_ab)
+    # The loads break at the sagged current too: ½·L·I² with I = E/(R + r_int).
+    sag = abs(current / opening.current_ab) if abs(opening.current_ab) > 1e-12 else 1.0
+    loads = _switched_loads(ctx, opening, power, sag)
     shorted = _shorted_chains(state, opening.floating_nets)
     if shorted:
         # A short on the switched side: Ohm's law does not apply to the diode;

@@ -14,6 +14,7 @@ __all__ = [
     "LoadFacts",
     "load_facts",
     "category_for",
+    "rated_as_power_device",
     "CONTROL_CATEGORY",
     "POWER_CATEGORY",
     "covers",
@@ -34,6 +35,7 @@ CONTROL_CATEGORY = {
     "clutch": "DC-13",
     "coil": "DC-13",
     "motor": "DC-13",
+    "series-motor": "DC-13",
     "economy-coil": "DC-14",
 }
 POWER_CATEGORY = {
@@ -43,6 +45,8 @@ POWER_CATEGORY = {
     "capacitive": "DC-1",
     "lamp": "DC-6",
     "motor": "DC-3",
+    # IEC 60947-4-1: DC-5 is the category of series motors (domain-facts §1).
+    "series-motor": "DC-5",
     "solenoid": "DC-13",
     "valve": "DC-13",
     "brake": "DC-13",
@@ -52,7 +56,26 @@ POWER_CATEGORY = {
 }
 # What a rating of each category also covers (parts.md: DC-13 covers DC-12;
 # DC-5 covers DC-3 covers DC-1).
+#
+# IEC 60947-3 (switch-disconnectors) categories, by their definitions
+# (domain-facts §3): DC-21 resistive loads with moderate overloads, DC-22 mixed
+# resistive and inductive loads (shunt motors), DC-23 highly inductive loads
+# (series motors). Their test circuits mirror DC-1/DC-3/DC-5 (I/Ie 1.5/4/4,
+# L/R 1/2.5/15 ms; from memory, medium-high confidence), so each covers what
+# its mirror covers; the A/B suffix (frequent/infrequent operation) changes
+# no load. DC-23 is not taken to cover DC-13 electromagnets: the DC-13 test
+# reaches T0.95 = 6·P ms up to 300 ms, beyond DC-23's 15 ms L/R. The PV
+# categories (IEC 60947-3 Annex D) switch PV strings, a resistive source at
+# L/R 1 ms (test values from memory, LOW confidence): read as resistive.
+_SWITCH_DISCONNECTOR = {
+    "DC-21": {"DC-21", "DC-1", "DC-12"},
+    "DC-22": {"DC-22", "DC-21", "DC-3", "DC-1", "DC-12"},
+    "DC-23": {"DC-23", "DC-22", "DC-21", "DC-5", "DC-3", "DC-1", "DC-12"},
+    "DC-PV1": {"DC-PV1", "DC-1", "DC-12"},
+    "DC-PV2": {"DC-PV2", "DC-PV1", "DC-1", "DC-12"},
+}
 _COVERS = {
+    **_SWITCH_DISCONNECTOR,
     "DC-13": {"DC-13", "DC-12"},
     "DC-12": {"DC-12"},
     # DC-14 is tested at T0.95 15 ms (IEC 60947-5-1 Table 4): milder than DC-13's
@@ -65,12 +88,28 @@ _COVERS = {
 }
 # Ordering used to pick the most demanding category among several loads.
 _DEMAND = ["DC-1", "DC-12", "DC-6", "DC-3", "DC-5", "DC-13", "DC-14"]
-_INDUCTIVE = {"solenoid", "valve", "brake", "clutch", "coil", "motor", "economy-coil"}
+_INDUCTIVE = {
+    "solenoid",
+    "valve",
+    "brake",
+    "clutch",
+    "coil",
+    "motor",
+    "series-motor",
+    "economy-coil",
+}
+
+
+def _base(category: str) -> str:
+    """``DC-21B`` -> ``DC-21``: the A/B duty suffix of IEC 60947-3 keeps the loads."""
+    text = category.strip().upper()
+    return text[:-1] if text[-1:] in ("A", "B") and text.startswith("DC-2") else text
 
 
 def covers(rated: str, needed: str) -> bool:
     """Whether a rating of category ``rated`` covers a load needing ``needed``."""
-    return needed in _COVERS.get(rated, {rated})
+    base = _base(rated)
+    return _base(needed) in _COVERS.get(base, {base})
 
 
 def most_demanding(categories: list[str]) -> str | None:
@@ -148,7 +187,9 @@ def load_facts(branch: Branch) -> LoadFacts:
             tau,
             coil.get("release_current"),
             str(coil.get("suppression", "none")),
-            str(coil.get("supply", "dc")),
+            # Unknown where not given: a relay with no part data is neither
+            # a DC nor an AC coil.
+            str(coil["supply"]) if coil.get("supply") is not None else None,
             coil.get("voltage"),
             missing,
         )
@@ -168,6 +209,20 @@ def load_facts(branch: Branch) -> LoadFacts:
         None,
         values.get("V"),
         missing,
+    )
+
+
+def rated_as_power_device(component) -> bool:  # type: ignore[no-untyped-def]
+    """Whether a pole's ratings are IEC 60947-3 switch-disconnector categories.
+
+    DC-21/22/23 and DC-PV rate power switching (IEC 60947-3), so its loads need
+    the power categories (a motor DC-3, not the control DC-13).
+    """
+    rows = component.value("contacts", "ratings", default=()) or ()
+    return any(
+        str(row.get("category", "")).upper().startswith(("DC-2", "DC-PV"))
+        for row in rows
+        if isinstance(row, dict)
     )
 
 

@@ -50,6 +50,9 @@ _TAU_LIMIT_MS: dict[str, float] = {
     "DC-21": 1.0,
     "DC-22": 2.0,
     "DC-23": 7.5,
+    # IEC 60947-3 Annex D PV categories at L/R 1 ms (from memory, LOW confidence).
+    "DC-PV1": 1.0,
+    "DC-PV2": 1.0,
 }
 # IEC 60947-5-1 Table 4: DC-14 makes and breaks at T0.95 = 15 ms.
 _T95_LIMIT_MS: dict[str, float] = {"DC-14": 15.0}

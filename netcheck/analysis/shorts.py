@@ -10,14 +10,25 @@ from dataclasses import dataclass
 
 import pint
 
-from netcheck.analysis.domain import DomainState, chain_drop, prospective_current
+from netcheck.analysis.domain import (
+    CONDUCTING,
+    DomainState,
+    chain_drop,
+    prospective_current,
+)
 from netcheck.analysis.elements import Analysis, LoadInfo
 from netcheck.analysis.switched import Suppressor
 from netcheck.graph import Branch
 from netcheck.model import Component
 from netcheck.units import Q_
 
-__all__ = ["Short", "ReversedDiode", "supply_shorts", "reversed_diodes"]
+__all__ = [
+    "Short",
+    "ReversedDiode",
+    "supply_shorts",
+    "reversed_diodes",
+    "in_breakdown",
+]
 
 
 @dataclass(frozen=True)
@@ -110,8 +121,15 @@ def reversed_diodes(analysis: Analysis) -> list[ReversedDiode]:
             chain = suppressor.chain
             if not suppressor.conducts or chain is None or not chain.polarity:
                 continue
-            diode = next(b for b in chain.branches if b.key in chain.polarity)
             state = analysis.states[info.domain or ""]
+            if not any(
+                state.diode_state.get(key) == "forward" for key in chain.polarity
+            ):
+                # Conducting by breakdown alone (a zener whose vz is below the
+                # working voltage): fitted the right way round, but it conducts
+                # in service: suppressor-conducts-normally says so.
+                continue
+            diode = next(b for b in chain.branches if b.key in chain.polarity)
             high, low = sorted(
                 (info.branch.a, info.branch.b), key=lambda n: -state.net_potential(n)
             )
@@ -119,4 +137,15 @@ def reversed_diodes(analysis: Analysis) -> list[ReversedDiode]:
             out.append(
                 ReversedDiode(info, suppressor, diode.component, current, high, low)
             )
+    return out
+
+
+def in_breakdown(analysis: Analysis) -> set[str]:
+    """References of zeners and TVS conducting in reverse in a solved state."""
+    states = [*analysis.states.values(), *analysis.alternate_states.values()]
+    out: set[str] = set()
+    for state in states:
+        for key, mode in state.diode_state.items():
+            if mode == "reverse" and abs(state.currents.get(key, 0.0)) > CONDUCTING:
+                out.add(state.branch_by_key[key].ref)
     return out

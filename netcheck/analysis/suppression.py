@@ -6,7 +6,7 @@ from collections.abc import Iterable, Mapping, Sequence
 from dataclasses import dataclass
 
 from netcheck.graph import Branch
-from netcheck.kinds import RECTIFYING_KINDS, SUPPRESSOR_KINDS
+from netcheck.kinds import SUPPRESSOR_KINDS, conducts_one_way
 
 __all__ = ["Chain", "find_chains", "chain_kind"]
 
@@ -100,7 +100,11 @@ def find_chains(
             polarity = {
                 b.key: _polarity(b, nets[i])
                 for i, b in enumerate(path)
-                if b.kind in RECTIFYING_KINDS and not b.component.value("bidirectional")
+                if conducts_one_way(
+                    b.kind,
+                    b.component.value("bidirectional"),
+                    {c.terminal for c in b.component.connections},
+                )
             }
             chain = Chain(
                 chain_kind(b.kind for b in path), origin, net, tuple(path), polarity

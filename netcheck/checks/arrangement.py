@@ -71,6 +71,8 @@ def series_poles_underrated(ctx: CheckContext) -> Iterator[Finding]:
     for element in ctx.switching_elements(supply="dc"):
         if element.series_poles < 2 or not arrangement_lead(element) or element.missing:
             continue
+        if element.short_circuit:  # a fault current: the short is the finding
+            continue
         verdict = ctx.verdict(element)
         if verdict is None or verdict.status not in ("current-over", "voltage-over"):
             continue

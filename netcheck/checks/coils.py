@@ -27,8 +27,8 @@ def _coils(ctx: CheckContext):  # type: ignore[no-untyped-def]
 def coil_supply_mismatch(ctx: CheckContext) -> Iterator[Finding]:
     """Flag AC-only coils on DC supplies and DC-only coils on AC supplies."""
     for info in _coils(ctx):
-        coil = info.facts.coil_supply or "dc"
-        if coil == "ac/dc" or coil == info.supply:
+        coil = info.facts.coil_supply
+        if coil is None or coil == "ac/dc" or coil == info.supply:
             continue
         component = info.branch.component
         supply = ctx.graph.domain_of[info.branch.a].supplies[0]

@@ -109,6 +109,12 @@ class CheckContext:
             "reversed", lambda: short_circuits.reversed_diodes(self.analysis)
         )
 
+    def in_breakdown(self) -> set[str]:
+        """Zeners and TVS that conduct in reverse (breakdown) in service."""
+        return self._memo(  # type: ignore[no-any-return]
+            "breakdown", lambda: short_circuits.in_breakdown(self.analysis)
+        )
+
     def verdict(self, element: ElementAnalysis) -> Assessment | None:
         """The rating verdict of an element that breaks a current (series poles too)."""
         if not breaks_something(element):

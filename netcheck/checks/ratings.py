@@ -72,6 +72,10 @@ def _outputs_over(
 def dc_break_over_rating(ctx: CheckContext) -> Iterator[Finding]:
     """Flag elements whose breaking current exceeds the applicable DC rating."""
     for element, verdict in _judged(ctx):
+        if element.short_circuit:
+            # The current is a fault current: the short is the one finding
+            # (supply-short-circuit or freewheel-diode-reversed), not the contact.
+            continue
         if verdict.status == "current-over" and verdict.poles == 1:
             fix = "poles" if fits_device(element, verdict.poles_needed) else "default"
             yield ctx.finding(element, fix=fix, **rating_values(element, verdict))
@@ -122,7 +126,7 @@ def time_constant_over_rating(ctx: CheckContext) -> Iterator[Finding]:
     """Flag loads whose L/R or T0.95 exceeds the test condition of the rating used."""
     for element, verdict in _judged(ctx):
         used = verdict.used
-        if not verdict.time_constant_over or used is None:
+        if not verdict.time_constant_over or used is None or element.short_circuit:
             continue
         limit = used.tau_limit
         yield ctx.finding(
@@ -140,7 +144,8 @@ def rating_data_missing(ctx: CheckContext) -> Iterator[Finding]:
     """Flag DC switching elements that cannot be verified for lack of data."""
     for element in ctx.switching_elements(supply="dc"):
         if (
-            not arrangement_lead(element)
+            element.short_circuit
+            or not arrangement_lead(element)
             or not breaks_something(element)
             and not element.missing
         ):

@@ -7,6 +7,7 @@ from collections.abc import Iterator
 from netcheck.analysis.fitted import effective, unsuppressed_loads
 from netcheck.analysis.opening import element_transient, load_transient, zener_release
 from netcheck.analysis.switched import ElementAnalysis, Suppressor
+from netcheck.analysis.verdicts import arrangement_lead
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding, Severity
@@ -38,12 +39,36 @@ def _clamp_case(ctx: CheckContext, element: ElementAnalysis) -> tuple[str, dict]
     }
 
 
+# IEC 60947-4-1: DC-3 (shunt motors) and DC-5 (series motors) are tested
+# breaking the motor's own inductance, including plugging and inching; a
+# freewheel diode across an armature would short it when the motor is reversed
+# or plugged (common practice), so a motor pole rated for its category needs
+# no suppression.
+_MOTOR_CATEGORIES = frozenset({"DC-3", "DC-5"})
+
+
+def _motor_pole_rated(ctx: CheckContext, element: ElementAnalysis) -> bool:
+    if element.load_category not in _MOTOR_CATEGORIES:
+        return False
+    verdict = ctx.verdict(element)
+    return (
+        verdict is not None
+        and verdict.status != "no-data"
+        and (not verdict.category_mismatch)
+    )
+
+
 @check("inductive-load-unsuppressed")
 def inductive_load_unsuppressed(ctx: CheckContext) -> Iterator[Finding]:
     """Flag DC elements that break inductive loads with no suppression anywhere."""
     for element in ctx.switching_elements(supply="dc"):
         loads = unsuppressed_loads(element)
-        if not loads or element.voltage is None:
+        # Behind a short (a reversed freewheel diode) the short is the one
+        # finding; turning the part round also suppresses the load again.
+        if not loads or element.voltage is None or element.short_circuit:
+            continue
+        # Series poles break one load together: one finding, at the lead pole.
+        if not arrangement_lead(element) or _motor_pole_rated(ctx, element):
             continue
         case = _clamp_case(ctx, element)
         if case is not None and case[0] == "ok":
@@ -63,6 +88,8 @@ def inductive_load_unsuppressed(ctx: CheckContext) -> Iterator[Finding]:
         }
         if energy is None and known:
             values["energy_known"] = sum(known, Q_(0.0, "J"))
+        if element.load_category in _MOTOR_CATEGORIES:
+            values.update(fix="motor", category=element.load_category)
         if case is None:
             yield ctx.finding(element, **values)
         else:

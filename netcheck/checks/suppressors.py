@@ -39,10 +39,14 @@ def _needs(ctx: CheckContext, fitted: Fitted, part: Component):  # type: ignore[
             i * ctx.option("diode-current"),
             part.value("current_rating"),
         )
-    elif part.kind == "zener":
+    elif part.kind == "zener" and opening is not None:
+        # A clamp at constant Vz absorbs ∫Vz·i dt = Vz·Q of each opening (first
+        # principles); in a diode + zener chain that is the zener's share.
         clamp = part.value("vz")
         if clamp is not None:
-            yield "pulse power (Vz·I0)", (clamp * i).to("W"), part.value("power")
+            share = (clamp * opening.suppressor_charge).to("J")
+            needed = share * ctx.option("zener-energy")
+            yield "energy per opening", needed, part.value("energy")
     elif part.kind in ("varistor", "tvs") and energy is not None:
         margin = "varistor-energy" if part.kind == "varistor" else "tvs-energy"
         yield "energy per opening", energy * ctx.option(margin), part.value("energy")
@@ -89,7 +93,8 @@ def suppressor_underrated(ctx: CheckContext) -> Iterator[Finding]:
 
 @check("suppressor-conducts-normally")
 def suppressor_conducts_normally(ctx: CheckContext) -> Iterator[Finding]:
-    """Flag varistors and TVS whose continuous or stand-off voltage is too low."""
+    """Flag suppressors that conduct at the working voltage (ratings too low)."""
+    yield from _zeners_conducting(ctx)
     for component in ctx.components("varistor", "tvs"):
         voltage = ctx.service_voltage(component)
         if voltage is None:
@@ -100,6 +105,39 @@ def suppressor_conducts_normally(ctx: CheckContext) -> Iterator[Finding]:
             yield _missing(ctx, component, key, voltage, key)
         elif rated < voltage:
             yield ctx.finding(component, what=key, rated=rated, voltage=voltage)
+
+
+def _zeners_conducting(ctx: CheckContext) -> Iterator[Finding]:
+    """Zeners in breakdown in the solved closed state (vz below the working voltage).
+
+    A zener with no vz cannot be judged at all: rating-data-missing.
+    """
+    # In a chain with a diode conducting forward, the reversed diode is the
+    # fault (freewheel-diode-reversed); the zener's breakdown follows from it.
+    reversed_chains = {r for rev in ctx.reversed_diodes() for r in rev.suppressor.refs}
+    breakdown = ctx.in_breakdown() - reversed_chains
+    alone = {
+        f.suppressor.refs[0]
+        for f in ctx.fitted_suppressors()
+        if f.suppressor.kind == "zener" and f.suppressor.refs
+    }
+    for component in ctx.components("zener"):
+        voltage = ctx.service_voltage(component)
+        rated = component.value("vz")
+        if rated is None and component.ref in alone:
+            # Alone across a load its vz must clear the working voltage.
+            yield _missing(ctx, component, "vz", voltage, "vz")
+        elif rated is None:
+            yield ctx.finding(
+                component,
+                rule="rating-data-missing",
+                message="suppressor-unjudged",
+                fix="suppressor",
+                what="vz",
+                key="vz",
+            )
+        elif component.ref in breakdown:
+            yield ctx.finding(component, what="vz", rated=rated, voltage=voltage)
 
 
 @check("snubber-without-resistor")
