@@ -114,7 +114,6 @@ class Proposer:
 
     def _diodes(self, loads, voltage, zener: bool) -> list[Edit]:  # type: ignore[no-untyped-def]
         edits: list[Edit] = []
-        refs = self._fresh_refs()
         for load in loads:
             sides = self._sides(load.facts.key)
             if sides is None:
@@ -127,7 +126,7 @@ class Proposer:
                 ("current_rating", quantity_text(
                     load.current * _margin("diode-current", self.margins), "A")),
             )
-            diode = next(refs)
+            diode = self._fresh_ref("V", load.facts.ref)
             if not zener:
                 edits.append(
                     AddComponent("diode", diode, ratings, (("A", minus), ("K", plus)), after)
@@ -136,15 +135,15 @@ class Proposer:
             # Diode + zener in series: the zener (cathode to the - side) breaks
             # down at about the supply voltage, so the peak at the contact is
             # about twice the supply (common practice for fast release).
-            middle = f"{diode}_{load.facts.ref}_fw"
+            middle = f"{diode}_fw"
             vz = quantity_text(voltage, "V")
-            zener_ref = next(refs)
+            zener_ref = self._fresh_ref("VZ", load.facts.ref)
             edits.append(
                 AddComponent("diode", diode, ratings, (("A", middle), ("K", plus)), after)
             )
             edits.append(
                 AddComponent(
-                    "zener", zener_ref, (("vz", vz),), (("A", middle), ("K", minus)), diode
+                    "zener", zener_ref, (("vz", vz),), (("A", middle), ("K", minus)), after
                 )
             )
         return edits
@@ -164,15 +163,14 @@ class Proposer:
             return None
         return (branch.a, branch.b) if va > vb else (branch.b, branch.a)
 
-    def _fresh_refs(self) -> Iterator[str]:
+    def _fresh_ref(self, prefix: str, load: str) -> str:
+        """A reference named after the load (``V_Y1``), the same for every finding."""
         used = {c.ref for c in self.netlist.components}
-        number = 1
-        while True:
-            ref = f"V{number}"
+        ref, number = f"{prefix}_{load}", 1
+        while ref in used:
             number += 1
-            if ref not in used:
-                used.add(ref)
-                yield ref
+            ref = f"{prefix}_{load}_{number}"
+        return ref
 
     def _component(self, ref: str) -> Component:
         component = self.netlist.component(ref)
