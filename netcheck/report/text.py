@@ -197,6 +197,9 @@ def _finding_table(group: list[Finding]) -> Table:
         if finding.fix:
             body.append("\nfix: ", "bold green")
             body.append(_one_line(finding.fix))
+            note = fix_note(finding)
+            if note:
+                body.append(f" ({note})", "dim")
         label = Text(finding.severity.label, STYLES[finding.severity])
         table.add_row(label, body)
     return table
