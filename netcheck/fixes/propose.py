@@ -22,7 +22,7 @@ from netcheck.fixes.edits import AddComponent, Edit, Reconnect, SetValues, UsePa
 from netcheck.model import Component, Netlist
 from netcheck.units import Q_
 
-__all__ = ["Proposer", "quantity_text"]
+__all__ = ["Proposer", "quantity_text", "rating_attribute"]
 
 # A suppressor-underrated rating and the attribute that holds it.
 _RATING_KEYS = {
@@ -30,6 +30,7 @@ _RATING_KEYS = {
     "forward current": "current_rating",
     "energy per opening": "energy",
     "voltage rating": "voltage_rating",
+    "pulse power (Vz·I0)": "power",
 }
 _RATING_UNITS = ("V", "A", "J", "W")
 # Rules whose fix is suppression across the element's inductive loads.
@@ -68,6 +69,17 @@ def quantity_text(value: pint.Quantity, unit: str) -> str:
     return f"{float(f'{rounded:.2g}'):g}{unit}"
 
 
+def rating_attribute(what: object, needed: object) -> tuple[str, str] | None:
+    """The attribute and its text that give a suppressor the rating a check needs."""
+    key = _RATING_KEYS.get(str(what))
+    if key is None or not isinstance(needed, pint.Quantity):
+        return None
+    for unit in _RATING_UNITS:
+        if needed.dimensionality == Q_(1, unit).dimensionality:
+            return key, quantity_text(needed, unit)
+    return None
+
+
 def _margin(name: str, margins: dict[str, float]) -> float:
     if name in margins:
         return float(margins[name])
@@ -92,6 +104,10 @@ class Proposer:
             yield from self._swap_pole(finding)
         if finding.rule == "suppressor-underrated":
             yield from self._rerate(finding)
+        if finding.rule == "snubber-without-resistor":
+            yield from self._series_resistor(finding)
+        if finding.rule == "slow-release-suppression":
+            yield from self._add_zener(finding)
         if finding.rule in _PART_RULES:
             yield from self._other_parts(finding)
 
@@ -202,20 +218,51 @@ class Proposer:
             return
         yield [Reconnect(component.ref, ((a, net_b), (b, net_a)))]
 
+    # -- chains --------------------------------------------------------
+    def _series_resistor(self, finding: Finding) -> Iterator[list[Edit]]:
+        """An R inside [low, high] between the capacitor and one of its nets."""
+        low, high = finding.values.get("low"), finding.values.get("high")
+        capacitor = self.netlist.component(finding.element)
+        if capacitor is None or len(capacitor.connections) != 2 or low is None:
+            return
+        if high is None or high < low:
+            return
+        middle = (low * high) ** 0.5 if low.magnitude > 0 else high / 2
+        text = quantity_text(middle, "ohm")
+        if Q_(text) > high:
+            text = quantity_text(low, "ohm")
+        first = capacitor.connections[0]
+        inner = f"{capacitor.ref}_r"
+        ref = self._fresh_ref("R", capacitor.ref)
+        yield [
+            Reconnect(capacitor.ref, ((first.terminal, inner),)),
+            AddComponent("resistor", ref, (("R", text),),
+                         (("1", first.net), ("2", inner)), capacitor.ref),
+        ]
+
+    def _add_zener(self, finding: Finding) -> Iterator[list[Edit]]:
+        """A zener in series with the freewheel diode, cathode to the - side."""
+        diode = self.netlist.component(str(finding.values.get("diode")))
+        vz = finding.values.get("zener_voltage")
+        if diode is None or diode.kind != "diode" or not isinstance(vz, pint.Quantity):
+            return
+        anode = diode.net_of("A")
+        if anode is None:
+            return
+        middle = f"{diode.ref}_fw"
+        ref = self._fresh_ref("VZ", diode.ref)
+        yield [
+            Reconnect(diode.ref, (("A", middle),)),
+            AddComponent("zener", ref, (("vz", quantity_text(vz, "V")),),
+                         (("A", middle), ("K", anode)), diode.ref),
+        ]
+
     # -- ratings ---------------------------------------------------------
     def _rerate(self, finding: Finding) -> Iterator[list[Edit]]:
-        key = _RATING_KEYS.get(str(finding.values.get("what")))
-        needed = finding.values.get("needed")
-        if key is None or not isinstance(needed, pint.Quantity):
-            return
-        unit = next(
-            (u for u in _RATING_UNITS if needed.dimensionality == Q_(1, u).dimensionality),
-            None,
-        )
-        if unit is None:
-            return
-        ref = finding.element.split(":", 1)[0]
-        yield [SetValues(ref, ((key, quantity_text(needed, unit)),))]
+        rating = rating_attribute(finding.values.get("what"), finding.values.get("needed"))
+        if rating is not None:
+            ref = finding.element.split(":", 1)[0]
+            yield [SetValues(ref, (rating,))]
 
     def _other_parts(self, finding: Finding) -> Iterator[list[Edit]]:
         component = self.netlist.component(finding.element.split(":", 1)[0])

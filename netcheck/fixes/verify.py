@@ -8,14 +8,14 @@ of whose candidates verifies keeps its text and is marked unverified.
 
 from __future__ import annotations
 
-from collections.abc import Mapping, Sequence
+from collections.abc import Iterator, Mapping, Sequence
 from dataclasses import dataclass, field, replace
 
 from netcheck.analysis.elements import Analysis, analyse
 from netcheck.errors import InputError, InputErrors
 from netcheck.findings import Finding, Severity
-from netcheck.fixes.edits import Edit, apply_edits
-from netcheck.fixes.propose import Proposer
+from netcheck.fixes.edits import AddComponent, Edit, apply_edits
+from netcheck.fixes.propose import Proposer, rating_attribute
 from netcheck.graph import build_graph
 from netcheck.model import Netlist
 
@@ -54,6 +54,35 @@ class Verifier:
             return None
         return run_checks(edited, analyse(build_graph(edited)), self.margins)
 
+    def refined(self, edits: list[Edit]) -> list[Edit]:
+        """The edits with each added part rated at what the re-check asks of it.
+
+        A check that finds an added suppressor's rating missing or short names
+        the rating it needs; that value (rounded up) becomes the part's rating,
+        a few rounds at most, so the suggested part passes the checks themselves.
+        """
+        for _ in range(3):
+            after = self.recheck(edits)
+            needs = self._needs(after or [], edits)
+            if not needs:
+                return edits
+            edits = [_rated(edit, needs) for edit in edits]
+        return edits
+
+    def _needs(self, after: list[Finding], edits: list[Edit]) -> dict[str, dict[str, str]]:
+        added = {e.ref for e in edits if isinstance(e, AddComponent)}
+        before = {identity(f) for f in self.findings}
+        needs: dict[str, dict[str, str]] = {}
+        for f in after:
+            ref = f.element.split(":", 1)[0]
+            if ref not in added or identity(f) in before or f.waived is not None:
+                continue
+            if f.rule in ("suppressor-underrated", "rating-data-missing"):
+                rating = rating_attribute(f.values.get("what"), f.values.get("needed"))
+                if rating is not None:
+                    needs.setdefault(ref, {})[rating[0]] = rating[1]
+        return needs
+
     def passes(self, finding: Finding, edits: Sequence[Edit]) -> bool:
         """The finding is gone and no new error appears."""
         after = self.recheck(edits)
@@ -71,31 +100,64 @@ class Verifier:
         return True
 
 
+def _rated(edit: Edit, needs: dict[str, dict[str, str]]) -> Edit:
+    if not isinstance(edit, AddComponent) or edit.ref not in needs:
+        return edit
+    ratings = {**dict(edit.attributes), **needs[edit.ref]}
+    return replace(edit, attributes=tuple(ratings.items()))
+
+
+def _first_passing(
+    finding: Finding, candidates: Iterator[list[Edit]], verifier: Verifier
+) -> tuple[list[Edit] | None, list[Edit] | None]:
+    """(the first candidate, the first that verifies) among the candidates."""
+    first: list[Edit] | None = None
+    for count, edits in enumerate(candidates):
+        if count >= MAX_CANDIDATES:
+            break
+        first = first if first is not None else edits
+        edits = verifier.refined(edits)
+        if verifier.passes(finding, edits):
+            return first, edits
+    return first, None
+
+
 def verify_fixes(
     netlist: Netlist,
     analysis: Analysis,
     findings: Sequence[Finding],
     margins: Mapping[str, float] = {},
 ) -> list[Finding]:
-    """The findings, each fix given its verified edits (or marked unverified)."""
+    """The findings, each fix given its verified edits (or marked unverified).
+
+    A finding that is a consequence of another (a contact "breaking" the short
+    of a reversed diode) has no fix of its own that works; the verified edits
+    of the other findings are tried for it too. Their re-checks are memoised,
+    so this costs nothing more.
+    """
     proposer = Proposer(netlist, analysis, dict(margins))
     verifier = Verifier(netlist, findings, margins)
-    out = []
-    for finding in findings:
+    chosen: dict[int, list[Edit]] = {}
+    firsts: dict[int, list[Edit] | None] = {}
+    for index, finding in enumerate(findings):
         if finding.fix is None or finding.waived is not None:
-            out.append(finding)
             continue
-        first: list[Edit] | None = None
-        chosen: list[Edit] | None = None
-        for count, edits in enumerate(proposer.candidates(finding)):
-            if count >= MAX_CANDIDATES:
-                break
-            first = first if first is not None else edits
-            if verifier.passes(finding, edits):
-                chosen = edits
-                break
-        if chosen is not None:
-            out.append(replace(finding, edits=tuple(chosen), verified=True))
-        else:
-            out.append(replace(finding, edits=tuple(first or ()), verified=False))
+        firsts[index], edits = _first_passing(
+            finding, proposer.candidates(finding), verifier
+        )
+        if edits is not None:
+            chosen[index] = edits
+    borrowed = [chosen[i] for i in sorted(chosen)]
+    for index in firsts:
+        if index not in chosen:
+            _, edits = _first_passing(findings[index], iter(borrowed), verifier)
+            if edits is not None:
+                chosen[index] = edits
+    out = []
+    for index, finding in enumerate(findings):
+        if index in chosen:
+            finding = replace(finding, edits=tuple(chosen[index]), verified=True)
+        elif index in firsts:
+            finding = replace(finding, edits=tuple(firsts[index] or ()), verified=False)
+        out.append(finding)
     return out
