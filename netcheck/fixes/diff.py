@@ -14,8 +14,14 @@ from collections.abc import Sequence
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from netcheck.fixes.edits import AddComponent, Edit, Reconnect, SetValues, UsePart
-from netcheck.fixes.edits import statement_text
+from netcheck.fixes.edits import (
+    AddComponent,
+    Edit,
+    Reconnect,
+    SetValues,
+    UsePart,
+    statement_text,
+)
 from netcheck.model import Component, Netlist
 
 __all__ = ["FileEdit", "edited_texts", "unified_diff", "MARK"]
@@ -88,10 +94,12 @@ class _Editor:
                 return True
         return False
 
-    def append(self, component: Component, words: str) -> None:
-        """Add words at the end of the statement's first line."""
+    def append(self, component: Component, words: str, last: bool = False) -> None:
+        """Add words at the end of the statement's first (or last) line."""
         edit = self.file(component.span.file)
         index = component.span.line - 1
+        if last:
+            index = _statement_lines(edit.lines, index)[-1]
         code, comment = _split(self.current(edit, index))
         code = code.rstrip() + " " + words
         edit.changed[index] = code + (" " + comment if comment else "")
@@ -113,21 +121,33 @@ class _Editor:
         if component is None:
             raise KeyError(edit.ref)
         if isinstance(edit, Reconnect):
-            nets = dict(edit.connections)
+            present = {c.terminal for c in component.connections}
+            nets = {t: n for t, n in edit.connections if t in present}
+            new = [f"{t}:{n}" for t, n in edit.connections if t not in present]
+            if new:
+                self.append(component, "  ".join(new), last=True)
             # Two passes through placeholders so that swapped nets do not collide.
             for terminal in nets:
                 pattern = rf"(?<![^\s]){re.escape(terminal)}:[^\s#]+"
                 self.rewrite(component, pattern, f"{terminal}:\x00{terminal}")
             for terminal, net in nets.items():
-                self.rewrite(component, rf"{re.escape(terminal)}:\x00{re.escape(terminal)}",
-                             f"{terminal}:{net}")
+                self.rewrite(
+                    component,
+                    rf"{re.escape(terminal)}:\x00{re.escape(terminal)}",
+                    f"{terminal}:{net}",
+                )
             return
         if isinstance(edit, UsePart):
             for key in edit.drop:
                 self.rewrite(component, _WORD.format(key=re.escape(key)), None)
-            if not self.rewrite(component, _WORD.format(key="part"), f"part={edit.part}"):
-                self.rewrite(component, rf"(?<![^\s]){re.escape(component.ref)}(?=\s|$)",
-                             f"{component.ref} part={edit.part}")
+            if not self.rewrite(
+                component, _WORD.format(key="part"), f"part={edit.part}"
+            ):
+                self.rewrite(
+                    component,
+                    rf"(?<![^\s]){re.escape(component.ref)}(?=\s|$)",
+                    f"{component.ref} part={edit.part}",
+                )
             return
         assert isinstance(edit, SetValues)
         for key, text in edit.attributes:

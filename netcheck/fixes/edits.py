@@ -48,7 +48,10 @@ class AddComponent:
 
 @dataclass(frozen=True)
 class Reconnect:
-    """Connect terminals of ``ref`` to other nets (``terminal -> net``)."""
+    """Connect terminals of ``ref`` to other nets (``terminal -> net``).
+
+    A terminal not yet connected is added: wiring a spare pole in series.
+    """
 
     ref: str
     connections: tuple[tuple[str, str], ...]
@@ -98,7 +101,9 @@ def _line(
     return " ".join(words)
 
 
-def _as_written(component: Component) -> tuple[list[tuple[str, str]], list[tuple[str, str]]]:
+def _as_written(
+    component: Component,
+) -> tuple[list[tuple[str, str]], list[tuple[str, str]]]:
     attributes = [(a.key, a.text) for a in component.attributes]
     connections = [(c.terminal, c.net) for c in component.connections]
     return attributes, connections
@@ -114,7 +119,9 @@ def statement_text(edit: Edit, netlist: Netlist) -> str:
     attributes, connections = _as_written(component)
     if isinstance(edit, Reconnect):
         nets = dict(edit.connections)
+        present = {t for t, _ in connections}
         connections = [(t, nets.get(t, n)) for t, n in connections]
+        connections += [(t, n) for t, n in edit.connections if t not in present]
     elif isinstance(edit, SetValues):
         new = dict(edit.attributes)
         attributes = [(k, v) for k, v in attributes if k not in new]

@@ -108,6 +108,8 @@ class Proposer:
             yield from self._series_resistor(finding)
         if finding.rule == "slow-release-suppression":
             yield from self._add_zener(finding)
+        if finding.rule in ("series-poles-underrated", "dc-break-over-rating"):
+            yield from self._more_poles(finding)
         if finding.rule in _PART_RULES:
             yield from self._other_parts(finding)
 
@@ -137,15 +139,25 @@ class Proposer:
             plus, minus = sides
             after = load.facts.ref
             ratings = (
-                ("voltage_rating", quantity_text(
-                    voltage * _margin("diode-reverse-voltage", self.margins), "V")),
-                ("current_rating", quantity_text(
-                    load.current * _margin("diode-current", self.margins), "A")),
+                (
+                    "voltage_rating",
+                    quantity_text(
+                        voltage * _margin("diode-reverse-voltage", self.margins), "V"
+                    ),
+                ),
+                (
+                    "current_rating",
+                    quantity_text(
+                        load.current * _margin("diode-current", self.margins), "A"
+                    ),
+                ),
             )
             diode = self._fresh_ref("V", load.facts.ref)
             if not zener:
                 edits.append(
-                    AddComponent("diode", diode, ratings, (("A", minus), ("K", plus)), after)
+                    AddComponent(
+                        "diode", diode, ratings, (("A", minus), ("K", plus)), after
+                    )
                 )
                 continue
             # Diode + zener in series: the zener (cathode to the - side) breaks
@@ -155,11 +167,17 @@ class Proposer:
             vz = quantity_text(voltage, "V")
             zener_ref = self._fresh_ref("VZ", load.facts.ref)
             edits.append(
-                AddComponent("diode", diode, ratings, (("A", middle), ("K", plus)), after)
+                AddComponent(
+                    "diode", diode, ratings, (("A", middle), ("K", plus)), after
+                )
             )
             edits.append(
                 AddComponent(
-                    "zener", zener_ref, (("vz", vz),), (("A", middle), ("K", minus)), after
+                    "zener",
+                    zener_ref,
+                    (("vz", vz),),
+                    (("A", middle), ("K", minus)),
+                    after,
                 )
             )
         return edits
@@ -203,7 +221,9 @@ class Proposer:
                 return
             first, second = component.connections
             edits.append(
-                Reconnect(ref, ((first.terminal, second.net), (second.terminal, first.net)))
+                Reconnect(
+                    ref, ((first.terminal, second.net), (second.terminal, first.net))
+                )
             )
         yield edits
 
@@ -236,8 +256,13 @@ class Proposer:
         ref = self._fresh_ref("R", capacitor.ref)
         yield [
             Reconnect(capacitor.ref, ((first.terminal, inner),)),
-            AddComponent("resistor", ref, (("R", text),),
-                         (("1", first.net), ("2", inner)), capacitor.ref),
+            AddComponent(
+                "resistor",
+                ref,
+                (("R", text),),
+                (("1", first.net), ("2", inner)),
+                capacitor.ref,
+            ),
         ]
 
     def _add_zener(self, finding: Finding) -> Iterator[list[Edit]]:
@@ -253,13 +278,42 @@ class Proposer:
         ref = self._fresh_ref("VZ", diode.ref)
         yield [
             Reconnect(diode.ref, (("A", middle),)),
-            AddComponent("zener", ref, (("vz", quantity_text(vz, "V")),),
-                         (("A", middle), ("K", anode)), diode.ref),
+            AddComponent(
+                "zener",
+                ref,
+                (("vz", quantity_text(vz, "V")),),
+                (("A", middle), ("K", anode)),
+                diode.ref,
+            ),
         ]
+
+    # -- series poles --------------------------------------------------
+    def _more_poles(self, finding: Finding) -> Iterator[list[Edit]]:
+        """Wire 1, 2, ... spare poles of the device in series at the chain's end."""
+        element = self.analysis.elements.get(finding.element)
+        if element is None:
+            return
+        component = element.component
+        spare = _spare_poles(component)
+        end = _chain_end(component, element.series_elements or (element.name,))
+        if end is None:
+            return
+        terminal, net = end
+        wiring: list[tuple[str, str]] = []
+        for count, (common, other) in enumerate(spare, start=1):
+            inner = f"{component.ref}_s{count}"
+            wiring = [(t, inner if (t, n) == (terminal, net) else n) for t, n in wiring]
+            if count == 1:
+                wiring.append((terminal, inner))
+            wiring += [(common, inner), (other, net)]
+            terminal = other
+            yield [Reconnect(component.ref, tuple(wiring))]
 
     # -- ratings ---------------------------------------------------------
     def _rerate(self, finding: Finding) -> Iterator[list[Edit]]:
-        rating = rating_attribute(finding.values.get("what"), finding.values.get("needed"))
+        rating = rating_attribute(
+            finding.values.get("what"), finding.values.get("needed")
+        )
         if rating is not None:
             ref = finding.element.split(":", 1)[0]
             yield [SetValues(ref, (rating,))]
@@ -276,10 +330,41 @@ class Proposer:
                 continue
             tried += 1
             drop = tuple(
-                a.key for a in component.attributes
+                a.key
+                for a in component.attributes
                 if a.key.split(".", 1)[0] in part.data
             )
             yield [UsePart(component.ref, name, drop)]
+
+
+def _spare_poles(component: Component) -> list[tuple[str, str]]:
+    """Unused poles: the part's list, else main poles 1-2, 3-4, ...
+
+    Without a pole list, the device has as many main poles as the part's largest
+    series row says (terminal-marking convention, parts.md).
+    """
+    used = {c.terminal for c in component.connections}
+    if component.part is not None and component.part.data.get("poles"):
+        poles = [(p.common, p.no) for p in component.poles if p.no]
+    else:
+        rows = component.value("contacts", "series", default=None) or []
+        count = max(
+            (int(r.get("poles", 0)) for r in rows if isinstance(r, dict)), default=0
+        )
+        poles = [(str(2 * k - 1), str(2 * k)) for k in range(1, min(count, 4) + 1)]
+    return [
+        (a, b) for a, b in poles if b is not None and a not in used and b not in used
+    ]
+
+
+def _chain_end(component: Component, names: tuple[str, ...]) -> tuple[str, str] | None:
+    """(terminal, net) at one end of a chain of series poles: a net used once."""
+    terminals = [t for name in names for t in name.split(":", 1)[-1].split("-")]
+    nets = [component.net_of(t) for t in terminals]
+    for terminal, net in reversed(list(zip(terminals, nets, strict=True))):
+        if net is not None and nets.count(net) == 1:
+            return terminal, net
+    return None
 
 
 def _suppressed(load) -> bool:  # type: ignore[no-untyped-def]

@@ -69,7 +69,9 @@ class Verifier:
             edits = [_rated(edit, needs) for edit in edits]
         return edits
 
-    def _needs(self, after: list[Finding], edits: list[Edit]) -> dict[str, dict[str, str]]:
+    def _needs(
+        self, after: list[Finding], edits: list[Edit]
+    ) -> dict[str, dict[str, str]]:
         added = {e.ref for e in edits if isinstance(e, AddComponent)}
         before = {identity(f) for f in self.findings}
         needs: dict[str, dict[str, str]] = {}

@@ -26,6 +26,7 @@ from netcheck.findings import (
     placeholders,
     quantity_dict,
 )
+from netcheck.fixes.edits import edit_dict
 
 __all__ = [
     "CAUTION",

@@ -20,7 +20,7 @@ from rich.text import Text
 from netcheck.catalogue import RuleMeta
 from netcheck.coverage import MISSING_DATA, NOT_ANALYSED
 from netcheck.findings import Finding, Severity, quantity_dict
-from netcheck.report import CAUTION, Report, unique_rules
+from netcheck.report import CAUTION, Report, fix_note, unique_rules
 from netcheck.report.template_words import readable
 
 __all__ = [

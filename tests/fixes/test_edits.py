@@ -68,7 +68,10 @@ def test_bad_edit_is_an_input_error(design) -> None:  # type: ignore[no-untyped-
 def test_text_of_each_edit_keeps_layout_and_comments(design) -> None:  # type: ignore[no-untyped-def]
     netlist, path = design
     fixes = [
-        ("freewheel-diode-reversed at V1", [Reconnect("V1", (("A", "M"), ("K", "N1")))]),
+        (
+            "freewheel-diode-reversed at V1",
+            [Reconnect("V1", (("A", "M"), ("K", "N1")))],
+        ),
         ("suppressor-underrated at V1", [SetValues("V1", (("current_rating", "2A"),))]),
         (
             "inductive-load-unsuppressed at K1:13-14",
@@ -79,7 +82,10 @@ def test_text_of_each_edit_keeps_layout_and_comments(design) -> None:  # type: i
     old, new = texts[netlist.file]
     assert old == DESIGN
     lines = new.split("\n")
-    assert "diode V1 voltage_rating=50V current_rating=2A A:M K:N1  # fitted backwards" in lines
+    assert (
+        "diode V1 voltage_rating=50V current_rating=2A A:M K:N1  # fitted backwards"
+        in lines
+    )
     # the new statement follows the relay's continuation lines, under the marker
     index = lines.index("    13:L+ 14:N1")
     assert lines[index + 1] == f"{MARK}: inductive-load-unsuppressed at K1:13-14"

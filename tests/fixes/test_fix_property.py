@@ -61,7 +61,9 @@ def test_verified_fixes_clear_their_finding(path: Path) -> None:
 
 def test_a_fix_that_does_not_clear_is_not_verified() -> None:
     """Mutation check: a diode of the wrong polarity never passes as verified."""
-    path = ROOT / "tests/cases/inductive-load-unsuppressed/bad-contact-no-suppression.cnet"
+    path = (
+        ROOT / "tests/cases/inductive-load-unsuppressed/bad-contact-no-suppression.cnet"
+    )
     netlist, before, verified = _checked(path)
     fixed = next(f for f in verified if f.rule == "inductive-load-unsuppressed")
     assert fixed.verified

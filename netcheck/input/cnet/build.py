@@ -337,7 +337,9 @@ def load_cnet(
     )
 
 
-def build_component(statement: ComponentStatement, parts: Mapping[str, Part]) -> Component:
+def build_component(
+    statement: ComponentStatement, parts: Mapping[str, Part]
+) -> Component:
     """Build one component statement against loaded parts (design edits use it).
 
     Raises InputErrors where the statement is not valid on its own.
