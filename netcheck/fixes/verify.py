@@ -21,7 +21,11 @@ from netcheck.model import Netlist
 
 __all__ = ["Verifier", "verify_fixes", "identity"]
 
-MAX_CANDIDATES = 12  # re-checks per finding: bounds the cost on large designs
+MAX_CANDIDATES = 12  # candidates per finding
+# Re-checks of one design during ``check``: each is a full analysis, so a large
+# design with many findings would otherwise cost findings x candidates analyses.
+# ``netcheck fix`` lifts the budget (None).
+CHECK_BUDGET = 64
 
 
 def identity(finding: Finding) -> tuple[str, str, str]:
@@ -36,14 +40,24 @@ class Verifier:
     netlist: Netlist
     findings: Sequence[Finding]
     margins: Mapping[str, float]
+    budget: int | None = None
+    spent: int = 0
     _results: dict[tuple[Edit, ...], list[Finding] | None] = field(default_factory=dict)
 
     def recheck(self, edits: Sequence[Edit]) -> list[Finding] | None:
         """The findings of the edited design, or None if the edits do not build."""
         key = tuple(edits)
         if key not in self._results:
+            if self.exhausted:
+                return None
+            self.spent += 1
             self._results[key] = self._run(edits)
         return self._results[key]
+
+    @property
+    def exhausted(self) -> bool:
+        """Whether the re-check budget is spent."""
+        return self.budget is not None and self.spent >= self.budget
 
     def _run(self, edits: Sequence[Edit]) -> list[Finding] | None:
         from netcheck.pipeline import run_checks  # the pipeline calls this module
@@ -129,8 +143,12 @@ def verify_fixes(
     analysis: Analysis,
     findings: Sequence[Finding],
     margins: Mapping[str, float] = {},
+    budget: int | None = CHECK_BUDGET,
 ) -> list[Finding]:
     """The findings, each fix given its verified edits (or marked unverified).
+
+    Fixes left when the re-check ``budget`` is spent keep their first candidate
+    and ``verified`` None: not checked, rather than checked and failed.
 
     A finding that is a consequence of another (a contact "breaking" the short
     of a reversed diode) has no fix of its own that works; the verified edits
@@ -138,12 +156,15 @@ def verify_fixes(
     so this costs nothing more.
     """
     proposer = Proposer(netlist, analysis, dict(margins))
-    verifier = Verifier(netlist, findings, margins)
+    verifier = Verifier(netlist, findings, margins, budget)
     chosen: dict[int, list[Edit]] = {}
+    unchecked: set[int] = set()
     firsts: dict[int, list[Edit] | None] = {}
     for index, finding in enumerate(findings):
         if finding.fix is None or finding.waived is not None:
             continue
+        if verifier.exhausted:
+            unchecked.add(index)
         firsts[index], edits = _first_passing(
             finding, proposer.candidates(finding), verifier
         )
@@ -160,6 +181,8 @@ def verify_fixes(
         if index in chosen:
             finding = replace(finding, edits=tuple(chosen[index]), verified=True)
         elif index in firsts:
-            finding = replace(finding, edits=tuple(firsts[index] or ()), verified=False)
+            verified = None if index in unchecked or verifier.exhausted else False
+            edits = tuple(firsts[index] or ())
+            finding = replace(finding, edits=edits, verified=verified)
         out.append(finding)
     return out

@@ -285,7 +285,8 @@ def fix_dict(finding: Finding, meta: RuleMeta | None) -> dict[str, Any] | None:
 def fix_note(finding: Finding) -> str:
     """What the text report says of a fix's verification ('' if not checked)."""
     if finding.verified is None:
-        return ""
+        # Unverified findings with edits: the design's re-check budget was spent.
+        return "not verified: too many findings to re-check each" if finding.edits else ""
     if finding.verified:
         return "verified: applied to a copy of the design, it clears the finding"
     if not finding.edits:
