@@ -91,5 +91,6 @@ def test_share_of_verified_fixes_is_measured() -> None:
                 total += 1
                 verified += bool(finding.verified)
     assert total > 0
-    # 54 of 117 when this test was written; a drop means a proposer regressed.
-    assert verified / total >= 0.45
+    # 68 of 118 when this test was written (every finding with a fix text,
+    # advice-only rules included); a drop means a proposer regressed.
+    assert verified / total >= 0.55

@@ -14,15 +14,21 @@ CASE = Path(__file__).parents[1] / "cases" / "inductive-load-unsuppressed"
 
 
 def test_json_fix_has_edits_and_verification(capsys) -> None:  # type: ignore[no-untyped-def]
-    cli.main(["check", str(CASE / "bad-contact-no-suppression.cnet"), "--format", "json"])
+    cli.main(
+        ["check", str(CASE / "bad-contact-no-suppression.cnet"), "--format", "json"]
+    )
     data = json.loads(capsys.readouterr().out)
     assert validate("findings", data) is None
-    fix = next(f["fix"] for f in data["findings"] if f["rule"] == "inductive-load-unsuppressed")
+    fix = next(
+        f["fix"] for f in data["findings"] if f["rule"] == "inductive-load-unsuppressed"
+    )
     assert fix["verified"] is True
     (edit,) = fix["edits"]
     assert edit["action"] == "add" and edit["kind"] == "diode"
     # The diode is rated at the fix text's own numbers (margins applied), or above.
-    assert edit["attributes"]["voltage_rating"] == fix["values"]["diode_voltage"]["text"].replace(" ", "")
+    assert edit["attributes"]["voltage_rating"] == fix["values"]["diode_voltage"][
+        "text"
+    ].replace(" ", "")
 
 
 def test_text_says_which_fixes_are_verified(
