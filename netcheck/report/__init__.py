@@ -286,7 +286,9 @@ def fix_note(finding: Finding) -> str:
     """What the text report says of a fix's verification ('' if not checked)."""
     if finding.verified is None:
         # Unverified findings with edits: the design's re-check budget was spent.
-        return "not verified: too many findings to re-check each" if finding.edits else ""
+        if finding.edits:
+            return "not verified: too many findings to re-check each"
+        return ""
     if finding.verified:
         return "verified: applied to a copy of the design, it clears the finding"
     if not finding.edits:
