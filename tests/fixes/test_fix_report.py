@@ -8,6 +8,7 @@ from pathlib import Path
 import pytest
 
 from netcheck import cli
+from netcheck.cli import output
 from netcheck.schema import validate
 
 CASE = Path(__file__).parents[1] / "cases" / "inductive-load-unsuppressed"
@@ -34,7 +35,7 @@ def test_json_fix_has_edits_and_verification(capsys) -> None:  # type: ignore[no
 def test_text_says_which_fixes_are_verified(
     capsys, monkeypatch: pytest.MonkeyPatch
 ) -> None:  # type: ignore[no-untyped-def]
-    monkeypatch.setattr(cli, "stdout_is_terminal", lambda: True)
+    monkeypatch.setattr(output, "stdout_is_terminal", lambda: True)
     cli.main(["check", str(CASE / "bad-contact-no-suppression.cnet"), "--no-color"])
     out = capsys.readouterr().out
     assert "verified: applied to a copy of the design" in " ".join(out.split())
@@ -43,7 +44,7 @@ def test_text_says_which_fixes_are_verified(
 def test_text_says_a_fix_without_edits_is_not_verified(
     capsys, monkeypatch: pytest.MonkeyPatch, tmp_path: Path
 ) -> None:  # type: ignore[no-untyped-def]
-    monkeypatch.setattr(cli, "stdout_is_terminal", lambda: True)
+    monkeypatch.setattr(output, "stdout_is_terminal", lambda: True)
     design = tmp_path / "d.cnet"
     design.write_text(
         'title "illustrative"\nsupply G1 dc=24V +:L+ -:M\n'
