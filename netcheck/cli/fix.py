@@ -30,6 +30,7 @@ def add_options(parser: argparse.ArgumentParser) -> None:
     """The designs, how to read them, --write and --fail-on."""
     options.add_selection_options(parser)
     options.add_input_options(parser)
+    options.add_output_options(parser)  # -o FILE: the diff, written atomically
     parser.add_argument(
         "--write", action="store_true", help="apply the edits to the files (atomically)"
     )
@@ -85,7 +86,7 @@ def run(args: argparse.Namespace, out: Output) -> int:
             settings.severity.get(f.rule, f.severity) >= threshold
             for f in plan.remaining
         )
-    if diffs:
+    if not args.write:
         out.write("".join(diffs))
     print("\n".join([*notes, CAUTION]), file=sys.stderr)
     return 1 if failing else 0
