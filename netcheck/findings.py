@@ -126,6 +126,10 @@ class Finding:
     fingerprint: str = ""
     waived: str | None = None
     variant: str = "default"  # the rule's message variant the text came from
+    # Machine-applicable edits of the fix (netcheck.fixes.edits) and whether
+    # applying them was verified to clear the finding; None: not verified yet.
+    edits: tuple[Any, ...] = ()
+    verified: bool | None = None
 
     def sort_key(self) -> tuple[Any, ...]:
         """Deterministic order: file, line, column, rule, element."""

@@ -16,6 +16,7 @@ from netcheck.coverage import ElementStatus, element_statuses
 from netcheck.error_records import ErrorRecord, os_error_record, records_of
 from netcheck.errors import InputError
 from netcheck.findings import Finding, fingerprint
+from netcheck.fixes.verify import verify_fixes
 from netcheck.graph import build_graph
 from netcheck.input import load_design
 from netcheck.model import Netlist, Waiver
@@ -37,6 +38,8 @@ class CheckOptions:
     extra_parts: tuple[Path, ...] = ()
     allow_outside: bool = False
     margins: Mapping[str, float] = field(default_factory=dict)
+    # Re-check the design with each fix applied (netcheck.fixes.verify).
+    verify_fixes: bool = True
 
 
 @dataclass(frozen=True)
@@ -150,6 +153,8 @@ def check_path(path: Path, options: CheckOptions = CheckOptions()) -> CheckResul
     """Check one top-level ``.cnet`` design; raises InputError on bad input."""
     netlist, analysis = analyse_path(path, options)
     findings = run_checks(netlist, analysis, options.margins)
+    if options.verify_fixes:
+        findings = verify_fixes(netlist, analysis, findings, options.margins)
     statuses = element_statuses(analysis, findings)
     return CheckResult(netlist.file, findings, netlist.files, statuses)
 

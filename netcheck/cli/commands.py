@@ -39,4 +39,7 @@ COMMANDS: tuple[Command, ...] = (
     Command("explain", "explain", "run", "explain one rule"),
     Command("baseline", "baseline", "run", "write the current findings as a baseline"),
     Command("schema", "schema", "run", "list the shipped JSON Schemas or print one"),
+    Command(
+        "fix", "fix", "run", "print the verified fixes as a diff (--write applies)"
+    ),
 )

@@ -18,6 +18,7 @@ from typing import Any
 from netcheck.catalogue import RuleMeta
 from netcheck.coverage import ElementStatus
 from netcheck.error_records import ErrorRecord
+from netcheck.fixes.edits import edit_dict
 from netcheck.findings import (
     Finding,
     Severity,
@@ -25,6 +26,7 @@ from netcheck.findings import (
     placeholders,
     quantity_dict,
 )
+from netcheck.fixes.edits import edit_dict
 
 __all__ = [
     "CAUTION",
@@ -37,6 +39,7 @@ __all__ = [
     "unique_rules",
     "value_dicts",
     "fix_dict",
+    "fix_note",
     "references",
 ]
 
@@ -271,7 +274,26 @@ def fix_dict(finding: Finding, meta: RuleMeta | None) -> dict[str, Any] | None:
         for template in meta.fixes.values():
             used |= placeholders(template)
     values = {k: v for k, v in finding.values.items() if k in used}
-    return {"text": finding.fix, "values": value_dicts(values)}
+    return {
+        "text": finding.fix,
+        "values": value_dicts(values),
+        "edits": [edit_dict(edit) for edit in finding.edits],
+        "verified": bool(finding.verified),
+    }
+
+
+def fix_note(finding: Finding) -> str:
+    """What the text report says of a fix's verification ('' if not checked)."""
+    if finding.verified is None:
+        # Unverified findings with edits: the design's re-check budget was spent.
+        if finding.edits:
+            return "not verified: too many findings to re-check each"
+        return ""
+    if finding.verified:
+        return "verified: applied to a copy of the design, it clears the finding"
+    if not finding.edits:
+        return "not verified: no edit the tool can apply"
+    return "not verified: applied, it does not clear the finding on its own"
 
 
 def references(finding: Finding, meta: RuleMeta | None) -> list[str]:

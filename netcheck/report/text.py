@@ -20,7 +20,7 @@ from rich.text import Text
 from netcheck.catalogue import RuleMeta
 from netcheck.coverage import MISSING_DATA, NOT_ANALYSED
 from netcheck.findings import Finding, Severity, quantity_dict
-from netcheck.report import CAUTION, Report, unique_rules
+from netcheck.report import CAUTION, Report, fix_note, unique_rules
 from netcheck.report.template_words import readable
 
 __all__ = [
@@ -197,6 +197,9 @@ def _finding_table(group: list[Finding]) -> Table:
         if finding.fix:
             body.append("\nfix: ", "bold green")
             body.append(_one_line(finding.fix))
+            note = fix_note(finding)
+            if note:
+                body.append(f" ({note})", "dim")
         label = Text(finding.severity.label, STYLES[finding.severity])
         table.add_row(label, body)
     return table

@@ -28,6 +28,7 @@ PRINTING = {
     "rules": ["rules"],
     "explain": ["explain", "inductive-load-unsuppressed"],
     "schema": ["schema", "config"],
+    "fix": ["fix", str(DESIGN)],
 }
 
 

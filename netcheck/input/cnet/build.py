@@ -382,3 +382,17 @@ def load_cnet(
         tuple(reader.files),
         parts,
     )
+
+
+def build_component(
+    statement: ComponentStatement, parts: Mapping[str, Part]
+) -> Component:
+    """Build one component statement against loaded parts (design edits use it).
+
+    Raises InputErrors where the statement is not valid on its own.
+    """
+    errors: list[InputError] = []
+    component = _Builder(parts, errors).component(statement)
+    if errors or component is None:
+        raise InputErrors(errors)
+    return component

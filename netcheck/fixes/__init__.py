@@ -1,0 +1,1 @@
+"""Fixes that really fix: structured edits, verified by re-checking the design."""
