@@ -4,6 +4,7 @@ from netcheck.checks import (  # noqa: F401
     arrangement,
     coils,
     network,
+    protection,
     ratings,
     suppression,
     suppressors,

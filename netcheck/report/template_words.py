@@ -15,6 +15,14 @@ __all__ = ["WORDS", "RULE_WORDS", "describe", "readable"]
 # otherwise in RULE_WORDS.
 WORDS: dict[str, str] = {
     "about": "what the part protects",
+    "voltage_needed": "DC voltage rating needed",
+    "supplies": "supplies",
+    "prospective": "prospective fault current",
+    "marked": "marked entry terminal",
+    "dc_rating": "DC voltage rating",
+    "capacity_needed": "breaking capacity needed",
+    "capacity": "DC breaking capacity",
+    "ac_rating": "AC voltage rating",
     "allowed": "allowed current",
     "applied": "applied voltage",
     "assumed": "note on assumed ratings, if any",
@@ -107,6 +115,8 @@ RULE_WORDS: dict[tuple[str, str], str] = {
     ("polarized-pole-reversed", "current"): "current",
     ("ac-output-on-dc", "current"): "load current",
     ("single-connection-net", "hint"): "hint at a similar net name",
+    ("protection-dc-capacity", "voltage"): "highest supply voltage",
+    ("protection-dc-capacity", "inlet"): "terminal the current enters at",
     ("unused-waiver", "why"): "why nothing matched",
 }
 
