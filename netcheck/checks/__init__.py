@@ -2,6 +2,7 @@
 
 from netcheck.checks import (  # noqa: F401
     arrangement,
+    making,
     coils,
     network,
     protection,

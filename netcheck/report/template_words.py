@@ -15,6 +15,19 @@ __all__ = ["WORDS", "RULE_WORDS", "describe", "readable"]
 # otherwise in RULE_WORDS.
 WORDS: dict[str, str] = {
     "about": "what the part protects",
+    "t95": "T0.95",
+    "step": "voltage step",
+    "resistor": "precharge resistance",
+    "pulse_power": "peak power in the resistor",
+    "pulse": "pulse energy in the resistor",
+    "multiple": "inrush multiple",
+    "making_needed": "making capacity needed",
+    "making": "making current",
+    "loop": "loop resistance",
+    "hot": "hot or running current",
+    "capacitance": "capacitance",
+    "capacitor": "capacitor",
+    "basis": "what the making capacity is taken from",
     "voltage_needed": "DC voltage rating needed",
     "supplies": "supplies",
     "prospective": "prospective fault current",
@@ -117,6 +130,10 @@ RULE_WORDS: dict[tuple[str, str], str] = {
     ("single-connection-net", "hint"): "hint at a similar net name",
     ("protection-dc-capacity", "voltage"): "highest supply voltage",
     ("protection-dc-capacity", "inlet"): "terminal the current enters at",
+    ("making-over-rating", "allowed"): "making capacity",
+    ("making-over-rating", "tau"): "charging time constant",
+    ("making-over-rating", "t95"): "time to 95 % charge",
+    ("making-over-rating", "voltage"): "supply voltage",
     ("unused-waiver", "why"): "why nothing matched",
 }
 
