@@ -215,10 +215,11 @@ def _charges(
     state: DomainState, scenario: _Scenario, caps: list[Branch]
 ) -> list[Charge]:
     out = []
+    scale = max((abs(v) for v in state.emf.values()), default=1.0)
     for cap in caps:
         step = scenario.after[cap.key] - scenario.before[cap.key]
-        if abs(step) < 1e-3 * max(abs(scenario.after[cap.key]), 1.0):
-            continue
+        if abs(step) < 1e-3 * max(scale, 1.0):
+            continue  # unchanged (the leak resistors leave millivolts)
         loop = _loop(state, scenario.shut, scenario.after, cap.key)
         capacitance = float(cap.component.value("C").to("F").magnitude)
         out.append(Charge(cap.ref, capacitance, step, loop))
