@@ -196,6 +196,8 @@ def test_findings_have_the_rule_severity_or_a_documented_change(name: str) -> No
     # (not a stated making current) is the basis (rules/making.yaml).
     lowered = {"inductive-load-unsuppressed": {Severity.ERROR}}
     lowered["making-over-rating"] = {Severity.WARNING}
+    # arc-sustain-risk: info where the estimate says "unlikely" (rules/arc.yaml).
+    lowered["arc-sustain-risk"] = {Severity.INFO}
     allowed = lowered.get(name, set())
     assert changed <= allowed, (name, sorted(s.label for s in changed))
 

@@ -1,6 +1,7 @@
 """The checks, one module per rule family; importing this package registers them."""
 
 from netcheck.checks import (  # noqa: F401
+    arc,
     arrangement,
     making,
     coils,

@@ -15,6 +15,15 @@ __all__ = ["WORDS", "RULE_WORDS", "describe", "readable"]
 # otherwise in RULE_WORDS.
 WORDS: dict[str, str] = {
     "about": "what the part protects",
+    "um": "minimum arc voltage",
+    "t_um": "time to reach Um",
+    "material": "contact material",
+    "im": "minimum arc current",
+    "dvdt": "initial dv/dt",
+    "discharge": "discharge current at closing",
+    "c_needed": "capacitance for 1 V/µs",
+    "breaks_needed": "breaks needed",
+    "breaks": "number of breaks",
     "t95": "T0.95",
     "step": "voltage step",
     "resistor": "precharge resistance",
