@@ -3,8 +3,8 @@
 from netcheck.checks import (  # noqa: F401
     arc,
     arrangement,
-    making,
     coils,
+    making,
     network,
     protection,
     ratings,

@@ -125,6 +125,8 @@ def making_over_rating(ctx: CheckContext) -> Iterator[Finding]:
         if inrush is None or inrush.peak is None:
             continue  # no resistance in the loop: no number (give the supply's r_int)
         kind, load, multiple, hot = _extra(ctx, element)
+        if kind == "" and not inrush.charges:
+            continue
         peak = inrush.peak + (multiple - 1) * hot
         if peak <= 1.01 * inrush.steady + 1e-9:
             continue  # nothing on closing beyond the current it breaks

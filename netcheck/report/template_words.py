@@ -24,7 +24,6 @@ WORDS: dict[str, str] = {
     "c_needed": "capacitance for 1 V/µs",
     "breaks_needed": "breaks needed",
     "breaks": "number of breaks",
-    "t95": "T0.95",
     "step": "voltage step",
     "resistor": "precharge resistance",
     "pulse_power": "peak power in the resistor",
