@@ -37,6 +37,7 @@ QUANTITY_KEYS: dict[str, str] = {
     "energy": "energy",
     "vdc_max": "voltage",
     "dc_voltage_rating": "voltage",
+    "ac_voltage_rating": "voltage",
     "breaking_capacity": "current",
     "release_current": "current",
     "voltage": "voltage",

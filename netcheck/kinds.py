@@ -101,8 +101,13 @@ _OWN_ATTRIBUTES: dict[str, tuple[str, ...]] = {
     "tvs": ("standoff", "vclamp", "energy", "bidirectional"),
     "varistor": ("vdc_max", "vclamp", "energy", "alpha"),
     "rc": ("R", "C", "voltage_rating"),
-    "fuse": ("dc_voltage_rating", "breaking_capacity"),
-    "breaker": ("dc_voltage_rating", "breaking_capacity"),
+    "fuse": ("dc_voltage_rating", "ac_voltage_rating", "breaking_capacity"),
+    "breaker": (
+        "dc_voltage_rating",
+        "ac_voltage_rating",
+        "breaking_capacity",
+        "polarized",
+    ),
 }
 # The attributes each kind takes inline (``contacts.*``/``coil.*`` come on top
 # for pole kinds; see input/cnet/build.py).

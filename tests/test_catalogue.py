@@ -189,10 +189,16 @@ def test_fix_goes_with_its_message_variant(name: str) -> None:
 
 @pytest.mark.parametrize("name", sorted(rules()))
 def test_findings_have_the_rule_severity_or_a_documented_change(name: str) -> None:
-    """Only inductive-load-unsuppressed raises its severity (rules.md)."""
+    """Only inductive-load-unsuppressed and making-over-rating change severity."""
     meta = rules()[name]
     changed = {f.severity for f in findings_of(name)} - {meta.severity}
-    allowed = {Severity.ERROR} if name == "inductive-load-unsuppressed" else set()
+    # making-over-rating: a warning where only a category's making condition
+    # (not a stated making current) is the basis (rules/making.yaml).
+    lowered = {"inductive-load-unsuppressed": {Severity.ERROR}}
+    lowered["making-over-rating"] = {Severity.WARNING}
+    # arc-sustain-risk: info where the estimate says "unlikely" (rules/arc.yaml).
+    lowered["arc-sustain-risk"] = {Severity.INFO}
+    allowed = lowered.get(name, set())
     assert changed <= allowed, (name, sorted(s.label for s in changed))
 
 

@@ -1,9 +1,12 @@
 """The checks, one module per rule family; importing this package registers them."""
 
 from netcheck.checks import (  # noqa: F401
+    arc,
     arrangement,
     coils,
+    making,
     network,
+    protection,
     ratings,
     suppression,
     suppressors,
