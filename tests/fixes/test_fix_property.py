@@ -93,4 +93,6 @@ def test_share_of_verified_fixes_is_measured() -> None:
     assert total > 0
     # 68 of 118 when this test was written (every finding with a fix text,
     # advice-only rules included); a drop means a proposer regressed.
-    assert verified / total >= 0.55
+    # 87 of 163 after the making, protection and arc rules landed: their fixes
+    # are advice without machine edits yet, so the floor is 0.5.
+    assert verified / total >= 0.5
