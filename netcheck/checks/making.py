@@ -121,20 +121,22 @@ def making_over_rating(ctx: CheckContext) -> Iterator[Finding]:
     for element in ctx.switching_elements(supply="dc"):
         if element.component.kind not in MECHANICAL_KINDS:
             continue
-        inrush = closing_inrush(ctx.analysis, element)
-        if inrush is None or inrush.peak is None:
-            continue  # no resistance in the loop: no number (give the supply's r_int)
+        # What there is to judge is known before any network is solved: a
+        # contact with no making data that speaks for its loads is skipped.
         kind, load, multiple, hot = _extra(ctx, element)
-        if kind == "" and not inrush.charges:
-            continue
-        peak = inrush.peak + (multiple - 1) * hot
-        if peak <= 1.01 * inrush.steady + 1e-9:
-            continue  # nothing on closing beyond the current it breaks
         found = _allowed(element, kind)
         if kind == "" and (found is None or not found[2]):
             continue  # a capacitor step is judged on a stated making current only
         if found is None:
             continue  # no making data of a category that speaks for the load
+        inrush = closing_inrush(ctx.analysis, element)
+        if inrush is None or inrush.peak is None:
+            continue  # no resistance in the loop: no number (give the supply's r_int)
+        if kind == "" and not inrush.charges:
+            continue
+        peak = inrush.peak + (multiple - 1) * hot
+        if peak <= 1.01 * inrush.steady + 1e-9:
+            continue  # nothing on closing beyond the current it breaks
         allowed, basis, stated = found
         margin = ctx.option("making-current")
         if peak * margin <= float(allowed.to("A").magnitude):
