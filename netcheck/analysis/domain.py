@@ -80,6 +80,8 @@ class DomainState:
     group_nets: dict[str, list[str]] = field(default_factory=dict)
     opened: frozenset[str] = frozenset()  # elements this state keeps open
     supplies: list[Branch] = field(default_factory=list)  # the supply branches
+    # What later stages derive once per state (the closing network's blocks).
+    cache: dict[str, object] = field(default_factory=dict, repr=False, compare=False)
 
     def model(self, key: str, rename: Mapping[str, str]) -> Resistor | Diode:
         """The branch's circuit model with its ends renamed (net -> node)."""

@@ -29,6 +29,11 @@ __all__ = ["Inrush", "Charge", "closing_inrush", "R_IDEAL", "UNBOUNDED_LOOP"]
 R_IDEAL = 1e-6
 UNBOUNDED_LOOP = 1e-3
 R_LEAK = 1e12  # ohm, every node to the reference (the usual SPICE remedy)
+# A domain of up to this many branches is solved whole (one dense system per
+# closing); a larger one is cut at its rails into blocks (``making_cut.py``),
+# which gives the same currents at a cost that grows with the rung, not the
+# domain (tests/analysis/test_making_cut.py holds the two equal).
+DENSE_BRANCHES = 64
 
 
 @dataclass(frozen=True)
@@ -164,16 +169,6 @@ def _voltages(net: _Net, caps: list[Branch]) -> dict[str, float]:
     return {c.key: potentials.get(c.a, 0.0) - potentials.get(c.b, 0.0) for c in caps}
 
 
-def _loop(net: _Net, cap: Branch, before: float, after: float) -> float | None:
-    """The resistance a capacitor's step charges through, from a one-cap solve."""
-    potentials, currents = net.solve()
-    current = abs(currents.get(cap.key, 0.0))
-    if current <= 0:
-        return None
-    loop = abs(after - before) / current
-    return loop if loop >= UNBOUNDED_LOOP else None
-
-
 def _closed_switches(state: DomainState) -> frozenset[str]:
     return frozenset(
         b.key
@@ -259,6 +254,14 @@ def closing_inrush(analysis: Analysis, element: ElementAnalysis) -> Inrush | Non
     state = analysis.states.get(element.domain or "")
     if state is None or not state.supplies or element.name in state.opened:
         return None
+    if len(state.domain.branches) > DENSE_BRANCHES:
+        # Imported here: making_cut builds on this module's results.
+        from netcheck.analysis.closing_net import blocks_of
+        from netcheck.analysis.making_cut import cut_inrush
+
+        blocks = blocks_of(state)
+        if blocks.regular:
+            return cut_inrush(blocks, element)
     caps, name = _capacitors(state), element.name
     shut = _closed_switches(state)
     series = {name, *element.series_elements, *element.other_series}
