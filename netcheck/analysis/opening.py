@@ -8,6 +8,7 @@ part data, and answers peak voltage, release time and suppressor energy.
 from __future__ import annotations
 
 from dataclasses import replace
+from functools import lru_cache
 
 import pint
 
@@ -114,6 +115,19 @@ def model_suppression(
     return Suppression("none", ACROSS_ELEMENT)
 
 
+@lru_cache(maxsize=512)
+def _opening(
+    model: Load, suppression: Suppression, release: float | None
+) -> OpeningTransient:
+    """One transient per distinct circuit: repeated rungs share it.
+
+    A pure function of its (frozen, SI-float) arguments, so the memo returns
+    exactly what a fresh solve would; 512 entries of a few hundred samples
+    each bound its memory.
+    """
+    return OpeningTransient.of(transient(model, suppression, release))
+
+
 def _release(load: SwitchedLoad) -> float | None:
     value = load.facts.release_current
     return _si(value, "A") if value is not None else None
@@ -133,7 +147,7 @@ def load_transient(
     if suppression.kind in ("tvs", "varistor") and suppression.clamp_voltage <= 0:
         return None
     try:
-        return OpeningTransient.of(transient(model, suppression, _release(load)))
+        return _opening(model, suppression, _release(load))
     except ValueError:
         return None
 
@@ -184,4 +198,4 @@ def zener_release(
         forward_voltage=forward_voltage,
         clamp_voltage=model.supply,
     )
-    return OpeningTransient.of(transient(model, suppression, _release(load)))
+    return _opening(model, suppression, _release(load))
