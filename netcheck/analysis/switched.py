@@ -7,7 +7,7 @@ from dataclasses import dataclass, field
 
 import pint
 
-from netcheck.analysis.circuit import solve_dc
+from netcheck.analysis.circuit import Solution, solve_dc
 from netcheck.analysis.domain import DomainState
 from netcheck.analysis.loads import LoadFacts
 from netcheck.analysis.suppression import Chain
@@ -158,6 +158,30 @@ def _region(state: DomainState, floating: set[str], group: str) -> set[str]:
     return keys
 
 
+def _cut_off(
+    state: DomainState, floating: frozenset[str], group: str
+) -> tuple[set[str], Solution]:
+    """The circuit with ``floating`` cut off from ``group``, solved once per cut.
+
+    Contacts in parallel (20 start buttons OR-ed in a rung) open the same cut,
+    so the solve is shared; it depends on nothing but the cut and the state.
+    """
+    memo = state.cache.setdefault("cut-off", {})
+    key = (floating, group)
+    if key not in memo:  # type: ignore[operator]
+        node = "<open>"
+        rename = {net: node for net in floating}
+        keys = _region(state, set(floating), group)
+        models = [state.model(k, rename) for k in sorted(keys)]
+        resistors = [m for m in models if hasattr(m, "resistance")]
+        diodes = [m for m in models if not hasattr(m, "resistance")]
+        nodes = sorted({n for m in models for n in (m.a, m.b)} | {node, group})
+        fixed = {n: state.rails[n] for n in nodes if n in state.rails and n != node}
+        solution = solve_dc(nodes, fixed, resistors, diodes)  # type: ignore[arg-type]
+        memo[key] = (keys, solution)  # type: ignore[index]
+    return memo[key]  # type: ignore[index,no-any-return]
+
+
 def open_element(
     state: DomainState,
     zero: ZeroOhm,
@@ -175,15 +199,8 @@ def open_element(
     group = state.group[branch.a]
     floating, searched = _floating_side(state, side, terminals, group)
     floating_end = end if searched else ("a" if end == "b" else "b")
+    keys, solution = _cut_off(state, frozenset(floating), group)
     node = "<open>"
-    rename = {net: node for net in floating}
-    keys = _region(state, floating, group)
-    models = [state.model(k, rename) for k in sorted(keys)]
-    resistors = [m for m in models if hasattr(m, "resistance")]
-    diodes = [m for m in models if not hasattr(m, "resistance")]
-    nodes = sorted({n for m in models for n in (m.a, m.b)} | {node, group})
-    fixed = {n: state.rails[n] for n in nodes if n in state.rails and n != node}
-    solution = solve_dc(nodes, fixed, resistors, diodes)  # type: ignore[arg-type]
     v_float = solution.potentials[node]
     v_rest = solution.potentials[group]
     voltage_ab = (v_rest - v_float) if floating_end == "b" else (v_float - v_rest)
