@@ -12,7 +12,7 @@ from typing import Any
 import pint
 
 from netcheck.source import Span
-from netcheck.units import format_quantity
+from netcheck.units import format_quantity, unit_symbol
 
 __all__ = ["Severity", "Finding", "fill_template", "fingerprint", "quantity_dict"]
 
@@ -86,7 +86,7 @@ def placeholders(template: str) -> set[str]:
 def quantity_dict(value: Any) -> dict[str, Any]:
     """Return ``{"value": float, "unit": "V", "text": "24 V"}`` for a quantity."""
     if isinstance(value, pint.Quantity):
-        unit = f"{value.units:~}"
+        unit = unit_symbol(value)
         return {
             # 12 significant digits: exact enough, and free of solver round-off.
             "value": float(f"{float(value.magnitude):.12g}"),

@@ -18,6 +18,7 @@ __all__ = [
     "DIMENSIONS",
     "parse_quantity",
     "format_quantity",
+    "unit_symbol",
     "check_sign",
     "MAY_BE_ZERO",
 ]
@@ -134,7 +135,29 @@ _PREFIXES = {
 }
 
 
+# Both depend on the unit alone (pint's hashable units container): a report of
+# thousands of findings formats a handful of distinct units.
+_BASES: dict[object, str | None] = {}
+_SYMBOLS: dict[object, str] = {}
+
+
+def unit_symbol(quantity: pint.Quantity) -> str:
+    """The unit's short symbol as pint prints it (``f"{q.units:~}"``), memoised."""
+    key = quantity._units
+    symbol = _SYMBOLS.get(key)
+    if symbol is None:
+        symbol = _SYMBOLS[key] = f"{quantity.units:~}"
+    return symbol
+
+
 def _base_unit(quantity: pint.Quantity) -> str | None:
+    key = quantity._units
+    if key not in _BASES:
+        _BASES[key] = _find_base_unit(quantity)
+    return _BASES[key]
+
+
+def _find_base_unit(quantity: pint.Quantity) -> str | None:
     """The unprefixed unit to print ``quantity`` in, or None for no prefix at all.
 
     A quantity of a known dimension goes to its SI unit (``ms`` -> ``s``); another
@@ -163,7 +186,7 @@ def format_quantity(quantity: pint.Quantity, digits: int = 4) -> str:
     if base is not None:
         quantity = quantity.to(base)
     magnitude = float(quantity.magnitude)
-    unit = f"{quantity.units:~}"
+    unit = unit_symbol(quantity)
     symbol = _SYMBOL.get(unit, unit)
     if symbol in ("", "dimensionless"):
         return f"{magnitude:.{digits}g}"
