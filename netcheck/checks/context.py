@@ -14,6 +14,7 @@ from typing import Any
 
 import pint
 
+from netcheck.analysis import fault
 from netcheck.analysis import fitted as fitting
 from netcheck.analysis import shorts as short_circuits
 from netcheck.analysis.elements import Analysis
@@ -114,6 +115,10 @@ class CheckContext:
         return self._memo(  # type: ignore[no-any-return]
             "breakdown", lambda: short_circuits.in_breakdown(self.analysis)
         )
+
+    def feeds(self) -> fault.Feeds:
+        """Which nets reach a supply terminal through conductors and contacts."""
+        return self._memo("feeds", lambda: fault.Feeds(self.graph))  # type: ignore[no-any-return]
 
     def verdict(self, element: ElementAnalysis) -> Assessment | None:
         """The rating verdict of an element that breaks a current (series poles too)."""

@@ -76,7 +76,7 @@ def _polarity(ctx: CheckContext, device: Protective) -> Iterator[Finding]:
     if component.value("polarized") not in (True, "yes"):
         return
     for pole in component.poles:
-        inlet = inlet_of(ctx.graph, component, pole)
+        inlet = inlet_of(ctx.graph, component, pole, ctx.feeds())
         if inlet is not None and inlet != pole.common:
             yield ctx.finding(
                 (component, f"{component.ref}:{pole.common}-{pole.no}"),

@@ -70,3 +70,65 @@ def test_inlet_of_poles_in_the_plus_and_minus_lines(tmp_path: Path) -> None:
     # + line: the current comes from B+ at 2; - line: it leaves at 4 toward B-.
     assert inlet_of(analysis.graph, breaker, plus) == "2"
     assert inlet_of(analysis.graph, breaker, minus) == "3"
+
+
+def _inlet_by_whole_walk(graph, component, pole):  # type: ignore[no-untyped-def]
+    """The reference: a fresh walk of every conductor and contact per question."""
+    import networkx as nx
+
+    from netcheck.graph import CONDUCTOR, SUPPLY, SWITCH
+
+    a, b = component.net_of(pole.common), component.net_of(pole.no or "")
+    joined = nx.MultiGraph()
+    for branch in graph.branches:
+        if branch.component is not component and branch.role in (CONDUCTOR, SWITCH):
+            joined.add_edge(branch.a, branch.b)
+    supplies = [br for br in graph.branches if br.role == SUPPLY]
+    plus, minus = {s.a for s in supplies}, {s.b for s in supplies}
+
+    def reaches(net, targets):  # type: ignore[no-untyped-def]
+        if net in targets:
+            return True
+        return net in joined and bool(
+            nx.node_connected_component(joined, net) & targets
+        )
+
+    ap, bp, am, bm = (
+        reaches(a, plus),
+        reaches(b, plus),
+        reaches(a, minus),
+        reaches(b, minus),
+    )
+    if ap != bp and not (am or bm):
+        return pole.common if ap else pole.no
+    if am != bm and not (ap or bp):
+        return pole.no if am else pole.common
+    return None
+
+
+@pytest.mark.parametrize("seed", range(30))
+def test_inlet_of_equals_a_whole_walk_on_random_wiring(tmp_path, seed) -> None:  # type: ignore[no-untyped-def]
+    # Random fuses and contacts between a few nets: the one-edge shortcut
+    # (search the smaller side) must answer as a walk of everything does.
+    import random
+
+    from netcheck.analysis.fault import Feeds, inlet_of
+
+    rng = random.Random(seed)
+    nets = ["P", "M"] + [f"N{i}" for i in range(8)]
+    lines = ["supply G1 dc=24V earth=minus +:P -:M"]
+    for i in range(rng.randint(3, 9)):
+        x, y = rng.sample(nets, 2)
+        lines.append(f"fuse F{i} 1:{x} 2:{y}")
+    for i in range(rng.randint(0, 6)):
+        x, y = rng.sample(nets, 2)
+        lines.append(f"relay K{i} 13:{x} 14:{y}")
+    for net_name in nets[2:]:
+        lines.append(f"load E{net_name} type=heater R=10ohm 1:{net_name} 2:M")
+    _, analysis = net(tmp_path, "\n".join(lines) + "\n")
+    graph = analysis.graph
+    feeds = Feeds(graph)
+    for component in graph.netlist.components:
+        for pole in component.poles if component.kind == "fuse" else ():
+            expected = _inlet_by_whole_walk(graph, component, pole)
+            assert inlet_of(graph, component, pole, feeds) == expected, component.ref
