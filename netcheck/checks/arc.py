@@ -20,13 +20,12 @@ __all__ = ["arc_sustain_risk"]
 
 def _capacitor(ctx: CheckContext, element: ElementAnalysis) -> Component | None:
     """A capacitor or RC straight across the element, if any."""
-    by_ref = {c.ref: c for c in ctx.netlist.components}
     for suppressor in element.suppression:
         if suppressor.placement == "across-element" and suppressor.kind in (
             "rc",
             "capacitor",
         ):
-            part = by_ref.get(suppressor.refs[0])
+            part = ctx.component(suppressor.refs[0])
             if part is not None and part.value("C") is not None:
                 return part
     return None

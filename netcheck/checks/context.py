@@ -58,6 +58,13 @@ class CheckContext:
             if not kinds or component.kind in kinds:
                 yield component
 
+    def component(self, ref: str) -> Component | None:
+        """The component of a reference (one index per design), or None."""
+        index = self._memo(
+            "by-ref", lambda: {c.ref: c for c in self.netlist.components}
+        )
+        return index.get(ref)  # type: ignore[no-any-return]
+
     def domains(self) -> Iterator[Domain]:
         """Supply domains."""
         yield from self.graph.domains
