@@ -18,7 +18,6 @@ from typing import Any
 from netcheck.catalogue import RuleMeta
 from netcheck.coverage import ElementStatus
 from netcheck.error_records import ErrorRecord
-from netcheck.fixes.edits import edit_dict
 from netcheck.findings import (
     Finding,
     Severity,
@@ -265,21 +264,45 @@ def value_dicts(values: Mapping[str, Any]) -> dict[str, dict[str, Any]]:
     return out
 
 
-def fix_dict(finding: Finding, meta: RuleMeta | None) -> dict[str, Any] | None:
-    """Return the fix as ``{"text", "values"}`` (values its templates use) or None."""
+def fix_dict(
+    finding: Finding,
+    meta: RuleMeta | None,
+    entries: Mapping[str, dict[str, Any]] | None = None,
+) -> dict[str, Any] | None:
+    """Return the fix as ``{"text", "values"}`` (values its templates use) or None.
+
+    ``entries``: the finding's ``value_dicts`` where the caller has them (each
+    entry stands alone, so the fix's are the same dicts, not formatted twice).
+    """
     if finding.fix is None:
         return None
-    used: set[str] = set()
-    if meta is not None:
-        for template in meta.fixes.values():
-            used |= placeholders(template)
-    values = {k: v for k, v in finding.values.items() if k in used}
+    used = _fix_names(meta)
+    if entries is None:
+        values = value_dicts({k: v for k, v in finding.values.items() if k in used})
+    else:
+        values = {k: entries[k] for k in entries if k in used}
     return {
         "text": finding.fix,
-        "values": value_dicts(values),
+        "values": values,
         "edits": [edit_dict(edit) for edit in finding.edits],
         "verified": bool(finding.verified),
     }
+
+
+_FIX_NAMES: dict[tuple[str, tuple[str, ...]], frozenset[str]] = {}
+
+
+def _fix_names(meta: RuleMeta | None) -> frozenset[str]:
+    """The placeholders of a rule's fix templates, found once per rule."""
+    if meta is None:
+        return frozenset()
+    key = (meta.name, tuple(meta.fixes.values()))
+    if key not in _FIX_NAMES:
+        names: set[str] = set()
+        for template in meta.fixes.values():
+            names |= placeholders(template)
+        _FIX_NAMES[key] = frozenset(names)
+    return _FIX_NAMES[key]
 
 
 def fix_note(finding: Finding) -> str:
