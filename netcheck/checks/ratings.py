@@ -4,7 +4,9 @@ from __future__ import annotations
 
 from collections.abc import Iterator
 
+from netcheck.analysis.contact_loop import contact_time_constant
 from netcheck.analysis.ratings import Assessment
+from netcheck.analysis.ratings_tables import at_most, t95_of
 from netcheck.analysis.switched import ElementAnalysis
 from netcheck.analysis.verdicts import (
     arrangement_lead,
@@ -130,10 +132,14 @@ def time_constant_over_rating(ctx: CheckContext) -> Iterator[Finding]:
         if not verdict.time_constant_over or used is None or element.short_circuit:
             continue
         limit = used.tau_limit
+        # A load suppressed across itself keeps its inductance off the contact.
+        tau = contact_time_constant(element)
+        if tau is None or limit is None or at_most(tau.to("ms"), limit):
+            continue
         yield ctx.finding(
             element,
-            tau=element.time_constant,
-            t95=element.t95,
+            tau=tau,
+            t95=t95_of(tau),
             tau_limit=limit,
             t95_limit=used.t95_limit,
             rating=used.label,
