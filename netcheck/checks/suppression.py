@@ -31,12 +31,10 @@ def _clamp_case(ctx: CheckContext, element: ElementAnalysis) -> tuple[str, dict]
     needed = element.energy
     if model is not None and model.suppressor_energy.magnitude > 0:
         needed = model.suppressor_energy
+    values = {"clamp_energy": rating, "clamp_needed": needed}
     if rating is not None and needed is not None and rating >= needed:
-        return "ok", {}
-    return "output", {
-        "clamp_energy": rating,
-        "clamp_needed": needed,
-    }
+        return "ok", values
+    return "output", values
 
 
 # IEC 60947-4-1: DC-3 (shunt motors) and DC-5 (series motors) are tested
@@ -71,8 +69,6 @@ def inductive_load_unsuppressed(ctx: CheckContext) -> Iterator[Finding]:
         if not arrangement_lead(element) or _motor_pole_rated(ctx, element):
             continue
         case = _clamp_case(ctx, element)
-        if case is not None and case[0] == "ok":
-            continue
         # An inductive type with no L or tau given leaves the energy unknown;
         # then ``energy_known`` carries the part that is known, if any.
         known = [ld.energy for ld in loads if ld.energy is not None]
@@ -93,8 +89,10 @@ def inductive_load_unsuppressed(ctx: CheckContext) -> Iterator[Finding]:
         if case is None:
             yield ctx.finding(element, **values)
         else:
+            # A clamp big enough leaves the catalogue's warning; else an error.
+            severity = Severity.WARNING if case[0] == "ok" else Severity.ERROR
             yield ctx.finding(
-                element, message="output", severity=Severity.ERROR, **values, **case[1]
+                element, message="output", severity=severity, **values, **case[1]
             )
 
 
