@@ -17,6 +17,7 @@ __all__ = [
     "is_polarized",
     "series_poles_underrated",
     "series_poles_not_ganged",
+    "series_poles_assumed",
 ]
 
 
@@ -84,6 +85,24 @@ def series_poles_underrated(ctx: CheckContext) -> Iterator[Finding]:
             message="voltage" if over_voltage else "default",
             fix=fix,
             top=top,
+            poles_list=", ".join(element.series_elements),
+            **rating_values(element, verdict),
+        )
+
+
+@check("series-poles-assumed")
+def series_poles_assumed(ctx: CheckContext) -> Iterator[Finding]:
+    """Say where series poles pass only by the per-pole V/n assumption."""
+    for element in ctx.switching_elements(supply="dc"):
+        if element.series_poles < 2 or not arrangement_lead(element) or element.missing:
+            continue
+        verdict = ctx.verdict(element)
+        if verdict is None or not verdict.is_ok or not verdict.assumed_series:
+            continue
+        used = verdict.used
+        yield ctx.finding(
+            element,
+            pole_voltage=used.pole_voltage if used is not None else None,
             poles_list=", ".join(element.series_elements),
             **rating_values(element, verdict),
         )

@@ -82,6 +82,7 @@ WORDS: dict[str, str] = {
     "percent": "percentage",
     "poles": "number of poles",
     "poles_list": "poles",
+    "pole_voltage": "voltage per pole",
     "poles_needed": "number of poles needed",
     "positive": "positive side",
     "power": "dissipated power",
