@@ -11,6 +11,7 @@ __all__ = [
     "breaks_something",
     "arrangement_lead",
     "fits_device",
+    "device_poles",
     "rating_values",
 ]
 
@@ -45,18 +46,30 @@ def arrangement_lead(element: ElementAnalysis) -> bool:
     return not element.series_elements or element.name == element.series_elements[0]
 
 
-def fits_device(element: ElementAnalysis, poles_needed: int | None) -> bool:
-    """Whether the device has the poles a series-pole fix asks for.
+def device_poles(element: ElementAnalysis) -> int:
+    """How many poles the device is known to have.
 
-    Only a part that lists its poles says how many there are; without that list
-    the fix is offered as it is computed.
+    The part's pole list, else the largest ``series`` row (a row for n poles says
+    the device has n), else the poles the design itself wires; at least one.
     """
-    if not poles_needed:
-        return False
-    listed = (
-        element.component.part.data.get("poles") if element.component.part else None
+    component = element.component
+    listed = component.part.data.get("poles") if component.part else None
+    if listed:
+        return len(listed)
+    rows = component.value("contacts", "series", default=None) or []
+    rated = max(
+        (int(r.get("poles", 0)) for r in rows if isinstance(r, dict)), default=0
     )
-    return not listed or poles_needed <= len(listed)
+    return max(1, rated, len(component.poles))
+
+
+def fits_device(element: ElementAnalysis, poles_needed: int | None) -> bool:
+    """Whether the device is known to have the poles a series-pole fix asks for.
+
+    A device with one known pole (a protection relay's output contact rated in W
+    at L/R, a single-output device) is never told to wire poles it has not got.
+    """
+    return bool(poles_needed) and poles_needed <= device_poles(element)
 
 
 def rating_values(element: ElementAnalysis, verdict: Assessment) -> dict:
