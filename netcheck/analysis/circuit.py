@@ -14,8 +14,9 @@ import numpy as np
 __all__ = ["Resistor", "Diode", "Solution", "solve_dc", "R_ON", "G_MIN"]
 
 # A forward-biased diode is modelled as its forward drop in series with R_ON;
-# G_MIN from every node to the reference keeps floating nodes solvable (the
-# usual SPICE device for the same problem). Both are modelling assumptions.
+# G_MIN from every floating node (no conducting path to a fixed one) to the
+# reference keeps it solvable (the usual SPICE device for the same problem).
+# Both are modelling assumptions.
 R_ON = 1e-3
 G_MIN = 1e-12
 _MAX_ITERATIONS = 50
@@ -94,7 +95,9 @@ def _linear_solve(
 ) -> dict[str, float]:
     index = {n: i for i, n in enumerate(nodes)}
     size = len(nodes)
-    matrix = np.eye(size) * G_MIN
+    matrix = np.zeros((size, size))
+    for node in _floating(nodes, fixed, resistors, diodes, states):
+        matrix[index[node], index[node]] = G_MIN
     rhs = np.zeros(size)
     for r in resistors:
         _stamp(matrix, rhs, index, fixed, r.a, r.b, 1.0 / r.resistance, 0.0)
@@ -108,6 +111,39 @@ def _linear_solve(
     potentials = dict(fixed)
     potentials.update({n: float(values[i]) for n, i in index.items()})
     return potentials
+
+
+def _floating(
+    nodes: Sequence[str],
+    fixed: Mapping[str, float],
+    resistors: Sequence[Resistor],
+    diodes: Sequence[Diode],
+    states: Mapping[str, str],
+) -> set[str]:
+    """Nodes with no conducting path to a fixed node: only these get G_MIN.
+
+    A node tied to a rail through a resistor has a defined potential; a G_MIN
+    leak there would shift it by V·R·G_MIN (1 kV through 80 ohm read
+    999.99999992 V), so the leak goes only where it is needed.
+    """
+    links: dict[str, list[str]] = {n: [] for n in nodes}
+    conducting = [(r.a, r.b) for r in resistors] + [
+        (d.a, d.b)
+        for d in diodes
+        if states[d.key] == "forward"
+        or (states[d.key] == "reverse" and d.vz is not None)
+    ]
+    for a, b in conducting:
+        links.setdefault(a, []).append(b)
+        links.setdefault(b, []).append(a)
+    reached = {n for n in fixed if n in links}
+    todo = list(reached)
+    while todo:
+        for other in links[todo.pop()]:
+            if other not in reached:
+                reached.add(other)
+                todo.append(other)
+    return {n for n in nodes if n not in reached}
 
 
 def _solve(matrix: np.ndarray, rhs: np.ndarray) -> np.ndarray:
