@@ -156,12 +156,13 @@ def interpolate_curve(
     return Q_(pts[-1][1], "A")  # not reached: the segments cover (V_low, V_high]
 
 
-_REL = 1e-9  # equality at a rated point must not fail through float rounding
-
-
 def at_most(value: Quantity, limit: Quantity) -> bool:
-    """``value <= limit``, tolerant of rounding at the rated point itself."""
-    return bool(value <= limit * (1.0 + _REL))
+    """``value <= limit``, exactly: a rating holds for values not exceeding it.
+
+    At the rated value the rating holds; one ulp above it does not (tests pin
+    both sides, tests/analysis/test_rating_limits.py).
+    """
+    return bool(value <= limit)
 
 
 def _fmt(quantity: Quantity | None) -> str:
