@@ -25,6 +25,16 @@ from netcheck.model import Pole
             ["1", "2", "3", "4", "5", "6"],
             [Pole("1", no="2"), Pole("3", no="4"), Pole("5", no="6")],
         ),
+        (
+            ["1", "2", "3", "4", "5", "6", "7", "8"],
+            [
+                Pole("1", no="2"),
+                Pole("3", no="4"),
+                Pole("5", no="6"),
+                Pole("7", no="8"),
+            ],
+        ),  # main pole 7-8 (from memory)
+        (["7", "8"], [Pole("7", no="8")]),
         (["67", "68"], [Pole("67", no="68")]),  # special-function NO (from memory)
         (["55", "56"], [Pole("55", nc="56")]),  # special-function NC (from memory)
     ],
