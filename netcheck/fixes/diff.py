@@ -18,6 +18,7 @@ from netcheck.fixes.edits import (
     AddComponent,
     Edit,
     Reconnect,
+    Remove,
     SetValues,
     UsePart,
     statement_text,
@@ -27,6 +28,7 @@ from netcheck.model import Component, Netlist
 __all__ = ["FileEdit", "edited_texts", "unified_diff", "MARK"]
 
 MARK = "# added by netcheck fix"
+REMOVED = "# removed by netcheck fix:"
 _WORD = r"(?<![^\s]){key}=(?:\"(?:[^\"\\]|\\.)*\"|[^\s#\"]+)"
 
 
@@ -120,6 +122,13 @@ class _Editor:
         component = netlist.component(edit.ref)
         if component is None:
             raise KeyError(edit.ref)
+        if isinstance(edit, Remove):
+            # Commented out, not deleted: the designer sees what went and why.
+            target = self.file(component.span.file)
+            for index in _statement_lines(target.lines, component.span.line - 1):
+                line = self.current(target, index)
+                target.changed[index] = f"{REMOVED} {about}: {line.strip()}"
+            return
         if isinstance(edit, Reconnect):
             present = {c.terminal for c in component.connections}
             nets = {t: n for t, n in edit.connections if t in present}

@@ -24,6 +24,7 @@ __all__ = [
     "Reconnect",
     "UsePart",
     "SetValues",
+    "Remove",
     "Edit",
     "apply_edits",
     "statement_text",
@@ -80,7 +81,16 @@ class SetValues:
     action = "set-values"
 
 
-Edit = AddComponent | Reconnect | UsePart | SetValues
+@dataclass(frozen=True)
+class Remove:
+    """Take ``ref`` out of the design: a part that must go (a diode on AC)."""
+
+    ref: str
+
+    action = "remove"
+
+
+Edit = AddComponent | Reconnect | UsePart | SetValues | Remove
 
 
 def _word(text: str) -> str:
@@ -117,6 +127,8 @@ def statement_text(edit: Edit, netlist: Netlist) -> str:
     if component is None:
         raise KeyError(edit.ref)
     attributes, connections = _as_written(component)
+    if isinstance(edit, Remove):
+        return ""
     if isinstance(edit, Reconnect):
         nets = dict(edit.connections)
         present = {t for t, _ in connections}
@@ -140,6 +152,11 @@ def _build(text: str, netlist: Netlist) -> Component:
 
 
 def _apply_one(netlist: Netlist, edit: Edit) -> Netlist:
+    if isinstance(edit, Remove):
+        if netlist.component(edit.ref) is None:
+            raise KeyError(edit.ref)
+        kept = tuple(c for c in netlist.components if c.ref != edit.ref)
+        return replace(netlist, components=kept)
     built = _build(statement_text(edit, netlist), netlist)
     if isinstance(edit, AddComponent):
         if netlist.component(edit.ref) is not None:
@@ -193,4 +210,6 @@ def edit_dict(edit: Edit) -> dict[str, Any]:
             "ref": edit.ref,
             "attributes": dict(edit.attributes),
         }
+    if isinstance(edit, Remove):
+        return {"action": edit.action, "ref": edit.ref}
     return {"action": edit.action, "ref": edit.ref, "part": edit.part}

@@ -19,6 +19,7 @@ from netcheck.analysis.result import Analysis
 from netcheck.catalogue import all_margins, load_catalogue
 from netcheck.findings import Finding
 from netcheck.fixes.edits import AddComponent, Edit, Reconnect, SetValues, UsePart
+from netcheck.fixes.propose_more import more_candidates
 from netcheck.model import Component, Netlist
 from netcheck.units import Q_
 
@@ -112,6 +113,7 @@ class Proposer:
             yield from self._more_poles(finding)
         if finding.rule in _PART_RULES:
             yield from self._other_parts(finding)
+        yield from more_candidates(self, finding)
 
     # -- suppression across the loads ------------------------------------
     def _suppress(self, finding: Finding) -> Iterator[list[Edit]]:

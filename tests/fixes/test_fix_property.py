@@ -94,5 +94,8 @@ def test_share_of_verified_fixes_is_measured() -> None:
     # 68 of 118 when this test was written (every finding with a fix text,
     # advice-only rules included); a drop means a proposer regressed.
     # 87 of 163 after the making, protection and arc rules landed: their fixes
-    # are advice without machine edits yet, so the floor is 0.5.
-    assert verified / total >= 0.5
+    # are advice without machine edits yet, so the floor was 0.5.
+    # 105 of 177 (0.59) once a diode on AC is removed (Remove edit) and a part
+    # missing data or resting on the V/n assumption may use a library part that
+    # has them (fixes/propose_more.py).
+    assert verified / total >= 0.58
