@@ -98,6 +98,7 @@ def _verdict_key(element: ElementAnalysis) -> tuple:
         element.supply,
         bool(element.loads),
         element.load_category,
+        tuple(sorted({ld.category for ld in element.loads})),
         element.series_poles,
         _magnitude(element.voltage, "V"),
         _magnitude(element.current, "A"),

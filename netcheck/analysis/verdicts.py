@@ -22,14 +22,28 @@ def element_rating(element: ElementAnalysis) -> Assessment | None:
         return None
     if not element.loads or element.voltage is None or element.load_category is None:
         return None
-    return assess_breaking(
-        element.component.value("contacts"),
-        voltage=element.voltage,
-        current=element.current,
-        needed=element.load_category,
-        time_constant=element.time_constant,
-        poles=max(1, element.series_poles),
-    )
+
+    def judged(needed: str) -> Assessment:
+        return assess_breaking(
+            element.component.value("contacts"),
+            voltage=element.voltage,  # type: ignore[arg-type]
+            current=element.current,
+            needed=needed,
+            time_constant=element.time_constant,
+            poles=max(1, element.series_poles),
+        )
+
+    verdict = judged(element.load_category)
+    # Categories of several loads need not nest (DC-14 does not cover DC-13, nor
+    # DC-13 DC-14): the rating must cover each, so the first one it does not
+    # cover is the verdict (its ``needed`` names that load's category).
+    for other in sorted({ld.category for ld in element.loads} - {verdict.needed}):
+        if verdict.category_mismatch or verdict.status in ("ac-only", "no-data"):
+            break
+        alternative = judged(other)
+        if alternative.category_mismatch:
+            return alternative
+    return verdict
 
 
 def breaks_something(element: ElementAnalysis) -> bool:

@@ -118,7 +118,7 @@ def category_mismatch(ctx: CheckContext) -> Iterator[Finding]:
             yield ctx.finding(
                 element,
                 fix="default" if element.inductive_loads else "not-inductive",
-                category=element.load_category,
+                category=verdict.needed,
                 rated=rated,
                 rating=verdict.used.label if verdict.used else None,
             )
