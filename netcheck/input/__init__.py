@@ -13,7 +13,7 @@ from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 from pathlib import Path
 
-from netcheck.alloc import collector_paused
+from netcheck.alloc import collector_paused, release_frozen
 from netcheck.input import cnet
 from netcheck.model import Netlist
 
@@ -69,6 +69,7 @@ def load_design(
     (a design named on the command line may be called anything).
     """
     reader = _reader(path) or READERS[".cnet"]
+    release_frozen()  # the previous design's objects (alloc.py)
     with collector_paused():
         return reader.load(path, extra_parts, allow_outside, display_base)
 
