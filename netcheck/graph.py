@@ -43,6 +43,23 @@ class Branch:
     b: str
     element: SwitchingElement | None = None
 
+    def __init__(
+        self,
+        component: Component,
+        role: str,
+        a: str,
+        b: str,
+        element: SwitchingElement | None = None,
+    ) -> None:
+        # The frozen dataclass's __init__, without its five object.__setattr__
+        # calls (one branch per conducting path of a large design).
+        fields = self.__dict__
+        fields["component"] = component
+        fields["role"] = role
+        fields["a"] = a
+        fields["b"] = b
+        fields["element"] = element
+
     @property
     def ref(self) -> str:
         """The component's reference."""
@@ -145,10 +162,8 @@ def _build_graph(netlist: Netlist) -> Graph:
             connections.setdefault(connection.net, []).append(
                 (component, connection.terminal)
             )
-    graph = nx.MultiGraph()
-    graph.add_nodes_from(connections)
     branches = [b for c in netlist.components for b in _component_branches(c)]
-    graph.add_edges_from((b.a, b.b, b.key, {ROLE: b.role, BRANCH: b}) for b in branches)
+    graph = net_graph(connections, branches)
     domains, domain_of = [], {}
     supplies_at: dict[str, list[Component]] = {}
     for branch in branches:
@@ -167,6 +182,33 @@ def _build_graph(netlist: Netlist) -> Graph:
         domain_of[branch.a].branches.append(branch)
     domains.sort(key=lambda d: (d.name, min(d.nets)))
     return Graph(netlist, graph, branches, domains, domain_of, connections)
+
+
+def net_graph(nets: Iterable[str], branches: Iterable[Branch]) -> nx.MultiGraph:
+    """The multigraph of ``nets`` with one edge per branch, keyed by ``Branch.key``.
+
+    The same graph as ``add_nodes_from(nets)`` then ``add_edges_from((a, b, key,
+    {ROLE: role, BRANCH: branch}))`` (``tests/test_graph_build.py`` compares
+    them: nodes, adjacency order, keys and data), written straight into the
+    graph's adjacency dicts: networkx's per-edge checks and views were three
+    quarters of the graph stage on a large design.
+    """
+    graph = nx.MultiGraph()
+    graph.add_nodes_from(nets)
+    adjacency = graph._adj
+    for branch in branches:
+        a, b = branch.a, branch.b
+        if a not in adjacency or b not in adjacency:
+            graph.add_node(a)  # a branch's nets are connection nets: never here
+            graph.add_node(b)
+        keys = adjacency[a].get(b)
+        if keys is None:
+            keys = adjacency[a][b] = {}
+            adjacency[b][a] = keys
+        data = keys.setdefault(branch.key, {})
+        data[ROLE] = branch.role
+        data[BRANCH] = branch
+    return graph
 
 
 def _joined_nets(nets: Iterable[str], branches: list[Branch]) -> list[list[str]]:

@@ -1,0 +1,72 @@
+"""``graph.net_graph`` builds the very graph networkx's own calls build.
+
+``net_graph`` writes the multigraph's adjacency dicts directly for speed; these
+tests build the same graph through networkx's public ``add_nodes_from`` and
+``add_edges_from`` and compare nodes, adjacency order, edge keys and data, and
+the sharing of each edge's key dict between its two ends.
+"""
+
+from __future__ import annotations
+
+import sys
+from pathlib import Path
+
+import networkx as nx
+import pytest
+
+from netcheck.graph import BRANCH, ROLE, build_graph
+from netcheck.input import load_design, read_design_text
+
+ROOT = Path(__file__).resolve().parent.parent
+sys.path.insert(0, str(ROOT / "bench"))
+import gen_design  # noqa: E402
+
+SAMPLES = sorted(p / f"{p.name}.cnet" for p in (ROOT / "sample_nets").iterdir())
+
+
+def _public(nets, branches) -> nx.MultiGraph:
+    graph = nx.MultiGraph()
+    graph.add_nodes_from(nets)
+    graph.add_edges_from((b.a, b.b, b.key, {ROLE: b.role, BRANCH: b}) for b in branches)
+    return graph
+
+
+def _same(built: nx.MultiGraph, public: nx.MultiGraph) -> None:
+    assert list(built.nodes(data=True)) == list(public.nodes(data=True))
+    assert list(built.edges(keys=True, data=True)) == list(
+        public.edges(keys=True, data=True)
+    )
+    for node in public:
+        assert list(built.adj[node]) == list(public.adj[node])
+        for other, keys in public.adj[node].items():
+            assert list(built.adj[node][other].items()) == list(keys.items())
+            assert built._adj[node][other] is built._adj[other][node]
+    assert built.number_of_edges() == public.number_of_edges()
+
+
+@pytest.mark.parametrize("path", SAMPLES, ids=lambda p: p.parent.name)
+def test_samples_build_the_public_graph(path):
+    graph = build_graph(load_design(path))
+    _same(graph.graph, _public(graph.connections, graph.branches))
+
+
+@pytest.mark.parametrize("shape", ["mixed", "series", "parallel", "plc"])
+def test_generated_designs_build_the_public_graph(tmp_path, shape):
+    gen_design.generate(400, tmp_path, shape=shape)
+    graph = build_graph(load_design(tmp_path / "design.cnet"))
+    assert len(graph.branches) > 100
+    _same(graph.graph, _public(graph.connections, graph.branches))
+
+
+def test_self_loops_parallel_edges_and_a_repeated_key():
+    # A two-pole fuse has one key (its reference) for both poles: on the same
+    # pair of nets networkx keeps one edge and updates its data, so must we.
+    netlist = read_design_text(
+        "supply G1 dc=24V +:P -:M\n"
+        "fuse F1 1:P 2:Q 3:P 4:Q\n"
+        "load H1 1:Q 2:M\nload H2 1:Q 2:M\nload H3 1:Q 2:Q\n"
+    )
+    graph = build_graph(netlist)
+    _same(graph.graph, _public(graph.connections, graph.branches))
+    assert graph.graph.number_of_edges("P", "Q") == 1
+    assert graph.graph.number_of_edges("Q", "Q") == 1
