@@ -1,6 +1,14 @@
 """The design model: frozen objects built from the netlist and the part libraries.
 
 Every object built from text carries the ``span`` of the text it came from.
+
+The classes made once per token of a design (``Attribute``, ``Connection``,
+``SwitchingElement``, ``Component``) have their own ``__init__`` that writes the
+fields into the instance's ``__dict__``: a frozen dataclass's generated one
+calls ``object.__setattr__`` once a field, which was a fifth of a large
+design's build. The objects are the same frozen dataclasses (fields, equality,
+hash, repr, ``dataclasses.replace``); ``tests/test_model_init.py`` holds each
+equal to what the generated ``__init__`` makes.
 """
 
 from __future__ import annotations
@@ -24,6 +32,11 @@ __all__ = [
 ]
 
 
+# The default of ``Component.values``: a new dict each time, as the dataclass's
+# ``default_factory=dict`` gives.
+_NEW_DICT: Any = object()
+
+
 @dataclass(frozen=True)
 class Attribute:
     """One ``key=value`` as written; ``value`` is parsed (quantity, str, bool, list)."""
@@ -33,6 +46,13 @@ class Attribute:
     text: str
     span: Span
 
+    def __init__(self, key: str, value: Any, text: str, span: Span) -> None:
+        fields = self.__dict__
+        fields["key"] = key
+        fields["value"] = value
+        fields["text"] = text
+        fields["span"] = span
+
 
 @dataclass(frozen=True)
 class Connection:
@@ -41,6 +61,12 @@ class Connection:
     terminal: str
     net: str
     span: Span
+
+    def __init__(self, terminal: str, net: str, span: Span) -> None:
+        fields = self.__dict__
+        fields["terminal"] = terminal
+        fields["net"] = net
+        fields["span"] = span
 
 
 @dataclass(frozen=True)
@@ -77,6 +103,14 @@ class SwitchingElement:
     form: str  # "no", "nc", or "output"
     span: Span
 
+    def __init__(self, device: str, a: str, b: str, form: str, span: Span) -> None:
+        fields = self.__dict__
+        fields["device"] = device
+        fields["a"] = a
+        fields["b"] = b
+        fields["form"] = form
+        fields["span"] = span
+
     @property
     def name(self) -> str:
         """The element's name, ``K1:13-14``.
@@ -108,6 +142,31 @@ class Component:
     tags: frozenset[str] = frozenset()
     poles: tuple[Pole, ...] = ()
     elements: tuple[SwitchingElement, ...] = ()
+
+    def __init__(
+        self,
+        kind: str,
+        ref: str,
+        span: Span,
+        connections: tuple[Connection, ...],
+        attributes: tuple[Attribute, ...] = (),
+        part: Part | None = None,
+        values: Mapping[str, Any] = _NEW_DICT,
+        tags: frozenset[str] = frozenset(),
+        poles: tuple[Pole, ...] = (),
+        elements: tuple[SwitchingElement, ...] = (),
+    ) -> None:
+        fields = self.__dict__
+        fields["kind"] = kind
+        fields["ref"] = ref
+        fields["span"] = span
+        fields["connections"] = connections
+        fields["attributes"] = attributes
+        fields["part"] = part
+        fields["values"] = {} if values is _NEW_DICT else values
+        fields["tags"] = tags
+        fields["poles"] = poles
+        fields["elements"] = elements
 
     def net_of(self, terminal: str) -> str | None:
         """Return the net on ``terminal``, or None if unconnected."""

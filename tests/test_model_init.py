@@ -1,0 +1,84 @@
+"""The model's hand-written ``__init__``s make what the dataclass's own would.
+
+``model.py`` gives the classes built once per token their own ``__init__`` for
+speed; here each is compared with the ``__init__`` that ``dataclasses`` generates
+for the same fields: positional and keyword calls, defaults, equality, hash,
+repr, immutability and ``dataclasses.replace``.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+
+import pytest
+
+from netcheck.graph import Branch
+from netcheck.model import Attribute, Component, Connection, Pole, SwitchingElement
+from netcheck.source import Span
+
+SPAN = Span("a.cnet", 3, 5, 3, 9)
+
+
+def _generated(cls: type) -> type:
+    """The same fields as ``cls``, with the ``__init__`` dataclasses writes."""
+    fields = [
+        (
+            f.name,
+            f.type,
+            dataclasses.field(default=f.default, default_factory=f.default_factory),
+        )
+        for f in dataclasses.fields(cls)
+    ]
+    return dataclasses.make_dataclass(
+        cls.__name__,
+        fields,
+        frozen=True,
+    )
+
+
+CONNECTION = Connection("13", "W1", SPAN)
+ELEMENT = SwitchingElement("K1", "13", "14", "no", SPAN)
+CASES = [
+    (Attribute, ("part", "relay-24v", "relay-24v", SPAN), {}),
+    (Connection, ("13", "W1", SPAN), {}),
+    (SwitchingElement, ("K1", "13", "14", "no", SPAN), {}),
+    (Component, ("relay", "K1", SPAN, (CONNECTION,)), {}),
+    (
+        Component,
+        ("relay", "K1", SPAN, (CONNECTION,)),
+        {
+            "attributes": (Attribute("part", "p", "p", SPAN),),
+            "values": {"part": "p"},
+            "tags": frozenset({"x"}),
+            "poles": (Pole("13", "14"),),
+            "elements": (ELEMENT,),
+        },
+    ),
+    (Branch, (None, "switch", "P1", "W1", ELEMENT), {}),
+    (Branch, (None, "load", "P1", "W1"), {}),
+]
+
+
+@pytest.mark.parametrize(("cls", "args", "kwargs"), CASES)
+def test_init_matches_the_generated_one(cls, args, kwargs):
+    ours = cls(*args, **kwargs)
+    names = [f.name for f in dataclasses.fields(cls)]
+    theirs = _generated(cls)(*args, **kwargs)
+    assert [getattr(ours, n) for n in names] == [getattr(theirs, n) for n in names]
+    by_name = cls(**dict(zip(names, args, strict=False)), **kwargs)
+    assert by_name == ours
+    if cls is not Component:  # a component holds a dict: unhashable, as before
+        assert hash(by_name) == hash(ours) == hash(theirs)
+    assert repr(ours) == repr(theirs).replace(
+        theirs.__class__.__qualname__, cls.__qualname__, 1
+    )
+    with pytest.raises(dataclasses.FrozenInstanceError):
+        setattr(ours, names[0], "changed")
+    changed = dataclasses.replace(ours, **{names[1]: "other"})
+    assert getattr(changed, names[1]) == "other" and changed != ours
+
+
+def test_a_components_default_values_are_a_new_dict_each_time():
+    first = Component("load", "H1", SPAN, ())
+    second = Component("load", "H2", SPAN, ())
+    assert first.values == {} and first.values is not second.values
