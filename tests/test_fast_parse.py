@@ -188,3 +188,71 @@ def _well_formed(draw) -> str:
 @given(_well_formed())
 def test_the_fast_reader_takes_generated_well_formed_text(text):
     assert _agree(text)
+
+
+# A statement the line reader is not sure of goes alone to the grammar; the rest
+# of the file stays with the line reader. The odd statements here are valid
+# (keywords used as names, a value the line reader leaves alone), in the
+# middle of well-formed ones, over continuation and comment lines.
+_ODD = [
+    "relay title 13:a 14:b",
+    "relay K9 part=include\n  A1:x  A2:y",
+    "load H9\n  # note\n\n  waive:n 2:m",
+    "load H8 v=24V\tinclude:q",
+]
+
+
+def _recording_grammar(calls: list):
+    from netcheck.input.cnet.parse import _grammar_statements
+
+    def grammar(text: str, lines: int):
+        calls.append((text, lines))
+        return _grammar_statements(text, lines, "t.cnet")
+
+    return grammar
+
+
+@pytest.mark.parametrize("odd", _ODD)
+def test_only_the_odd_statement_goes_to_the_grammar(odd):
+    text = f"# top\nload H1 1:a 2:b\n\n{odd}\n# c\nload H2\n  1:a 2:b\n"
+    calls: list = []
+    statements = fast_statements(text, "t.cnet", _recording_grammar(calls))
+    assert statements is not None
+    assert tuple(statements) == _grammar(text, "t.cnet")
+    assert calls == [(odd, 3)]  # its own lines, after the file's first three
+    assert fast_statements(text, "t.cnet") is None  # without a grammar: give up
+    _agree(text)
+
+
+def test_an_error_in_an_odd_statement_is_worded_for_the_whole_file():
+    # The grammar finds an error in the statement handed to it: the whole file
+    # is then read by the grammar, every error worded and placed as before.
+    text = "load H1 1:a 2:b\nrelay title 13 :a\nload H2 1:a 2 :b\n"
+    calls: list = []
+    assert fast_statements(text, "t.cnet", _recording_grammar(calls)) is None
+    assert len(calls) == 1
+    errors = _reader(text, "t.cnet")
+    assert errors == _grammar(text, "t.cnet")
+    assert [span.line for _message, span in errors] == [2, 3]
+
+
+@st.composite
+def _mixed(draw) -> str:
+    """Well-formed statements with odd ones (valid or not) among them."""
+    pieces = draw(st.lists(st.sampled_from(["good", "odd", "bad"]), min_size=1))
+    lines = []
+    for number, piece in enumerate(pieces):
+        if piece == "good":
+            lines.append(f"load H{number} 1:N{number} 2:M")
+        elif piece == "odd":
+            lines.append(draw(st.sampled_from(_ODD)).replace("9", str(number)))
+        else:
+            lines.append(draw(_documents()))
+        lines.append(draw(st.sampled_from(["", "# c", "  # c"])))
+    return draw(st.sampled_from(["\n", "\r\n"])).join(lines)
+
+
+@settings(max_examples=100, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(_mixed())
+def test_mixed_text_reads_the_same(text):
+    _agree(text)

@@ -4,19 +4,22 @@ Almost every file of a design is well formed and made of a few statement shapes
 (``kind ref key=value ... terminal:net ...``, ``title``/``parts``/``include``
 with a string, ``waive``). Lexing them token by token through lark costs
 several microseconds a token; this reads each line with one regular
-expression instead. It reads only text it is sure of: anything else (a syntax
-error, a space around ``=`` or ``:``, a keyword used as a name, a form feed, a
-stray carriage return, an indented first line) makes it give up and return
-None, and ``parse.parse_text`` then reads the file with the lark parser, which
-finds and words every error. So the grammar stays the one definition of the
-language; ``tests/input/test_fast_parse.py`` checks over every ``.cnet`` file
-in the repository and a generated corpus that both readers give the same
-statements, spans included.
+expression instead. It reads only what it is sure of: a statement with
+anything else (a syntax error, a space around ``=`` or ``:``, a keyword used as
+a name) is handed alone to the grammar, its lines and positions kept; if the
+grammar finds an error there, or the file's lines themselves are unusual (a
+form feed, a stray carriage return, an indented first line), it gives up and
+returns None, and ``parse.parse_text`` reads the whole file with the lark
+parser, which finds and words every error. So the grammar stays the one
+definition of the language; ``tests/test_fast_parse.py`` checks over every
+``.cnet`` file in the repository and a generated corpus that both readers give
+the same statements, spans included, and the same errors.
 """
 
 from __future__ import annotations
 
 import re
+from collections.abc import Callable
 
 from netcheck.input.cnet.statements import (
     ComponentStatement,
@@ -39,9 +42,11 @@ KEYWORDS = frozenset({"title", "parts", "include", "waive"})
 
 # One token of a line, after optional blanks: key=value, terminal:net, a bare
 # name, or a string. Each must end at a blank, a comment or the line's end;
-# anything else is left to the grammar.
+# anything else is left to the grammar. The last group that matched tells the
+# shape (``match.lastindex``): 2 a quoted value, 3 a value, 5 a net, 6 a name,
+# 7 a string.
 _TOKEN = re.compile(
-    rf"[ \t]*("
+    rf"[ \t]*(?:"
     rf"({_NAME})=(?:({_STRING})|({_VALUE}))"
     rf"|({_NAME}):({_NAME})"
     rf"|({_NAME})"
@@ -56,54 +61,86 @@ _BLANK = _REST
 # net), NAME and STRING (one text). Tokens never span lines.
 ITEM, QUOTED, LINK, NAME, STRING = range(5)
 Token = tuple[int, str, str, int, int, int]
+# match.lastindex -> (shape, group of the token's start, first, second text).
+_SHAPES = {
+    2: (QUOTED, 1, 1, 2),
+    3: (ITEM, 1, 1, 3),
+    5: (LINK, 4, 4, 5),
+    6: (NAME, 6, 6, 0),
+    7: (STRING, 7, 7, 0),
+}
 
 
 class _GiveUp(Exception):
     """The text is not certainly well formed: leave it to the grammar."""
 
 
-def _line_tokens(line: str, number: int) -> list[Token]:
-    tokens: list[Token] = []
+def _line_tokens(line: str, number: int, tokens: list[Token]) -> None:
+    """Append the tokens of ``line`` to ``tokens``; raise _GiveUp if unsure."""
     at = 0
+    shapes = _SHAPES
     for match in _TOKEN.finditer(line):
         if match.start() != at:
             break  # something no token explains: only a comment may follow
         at = match.end()
-        key, quoted, value, terminal, net, name, string = match.groups()[1:]
-        start = match.start(1) + 1
-        if key is not None:
-            if quoted is not None:
-                tokens.append((QUOTED, key, quoted, number, start, at + 1))
-            else:
-                tokens.append((ITEM, key, value, number, start, at + 1))
-        elif terminal is not None:
-            tokens.append((LINK, terminal, net, number, start, at + 1))
-        elif name is not None:
-            tokens.append((NAME, name, "", number, start, at + 1))
-        else:
-            tokens.append((STRING, string, "", number, start, at + 1))
+        shape, begin, first, second = shapes[match.lastindex]  # type: ignore[index]
+        tokens.append(
+            (
+                shape,
+                match[first],
+                match[second] if second else "",
+                number,
+                match.start(begin) + 1,
+                at + 1,
+            )
+        )
     if not _REST.match(line, at):
         raise _GiveUp
-    return tokens
 
 
-def _statements_tokens(text: str) -> list[list[Token]]:
-    """The tokens of each statement, continuation lines joined."""
-    statements: list[list[Token]] = []
-    for number, line in enumerate(text.split("\n"), start=1):
+class _Statement:
+    """The lines of one statement (first and last line numbers) and its tokens.
+
+    ``tokens`` is None once a line of it is not certainly well formed.
+    """
+
+    __slots__ = ("first", "last", "tokens")
+
+    def __init__(self, first: int) -> None:
+        self.first = self.last = first
+        self.tokens: list[Token] | None = []
+
+    def add(self, line: str, number: int) -> None:
+        self.last = number
+        if self.tokens is not None:
+            try:
+                _line_tokens(line, number, self.tokens)
+            except _GiveUp:
+                self.tokens = None
+
+
+def _statements_lines(lines: list[str]) -> list[_Statement]:
+    """The statements of a file's lines, continuation lines joined.
+
+    A line that starts with a blank continues the statement above; blank and
+    comment-only lines belong to none (the grammar's own rules, cnet.lark).
+    """
+    statements: list[_Statement] = []
+    current: _Statement | None = None
+    for number, line in enumerate(lines, start=1):
         if line.endswith("\r"):
             line = line[:-1]
         if "\r" in line or "\f" in line:
-            raise _GiveUp
+            raise _GiveUp  # how the grammar breaks such a line is its business
         if _BLANK.match(line):
             continue
-        tokens = _line_tokens(line, number)
         if line[0] in " \t":
-            if not statements:
+            if current is None:
                 raise _GiveUp  # an indented first statement: the grammar words it
-            statements[-1].extend(tokens)
         else:
-            statements.append(tokens)
+            current = _Statement(number)
+            statements.append(current)
+        current.add(line, number)
     return statements
 
 
@@ -204,16 +241,52 @@ def _keyword_statement(
     )
 
 
-def fast_statements(text: str, file: str) -> list[Statement] | None:
-    """The statements of ``text`` if it is certainly well formed, else None."""
+# Parses the text of some lines of a file (a statement the line reader is not
+# sure of) with the grammar: (text, lines before it) -> its statements with
+# their spans in the file, or None if the grammar finds any error there.
+Grammar = Callable[[str, int], "list[Statement] | None"]
+
+
+def fast_statements(
+    text: str, file: str, grammar: Grammar | None = None
+) -> list[Statement] | None:
+    """The statements of ``text`` if it is certainly well formed, else None.
+
+    With ``grammar``, a statement the line reader is not sure of is handed to
+    it alone (its lines, positions kept); None only if the grammar finds an
+    error in one, or the file's line structure itself is unusual (a form
+    feed, a stray carriage return, an indented first line). The caller then
+    reads the whole file with the grammar, so every error and caret is the
+    grammar's, as if the line reader did not exist.
+    """
     try:
+        lines = text.split("\n")
         out: list[Statement] = []
-        for tokens in _statements_tokens(text):
-            first = tokens[0]
-            if first[0] == NAME and first[1] in KEYWORDS:
-                out.append(_keyword_statement(file, tokens))
-            else:
-                out.append(_component(file, tokens))
+        for statement in _statements_lines(lines):
+            read = _statement(file, statement.tokens)
+            if read is not None:
+                out.append(read)
+                continue
+            if grammar is None:
+                return None
+            chunk = "\n".join(lines[statement.first - 1 : statement.last])
+            parsed = grammar(chunk, statement.first - 1)
+            if parsed is None:
+                return None
+            out.extend(parsed)
         return out
+    except _GiveUp:
+        return None
+
+
+def _statement(file: str, tokens: list[Token] | None) -> Statement | None:
+    """One statement from its tokens, or None if the line reader is unsure."""
+    if tokens is None:
+        return None
+    try:
+        first = tokens[0]
+        if first[0] == NAME and first[1] in KEYWORDS:
+            return _keyword_statement(file, tokens)
+        return _component(file, tokens)
     except _GiveUp:
         return None

@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 import re
-from functools import lru_cache
+from functools import lru_cache, partial
 
 from lark import Lark, Token, Transformer, Tree, UnexpectedInput, v_args
 from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedToken
@@ -53,20 +53,27 @@ def parser() -> Lark:
     )
 
 
-def _span(file: str, token: Token | Tree) -> Span:
+def _span(file: str, token: Token | Tree, lines: int = 0) -> Span:
+    """The span of a token or tree; ``lines`` before the text that was parsed."""
     meta = token if isinstance(token, Token) else token.meta
-    return Span(file, meta.line, meta.column, meta.end_line, meta.end_column)
+    return Span(
+        file, meta.line + lines, meta.column, meta.end_line + lines, meta.end_column
+    )
 
 
 class _ToStatements(Transformer):
-    def __init__(self, file: str) -> None:
+    def __init__(self, file: str, lines: int = 0) -> None:
         super().__init__()
         self.file = file
+        self.lines = lines  # of the file before the text parsed
         self.errors: list[InputError] = []
+
+    def _span(self, token: Token | Tree) -> Span:
+        return _span(self.file, token, self.lines)
 
     def _file_statement(self, keyword: str, meta: Tree, string: Token) -> FileStatement:
         return FileStatement(
-            keyword, unquote(string), _span(self.file, meta), _span(self.file, string)
+            keyword, unquote(string), self._span(meta), self._span(string)
         )
 
     @v_args(tree=True)
@@ -84,7 +91,7 @@ class _ToStatements(Transformer):
     @v_args(tree=True)
     def target(self, tree: Tree) -> tuple[str, Span]:
         text = ":".join(str(child) for child in tree.children)
-        return text, _span(self.file, tree)
+        return text, self._span(tree)
 
     @v_args(tree=True)
     def waive(self, tree: Tree) -> WaiveStatement:
@@ -93,19 +100,19 @@ class _ToStatements(Transformer):
             str(rule),
             target,
             unquote(reason),
-            _span(self.file, tree),
+            self._span(tree),
             target_span,
-            _span(self.file, reason),
+            self._span(reason),
         )
 
     def _value_of(self, tree: Tree) -> tuple[str, bool, Span]:
         token = tree.children[0]
         quoted = token.type == "STRING"
         text = unquote(token) if quoted else str(token)
-        return text, quoted, _span(self.file, token)
+        return text, quoted, self._span(token)
 
     def _joined(self, tree: Tree, first: Token, last: Token, sign: str) -> Span:
-        span = _span(self.file, tree)
+        span = self._span(tree)
         if (first.end_line, first.end_column) != (last.line, last.column - 1):
             self.errors.append(
                 SyntaxInputError(
@@ -135,9 +142,9 @@ class _ToStatements(Transformer):
             ref=str(ref),
             attributes=tuple(i for i in items if isinstance(i, RawAttribute)),
             connections=tuple(i for i in items if isinstance(i, tuple)),
-            span=_span(self.file, tree),
-            kind_span=_span(self.file, kind),
-            ref_span=_span(self.file, ref),
+            span=self._span(tree),
+            kind_span=self._span(kind),
+            ref_span=self._span(ref),
         )
 
     def start(self, children: list) -> list:
@@ -288,10 +295,26 @@ def _syntax_errors(text: str, file: str) -> tuple[Tree | None, list[InputError]]
 def parse_text(text: str, file: str) -> SourceFile:
     """Parse one file's text; raise InputErrors with every syntax error found."""
     register_text(file, text)
-    fast = fast_statements(text, file)
+    fast = fast_statements(text, file, partial(_grammar_statements, file=file))
     if fast is not None:
         return SourceFile(file, tuple(fast))
     return parse_with_grammar(text, file)
+
+
+def _grammar_statements(text: str, lines: int, file: str) -> list | None:
+    """The statements of some lines of ``file`` by the grammar, or None on an error.
+
+    ``text`` is the lines after the file's first ``lines``; the spans are the
+    file's. On an error the whole file is read again by ``parse_with_grammar``,
+    so that the errors are worded and placed exactly as for any other file.
+    """
+    try:
+        tree = parser().parse(text)
+    except UnexpectedInput:
+        return None
+    transformer = _ToStatements(file, lines)
+    statements = transformer.transform(tree)
+    return None if transformer.errors else statements
 
 
 def parse_with_grammar(text: str, file: str) -> SourceFile:
