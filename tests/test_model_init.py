@@ -1,9 +1,10 @@
-"""The model's hand-written ``__init__``s make what the dataclass's own would.
+"""The hand-written ``__init__``s make what the dataclass's own would.
 
-``model.py`` gives the classes built once per token their own ``__init__`` for
-speed; here each is compared with the ``__init__`` that ``dataclasses`` generates
-for the same fields: positional and keyword calls, defaults, equality, hash,
-repr, immutability and ``dataclasses.replace``.
+``model.py``, ``graph.py`` and ``input/cnet/statements.py`` give the classes
+built once per token their own ``__init__`` for speed; here each is compared
+with the ``__init__`` that ``dataclasses`` generates for the same fields:
+positional and keyword calls, defaults, equality, hash, repr, immutability and
+``dataclasses.replace``.
 """
 
 from __future__ import annotations
@@ -13,6 +14,7 @@ import dataclasses
 import pytest
 
 from netcheck.graph import Branch
+from netcheck.input.cnet.statements import ComponentStatement, RawAttribute
 from netcheck.model import Attribute, Component, Connection, Pole, SwitchingElement
 from netcheck.source import Span
 
@@ -56,6 +58,12 @@ CASES = [
     ),
     (Branch, (None, "switch", "P1", "W1", ELEMENT), {}),
     (Branch, (None, "load", "P1", "W1"), {}),
+    (RawAttribute, ("v", "24V", False, SPAN, SPAN), {}),
+    (
+        ComponentStatement,
+        ("relay", "K1", (RawAttribute("v", "24", False, SPAN, SPAN),), (), SPAN),
+        {"kind_span": SPAN, "ref_span": SPAN},
+    ),
 ]
 
 

@@ -179,17 +179,21 @@ def _items(
 ) -> tuple[list[RawAttribute], list[tuple[str, str, Span]]]:
     attributes: list[RawAttribute] = []
     connections: list[tuple[str, str, Span]] = []
+    keywords = KEYWORDS  # how the grammar lexes a keyword there is its business
     for shape, first, second, line, column, end in tokens:
+        if first in keywords:
+            raise _GiveUp
         span = _new_span(file, line, column, line, end)
         if shape == LINK:
-            _check_names(first, second)
+            if second in keywords:
+                raise _GiveUp
             connections.append((first, second, span))
             continue
         if shape == ITEM:
-            _check_names(first, second)
+            if second in keywords:
+                raise _GiveUp
             text, quoted = second, False
         elif shape == QUOTED:
-            _check_names(first)
             text, quoted = unquote(second), True
         else:
             raise _GiveUp

@@ -1,4 +1,10 @@
-"""The statements a .cnet file is read into, with the spans of their parts."""
+"""The statements a .cnet file is read into, with the spans of their parts.
+
+``RawAttribute`` and ``ComponentStatement``, made once per token and per
+statement, write their fields into ``__dict__`` instead of the frozen
+dataclass's ``object.__setattr__`` per field (``tests/test_model_init.py``
+holds them equal to the generated ``__init__``).
+"""
 
 from __future__ import annotations
 
@@ -27,6 +33,16 @@ class RawAttribute:
     span: Span
     value_span: Span
 
+    def __init__(
+        self, key: str, text: str, quoted: bool, span: Span, value_span: Span
+    ) -> None:
+        fields = self.__dict__
+        fields["key"] = key
+        fields["text"] = text
+        fields["quoted"] = quoted
+        fields["span"] = span
+        fields["value_span"] = value_span
+
 
 @dataclass(frozen=True)
 class ComponentStatement:
@@ -39,6 +55,25 @@ class ComponentStatement:
     span: Span
     kind_span: Span
     ref_span: Span
+
+    def __init__(
+        self,
+        kind: str,
+        ref: str,
+        attributes: tuple[RawAttribute, ...],
+        connections: tuple[tuple[str, str, Span], ...],
+        span: Span,
+        kind_span: Span,
+        ref_span: Span,
+    ) -> None:
+        fields = self.__dict__
+        fields["kind"] = kind
+        fields["ref"] = ref
+        fields["attributes"] = attributes
+        fields["connections"] = connections
+        fields["span"] = span
+        fields["kind_span"] = kind_span
+        fields["ref_span"] = ref_span
 
 
 @dataclass(frozen=True)
