@@ -179,11 +179,13 @@ class _Builder:
     def part(
         self, statement: ComponentStatement, attributes: list[Attribute]
     ) -> Part | None:
-        name = next((a.value for a in attributes if a.key == "part"), None)
-        if name is None:
+        for attribute in attributes:
+            if attribute.key == "part":
+                name, span = attribute.value, attribute.span
+                break
+        else:
             return None
         part = self.parts.get(name)
-        span = next(a.span for a in attributes if a.key == "part")
         if part is None:
             self.errors.append(
                 PartsError(
