@@ -256,3 +256,40 @@ def _mixed(draw) -> str:
 @given(_mixed())
 def test_mixed_text_reads_the_same(text):
     _agree(text)
+
+
+def _token_spans(text: str, file: str) -> tuple[list, list]:
+    """The grammar's own tokens for each value and kind, with the statements."""
+    from lark import Tree
+
+    from netcheck.input.cnet.parse import _span, parser
+
+    tree = parser().parse(text)
+    values = [
+        _span(file, t.children[1].children[0])
+        for t in tree.iter_subtrees_topdown()
+        if isinstance(t, Tree) and t.data == "attribute"
+    ]
+    kinds = [
+        _span(file, t.children[0])
+        for t in tree.iter_subtrees_topdown()
+        if isinstance(t, Tree) and t.data == "component"
+    ]
+    return values, kinds
+
+
+@pytest.mark.parametrize("path", FILES, ids=lambda p: str(p.relative_to(ROOT)))
+def test_worked_out_spans_are_the_tokens_spans(path):
+    # A value's span and a kind's span are worked out from the spans a
+    # statement keeps; they must be where the grammar's tokens are.
+    text = _text(path)
+    try:
+        statements = parse_with_grammar(text, path.name).statements
+    except (InputError, InputErrors):
+        return  # a file with errors has no statements to compare
+    values, kinds = _token_spans(text, path.name)
+    components = [s for s in statements if hasattr(s, "kind")]
+    assert [a.value_span for s in components for a in s.attributes] == values
+    assert [s.kind_span for s in components] == kinds
+    if "sample_nets" in path.parts:
+        assert values  # the samples at least have attributes to compare

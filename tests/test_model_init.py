@@ -58,11 +58,11 @@ CASES = [
     ),
     (Branch, (None, "switch", "P1", "W1", ELEMENT), {}),
     (Branch, (None, "load", "P1", "W1"), {}),
-    (RawAttribute, ("v", "24V", False, SPAN, SPAN), {}),
+    (RawAttribute, ("v", "24V", False, SPAN), {}),
     (
         ComponentStatement,
-        ("relay", "K1", (RawAttribute("v", "24", False, SPAN, SPAN),), (), SPAN),
-        {"kind_span": SPAN, "ref_span": SPAN},
+        ("relay", "K1", (RawAttribute("v", "24", False, SPAN),), (), SPAN),
+        {"ref_span": SPAN},
     ),
 ]
 

@@ -201,8 +201,7 @@ def _items(
             text, quoted = unquote(second), True
         else:
             raise _GiveUp
-        value_span = _new_span(file, line, column + len(first) + 1, line, end)
-        attributes.append(RawAttribute(first, text, quoted, span, value_span))
+        attributes.append(RawAttribute(first, text, quoted, span))
     return attributes, connections
 
 
@@ -218,7 +217,6 @@ def _component(file: str, tokens: list[Token]) -> ComponentStatement:
         attributes=tuple(attributes),
         connections=tuple(connections),
         span=_span(file, kind, tokens[-1]),
-        kind_span=_span(file, kind, kind),
         ref_span=_span(file, ref, ref),
     )
 

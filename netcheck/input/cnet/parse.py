@@ -105,11 +105,10 @@ class _ToStatements(Transformer):
             self._span(reason),
         )
 
-    def _value_of(self, tree: Tree) -> tuple[str, bool, Span]:
+    def _value_of(self, tree: Tree) -> tuple[str, bool]:
         token = tree.children[0]
         quoted = token.type == "STRING"
-        text = unquote(token) if quoted else str(token)
-        return text, quoted, self._span(token)
+        return (unquote(token) if quoted else str(token)), quoted
 
     def _joined(self, tree: Tree, first: Token, last: Token, sign: str) -> Span:
         span = self._span(tree)
@@ -125,9 +124,9 @@ class _ToStatements(Transformer):
     @v_args(tree=True)
     def attribute(self, tree: Tree) -> RawAttribute:
         key, value_tree = tree.children
-        text, quoted, value_span = self._value_of(value_tree)
+        text, quoted = self._value_of(value_tree)
         span = self._joined(tree, key, value_tree.children[0], "=")
-        return RawAttribute(str(key), text, quoted, span, value_span)
+        return RawAttribute(str(key), text, quoted, span)
 
     @v_args(tree=True)
     def connection(self, tree: Tree) -> tuple[str, str, Span]:
@@ -143,7 +142,6 @@ class _ToStatements(Transformer):
             attributes=tuple(i for i in items if isinstance(i, RawAttribute)),
             connections=tuple(i for i in items if isinstance(i, tuple)),
             span=self._span(tree),
-            kind_span=self._span(kind),
             ref_span=self._span(ref),
         )
 

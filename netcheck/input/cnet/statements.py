@@ -3,7 +3,9 @@
 ``RawAttribute`` and ``ComponentStatement``, made once per token and per
 statement, write their fields into ``__dict__`` instead of the frozen
 dataclass's ``object.__setattr__`` per field (``tests/test_model_init.py``
-holds them equal to the generated ``__init__``).
+holds them equal to the generated ``__init__``), and work out the spans only
+error messages use (a value's, a kind's) from the spans they keep
+(``tests/test_fast_parse.py`` holds those equal to the grammar's tokens).
 """
 
 from __future__ import annotations
@@ -31,17 +33,30 @@ class RawAttribute:
     text: str
     quoted: bool
     span: Span
-    value_span: Span
 
-    def __init__(
-        self, key: str, text: str, quoted: bool, span: Span, value_span: Span
-    ) -> None:
+    def __init__(self, key: str, text: str, quoted: bool, span: Span) -> None:
         fields = self.__dict__
         fields["key"] = key
         fields["text"] = text
         fields["quoted"] = quoted
         fields["span"] = span
-        fields["value_span"] = value_span
+
+    @property
+    def value_span(self) -> Span:
+        """The value's span, as written (quotes included).
+
+        Only error messages need it, so it is worked out, not kept: the value
+        starts just after ``key=`` on the line (the readers refuse a space
+        around ``=``) and ends where the attribute does.
+        """
+        span = self.span
+        return Span(
+            span.file,
+            span.line,
+            span.column + len(self.key) + 1,
+            span.end_line,
+            span.end_column,
+        )
 
 
 @dataclass(frozen=True)
@@ -53,7 +68,6 @@ class ComponentStatement:
     attributes: tuple[RawAttribute, ...]
     connections: tuple[tuple[str, str, Span], ...]
     span: Span
-    kind_span: Span
     ref_span: Span
 
     def __init__(
@@ -63,7 +77,6 @@ class ComponentStatement:
         attributes: tuple[RawAttribute, ...],
         connections: tuple[tuple[str, str, Span], ...],
         span: Span,
-        kind_span: Span,
         ref_span: Span,
     ) -> None:
         fields = self.__dict__
@@ -72,8 +85,15 @@ class ComponentStatement:
         fields["attributes"] = attributes
         fields["connections"] = connections
         fields["span"] = span
-        fields["kind_span"] = kind_span
         fields["ref_span"] = ref_span
+
+    @property
+    def kind_span(self) -> Span:
+        """The kind's span: the statement's first word (only errors need it)."""
+        span = self.span
+        return Span(
+            span.file, span.line, span.column, span.line, span.column + len(self.kind)
+        )
 
 
 @dataclass(frozen=True)
