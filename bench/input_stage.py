@@ -1,7 +1,9 @@
 """Time the input stage alone: parse, build and graph of generated designs.
 
-Usage: ``python bench/input_stage.py [--one-rail] [--runs 3] N [N ...]``
-generates a design of about N components with ``gen_design.py`` for each N,
+Usage: ``python bench/input_stage.py [--shape NAME] [--runs 3] N [N ...]``
+generates a design of about N components with ``gen_design.py`` for each N
+(of the shape NAME of ``shapes.py``, mixed by default; ``--one-rail`` is
+``--shape one-rail``),
 then reads each in a fresh child process ``--runs`` times and prints the median
 wall and CPU seconds of each step and the median peak resident memory of the
 child. Parse is the reading of every file into statements; build is the rest
@@ -75,12 +77,13 @@ def main(argv: list[str] | None = None) -> int:
     parser.add_argument("sizes", nargs="+", type=int)
     parser.add_argument("--runs", type=int, default=3)
     parser.add_argument("--one-rail", action="store_true")
+    parser.add_argument("--shape", default="mixed")
     args = parser.parse_args(argv)
     print("components  parse s (cpu)   build s (cpu)   graph s (cpu)   peak MB")
     with tempfile.TemporaryDirectory() as folder:
         for size in args.sizes:
             out = Path(folder) / str(size)
-            extra = ["--one-rail"] if args.one_rail else []
+            extra = ["--shape", "one-rail" if args.one_rail else args.shape]
             made = subprocess.run(
                 [sys.executable, str(HERE / "gen_design.py"), *extra, str(size), out],
                 capture_output=True,
