@@ -104,7 +104,8 @@ def supply_kind(component: Component) -> str:
 
 
 def _component_branches(component: Component) -> Iterator[Branch]:
-    net = component.net_of
+    # Component.net_of as one dict (the first connection of a terminal wins).
+    net = {c.terminal: c.net for c in reversed(component.connections)}.get
     kind = component.kind
     if kind == "supply":
         a, b = ("+", "-") if net("+") or net("-") else ("L", "N")

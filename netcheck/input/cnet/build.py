@@ -247,20 +247,21 @@ class _Builder:
         connections: Sequence[Connection],
     ) -> tuple[tuple, tuple]:
         kind = statement.kind
-        used = [c.terminal for c in connections]
-        spans = {c.terminal: c.span for c in connections}
-        has_coil = kind in COIL_KINDS
         if kind in PROTECTIVE_KINDS:
             return self.protective_poles(statement, connections)
         if kind not in POLE_KINDS:
             return (), self.output_elements(statement, connections)
+        used = [c.terminal for c in connections]
+        has_coil = kind in COIL_KINDS
         if part is not None and part.data.get("poles"):
             poles = poles_from_part(part.data["poles"])
+            spans = {c.terminal: c.span for c in connections}
             self.errors.extend(
                 check_terminals(statement.ref, poles, used, has_coil, spans)
             )
         else:
             poles, unexplained = _inferred(tuple(used), has_coil)
+            spans = {c.terminal: c.span for c in connections} if unexplained else {}
             for terminal in unexplained:
                 self.errors.append(
                     InputError(
