@@ -10,12 +10,14 @@ objects built form no reference cycles worth collecting (they are frozen
 dataclasses, tuples and dicts), and reference counting frees everything else
 at once.
 
-So a stage runs with the collector paused, and what is alive at its end is
-frozen: left out of every later pass. ``input.load_design`` first hands the
-previous design's frozen objects back (``release_frozen``), so a process that
-checks many designs keeps at most one design's worth out of the collector's
-reach. Frozen objects are still freed by reference counting as usual; only a
-cycle among them waits for the release.
+So a stage runs with the collector paused. What ``input.load_design`` built
+(the model: frozen dataclasses, tuples, dicts, no cycles) is then frozen: left
+out of every later pass, the analysis's included. ``load_design`` first hands
+the previous design's frozen objects back (``release_frozen``), so a process
+that checks many designs keeps at most one model out of the collector's
+reach; frozen objects are still freed by reference counting as usual. Later
+stages are not frozen: a networkx graph holds a cycle once its views are read,
+and the fixes' re-checks build one per candidate fix, which must be collected.
 """
 
 from __future__ import annotations
@@ -28,12 +30,12 @@ __all__ = ["collector_paused", "release_frozen"]
 
 
 @contextmanager
-def collector_paused() -> Iterator[None]:
-    """Pause the cyclic collector for the block; after it, freeze what is alive.
+def collector_paused(freeze: bool = False) -> Iterator[None]:
+    """Pause the cyclic collector for the block; restore its state after.
 
-    Freezing moves the objects out of the collector's generations without a
-    pass over them (the pass on re-enabling cost as much as a large design's
-    read); the collector's own state is restored.
+    With ``freeze``, what is alive at the end is frozen first: moved out of
+    the collector's generations without the pass over it that re-enabling
+    would start (it cost as much as a large design's read).
     """
     was_enabled = gc.isenabled()
     gc.disable()
@@ -41,7 +43,8 @@ def collector_paused() -> Iterator[None]:
         yield
     finally:
         if was_enabled:
-            gc.freeze()
+            if freeze:
+                gc.freeze()
             gc.enable()
 
 

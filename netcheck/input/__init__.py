@@ -70,7 +70,7 @@ def load_design(
     """
     reader = _reader(path) or READERS[".cnet"]
     release_frozen()  # the previous design's objects (alloc.py)
-    with collector_paused():
+    with collector_paused(freeze=True):
         return reader.load(path, extra_parts, allow_outside, display_base)
 
 
