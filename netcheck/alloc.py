@@ -15,18 +15,24 @@ So a stage runs with the collector paused. What ``input.load_design`` built
 out of every later pass, the analysis's included. ``load_design`` first hands
 the previous design's frozen objects back (``release_frozen``), so a process
 that checks many designs keeps at most one model out of the collector's
-reach; frozen objects are still freed by reference counting as usual. Later
-stages are not frozen: a networkx graph holds a cycle once its views are read,
-and the fixes' re-checks build one per candidate fix, which must be collected.
+reach; frozen objects are still freed by reference counting as usual. The graph
+of that design is frozen too (``build_graph`` asks ``is_loaded``), but no
+other: a networkx graph holds a cycle once its views are read, and the fixes'
+re-checks build one per candidate fix from an edited copy, which must be
+collected.
 """
 
 from __future__ import annotations
 
 import gc
+import weakref
 from collections.abc import Iterator
 from contextlib import contextmanager
 
-__all__ = ["collector_paused", "release_frozen"]
+__all__ = ["collector_paused", "release_frozen", "loaded", "is_loaded"]
+
+# The design load_design built last (a weak reference), or None.
+_loaded: list[weakref.ref[object]] = []
 
 
 @contextmanager
@@ -51,3 +57,13 @@ def collector_paused(freeze: bool = False) -> Iterator[None]:
 def release_frozen() -> None:
     """Hand every frozen object back to the collector (its oldest generation)."""
     gc.unfreeze()
+
+
+def loaded(design: object) -> None:
+    """Note ``design`` as the one ``load_design`` built (its model is frozen)."""
+    _loaded[:] = [weakref.ref(design)]
+
+
+def is_loaded(design: object) -> bool:
+    """Whether ``design`` is the one ``load_design`` built last."""
+    return bool(_loaded) and _loaded[0]() is design

@@ -7,7 +7,7 @@ from dataclasses import dataclass, field
 
 import networkx as nx
 
-from netcheck.alloc import collector_paused
+from netcheck.alloc import collector_paused, is_loaded
 from netcheck.kinds import (
     COIL_KINDS,
     NON_CONDUCTING_KINDS,
@@ -152,7 +152,8 @@ class Graph:
 
 def build_graph(netlist: Netlist) -> Graph:
     """Build the net graph and the supply domains of a netlist."""
-    with collector_paused():
+    # The loaded design's graph lives as long as its model: frozen with it.
+    with collector_paused(freeze=is_loaded(netlist)):
         return _build_graph(netlist)
 
 

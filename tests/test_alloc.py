@@ -7,6 +7,7 @@ networkx graph holds once its views are read are still collected.
 
 from __future__ import annotations
 
+import dataclasses
 import gc
 import weakref
 
@@ -28,8 +29,15 @@ def test_a_design_is_frozen_until_the_next_is_read():
     assert gc.get_freeze_count() < 2 * frozen
 
 
-def test_a_graph_is_not_frozen_and_its_cycle_is_collected():
+def test_the_loaded_designs_graph_is_frozen_with_it():
     netlist = read_design_text(TEXT)
+    before = gc.get_freeze_count()
+    build_graph(netlist)
+    assert gc.get_freeze_count() > before
+
+
+def test_an_edited_copys_graph_is_not_frozen_and_its_cycle_is_collected():
+    netlist = dataclasses.replace(read_design_text(TEXT))  # as fixes edit it
     before = gc.get_freeze_count()
     graph = build_graph(netlist)
     assert gc.get_freeze_count() == before

@@ -13,7 +13,7 @@ from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 from pathlib import Path
 
-from netcheck.alloc import collector_paused, release_frozen
+from netcheck.alloc import collector_paused, loaded, release_frozen
 from netcheck.input import cnet
 from netcheck.model import Netlist
 
@@ -71,7 +71,9 @@ def load_design(
     reader = _reader(path) or READERS[".cnet"]
     release_frozen()  # the previous design's objects (alloc.py)
     with collector_paused(freeze=True):
-        return reader.load(path, extra_parts, allow_outside, display_base)
+        netlist = reader.load(path, extra_parts, allow_outside, display_base)
+        loaded(netlist)
+    return netlist
 
 
 def read_design_text(text: str, file: str = "design.cnet") -> Netlist:
