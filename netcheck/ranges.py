@@ -59,12 +59,15 @@ def _shifted(span: Span | None, offset: int, length: int) -> Span | None:
     return replace(span, column=column, end_line=span.line, end_column=column + length)
 
 
-def parse_range(key: str, text: str, span: Span | None = None) -> ValueRange:
+def parse_range(
+    key: str, text: str, span: Span | None = None, dimension: str | None = None
+) -> ValueRange:
     """``LOW..HIGH`` for a range key; each end a quantity of the key's dimension.
 
     Errors are located on the end at fault (``span`` is the value's span).
+    ``dimension`` serves a key that is not a netlist attribute (an option).
     """
-    dimension = RANGE_KEYS[key.rsplit(".", 1)[-1]]
+    dimension = dimension or RANGE_KEYS[key.rsplit(".", 1)[-1]]
     example = f"write {key}=LOW..HIGH, e.g. {key}=88V..125V"
     low_text, sep, high_text = text.partition(_SEPARATOR)
     if not sep or not low_text or not high_text or _SEPARATOR in high_text:

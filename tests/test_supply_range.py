@@ -6,6 +6,7 @@ the checks judged at the top of a range in ``tests/cases/*/*range*.cnet``.
 
 from __future__ import annotations
 
+import json
 from pathlib import Path
 
 import pytest
@@ -98,3 +99,22 @@ def test_without_a_range_the_nominal_is_the_highest() -> None:
             return {"dc": Q_(24, "V")}.get(key)
 
     assert highest_voltage(Plain()) == Q_(24, "V")
+
+
+def test_size_takes_a_voltage_range_and_sizes_at_its_top(capsys) -> None:
+    from netcheck import cli
+
+    coil = ["--resistance", "440ohm", "--inductance", "2.1H", "--format", "json"]
+    assert cli.main(["size", "--voltage", "88V..125V", *coil]) == 0
+    ranged = json.loads(capsys.readouterr().out)
+    assert cli.main(["size", "--voltage", "125V", *coil]) == 0
+    assert ranged == json.loads(capsys.readouterr().out)
+    # 125 V / 440 ohm = 284.1 mA (Ohm's law): the current at the top.
+    assert ranged["load"]["current"]["value"] == pytest.approx(125 / 440)
+    text = ["size", "--voltage", "88V..125V", "--resistance", "440ohm"]
+    assert cli.main([*text, "--inductance", "2.1H", "--no-color"]) == 0
+    assert (
+        "highest voltage of the supply's range 88 V..125 V" in capsys.readouterr().out
+    )
+    assert cli.main(["size", "--voltage", "125V..88V", *coil]) == 2
+    assert "runs backwards" in capsys.readouterr().err
