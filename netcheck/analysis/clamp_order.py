@@ -26,7 +26,13 @@ from netcheck.analysis.switched import ElementAnalysis, Suppressor
 from netcheck.kinds import SEMICONDUCTOR_KINDS
 from netcheck.units import Q_
 
-__all__ = ["InternalClamp", "internal_clamp_takes", "ZENER_TOLERANCE"]
+__all__ = [
+    "InternalClamp",
+    "internal_clamp_takes",
+    "ZENER_TOLERANCE",
+    "external_suppressors",
+    "zener_below",
+]
 
 # Zener voltages are commonly specified at +-5 % (common practice, E24 series
 # zeners); a proposed zener sits at least this far below its limit.
@@ -51,11 +57,7 @@ class InternalClamp:
         Vs + Vz + Vf must stay below the internal clamp; None where no zener
         across the load can (the supply alone is at or above it).
         """
-        supply = self.element.voltage
-        if supply is None:
-            return None
-        limit = self.voltage - supply - Q_(SILICON_RECTIFIER_VF, "V")
-        return limit if limit.magnitude > 0 else None
+        return _room(self.element, self.voltage)
 
     @property
     def overloaded(self) -> bool:
@@ -63,6 +65,29 @@ class InternalClamp:
         return self.rating is None or (
             self.energy is not None and self.energy > self.rating
         )
+
+
+def _room(element: ElementAnalysis, limit: pint.Quantity) -> pint.Quantity | None:
+    supply = element.voltage
+    if supply is None:
+        return None
+    room = limit - supply - Q_(SILICON_RECTIFIER_VF, "V")
+    return room if room.magnitude > 0 else None
+
+
+def zener_below(element: ElementAnalysis, limit: pint.Quantity) -> pint.Quantity | None:
+    """The highest zener voltage that keeps the element below ``limit``.
+
+    A diode + zener across the load holds the element at Vs + Vz + Vf (KVL);
+    Vz is at most the room left over 1 + ZENER_TOLERANCE. None where none fits.
+    """
+    room = _room(element, limit)
+    return room / (1 + ZENER_TOLERANCE) if room is not None else None
+
+
+def external_suppressors(element: ElementAnalysis) -> tuple[Suppressor, ...]:
+    """The suppressors that shape the element's opening (across it, else the loads')."""
+    return _external(element)
 
 
 def _external(element: ElementAnalysis) -> tuple[Suppressor, ...]:

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from collections.abc import Iterator
 
-from netcheck.analysis.clamp_order import ZENER_TOLERANCE, internal_clamp_takes
+from netcheck.analysis.clamp_order import internal_clamp_takes, zener_below
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding
@@ -19,7 +19,7 @@ def internal_clamp_overloaded(ctx: CheckContext) -> Iterator[Finding]:
         clamp = internal_clamp_takes(element)
         if clamp is None or not clamp.overloaded:
             continue
-        limit = clamp.zener_limit
+        limit = zener_below(element, clamp.voltage)
         refs = sorted({ref for s in clamp.external for ref in s.refs})
         yield ctx.finding(
             element,
@@ -30,5 +30,5 @@ def internal_clamp_overloaded(ctx: CheckContext) -> Iterator[Finding]:
             internal_clamp=clamp.voltage,
             energy=clamp.energy,
             clamp_energy=clamp.rating,
-            zener_max=limit / (1 + ZENER_TOLERANCE) if limit is not None else None,
+            zener_max=limit,
         )

@@ -6,7 +6,11 @@ from collections.abc import Iterator
 
 import pint
 
-from netcheck.analysis.clamp_order import internal_clamp_takes
+from netcheck.analysis.clamp_order import (
+    external_suppressors,
+    internal_clamp_takes,
+    zener_below,
+)
 from netcheck.analysis.fitted import Fitted, element_peak
 from netcheck.analysis.switched import ElementAnalysis
 from netcheck.analysis.transients import OpeningTransient
@@ -216,6 +220,7 @@ def peak_voltage_over_rating(ctx: CheckContext) -> Iterator[Finding]:
                     about=fitted.about,
                 )
     for element, peak, rated in _contact_peaks(ctx):
+        external = external_suppressors(element)
         yield ctx.finding(
             element,
             message="contact",
@@ -223,6 +228,8 @@ def peak_voltage_over_rating(ctx: CheckContext) -> Iterator[Finding]:
             peak=peak,
             rated=rated,
             poles=element.series_poles,
+            external=", ".join(sorted({r for s in external for r in s.refs})),
+            zener_max=zener_below(element, rated * max(element.series_poles, 1)),
         )
 
 

@@ -113,7 +113,7 @@ class Proposer:
             yield from self._add_zener(finding)
         if finding.rule in ("series-poles-underrated", "dc-break-over-rating"):
             yield from self._more_poles(finding)
-        if finding.rule == "internal-clamp-overloaded":
+        if finding.rule in ("internal-clamp-overloaded", "peak-voltage-over-rating"):
             yield from lower_clamp(self.netlist, finding)
         if finding.rule in _PART_RULES:
             yield from self._other_parts(finding)
