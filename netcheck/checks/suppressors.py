@@ -14,6 +14,7 @@ from netcheck.analysis.clamp_order import (
 from netcheck.analysis.fitted import Fitted, element_peak
 from netcheck.analysis.switched import ElementAnalysis
 from netcheck.analysis.transients import OpeningTransient
+from netcheck.analysis.verdicts import arrangement_lead
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding
@@ -247,6 +248,8 @@ def _contact_peaks(
     for element in ctx.switching_elements(supply="dc"):
         rated = element.component.value("contacts", "voltage_max")
         if element.component.kind not in MECHANICAL_KINDS or rated is None:
+            continue
+        if not arrangement_lead(element):  # series poles: one finding, the first
             continue
         if element.voltage is None or element.voltage > rated:
             continue

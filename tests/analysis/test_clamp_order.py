@@ -18,7 +18,7 @@ from scipy.integrate import solve_ivp
 
 from netcheck.analysis.clamp_order import internal_clamp_takes
 from netcheck.analysis.fitted import element_peak
-from tests.helpers import net
+from tests.helpers import findings_of, net
 
 VS, R, L = 24.0, 48.0, 0.48  # WE-1 valve (domain-facts): I0 = 0.5 A, L/R = 10 ms
 OUTPUT = """\
@@ -107,3 +107,26 @@ def test_the_rc_peak_across_a_contact_matches_scipy(tmp_path: Path) -> None:
     )
     peak = float(np.max(rs * result.y[0] + result.y[1]))
     assert opening.peak_voltage.to("V").magnitude == pytest.approx(peak, rel=2e-3)
+
+
+def test_series_poles_share_the_gap_voltage_and_report_once(tmp_path: Path) -> None:
+    # Diode + 150 V zener across a 110 V brake: the open gaps see
+    # 110 + 150 + 0.9 = 260.9 V (KVL), 130.45 V per pole of two in series
+    # (V/n), above 125 V; a zener of at most (250 - 110.9) / 1.05 = 132.5 V
+    # keeps both within it.
+    found = findings_of(
+        tmp_path,
+        """\
+        supply  G1  dc=110V  earth=none  +:L+  -:L-
+        contactor K1  contacts.voltage_max=125V  1:L+  2:W1  3:W1  4:N1
+        load    Y1  type=brake  R=220ohm  L=2.2H  1:N1  2:L-
+        diode   V1  A:N2  K:N1
+        zener   V2  vz=150V  A:N2  K:L-
+        """,
+    )
+    peaks = [f for f in found if f.rule == "peak-voltage-over-rating"]
+    assert [f.element for f in peaks] == ["K1:1-2"]
+    assert peaks[0].values["peak"].to("V").magnitude == pytest.approx(130.45)
+    assert peaks[0].values["zener_max"].to("V").magnitude == pytest.approx(
+        (250 - 110.9) / 1.05
+    )
