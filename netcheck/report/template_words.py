@@ -141,7 +141,7 @@ RULE_WORDS: dict[tuple[str, str], str] = {
     ("freewheel-diode-reversed", "current"): "short-circuit current",
     ("supply-short-circuit", "current"): "prospective current",
     ("internal-clamp-overloaded", "energy"): "energy the internal clamp absorbs",
-    ("peak-voltage-over-rating", "zener_max"): "highest zener voltage within voltage_max",
+    ("peak-voltage-over-rating", "zener_max"): "highest zener within voltage_max",
     ("supply-short-circuit", "element"): "supply",
     ("polarized-pole-reversed", "current"): "current",
     ("ac-output-on-dc", "current"): "load current",
