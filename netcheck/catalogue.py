@@ -71,19 +71,21 @@ class RuleMeta:
         severity: Severity | None = None,
         key: str = "",
         ref: str = "",
+        note: str = "",
     ) -> Finding:
         """A finding of this rule, its templates filled from ``values``.
 
         The one way findings are built, for checks and waivers alike; the
         templates may also use ``element`` and ``ref`` (the component's
-        reference, ``element`` by default).
+        reference, ``element`` by default). ``note`` is a template appended to
+        the message (the supply voltage a finding was judged at).
         """
         fill = {"element": element, "ref": ref or element, **values}
         fix_template = self.fix(fix)
         return Finding(
             rule=self.name,
             severity=severity or self.severity,
-            message=fill_template(self.message(message), fill, self.absent),
+            message=fill_template(self.message(message) + note, fill, self.absent),
             span=span,
             element=element,
             values=dict(values),

@@ -87,7 +87,16 @@ CONTACT_KEYS = ("form", "voltage_max", "polarized", "making_current", "blowout")
 
 _COMMON = ("part", "tags")
 _OWN_ATTRIBUTES: dict[str, tuple[str, ...]] = {
-    "supply": ("dc", "ac", "freq", "earth", "r_int", "isc", "bidirectional"),
+    "supply": (
+        "dc",
+        "ac",
+        "range",
+        "freq",
+        "earth",
+        "r_int",
+        "isc",
+        "bidirectional",
+    ),
     "relay": (),
     "contactor": (),
     "switch": (),

@@ -15,6 +15,7 @@ from collections.abc import Iterator
 import pytest
 from test_cases import CASES, case_files, run_case
 
+from netcheck.analysis.supplies import SUPPLY_NOTES
 from netcheck.catalogue import RuleMeta, load_catalogue
 from netcheck.checks.registry import all_checks
 from netcheck.findings import Finding, Severity
@@ -50,10 +51,13 @@ def _pattern(template: str) -> re.Pattern[str]:
 
 def message_variants(meta: RuleMeta, finding: Finding) -> set[str]:
     """The message variants whose template could have produced the finding."""
+    # A finding in a domain whose supply states a range ends with a note of the
+    # voltage it was judged at (analysis/supplies.py).
+    notes = ("", *SUPPLY_NOTES.values())
     return {
         name
         for name, template in meta.messages.items()
-        if _pattern(template).fullmatch(finding.message)
+        if any(_pattern(template + note).fullmatch(finding.message) for note in notes)
     }
 
 

@@ -129,7 +129,9 @@ def test_edge_shapes_read_the_same(text):
 _NAMES = st.sampled_from(
     ["K1", "relay", "load", "13", "14", "A1", "+", "-", "W1.2", "x~y", "*", *KEYWORDS]
 )
-_VALUES = st.sampled_from(["24V", "47Ω", "4,7k", "85%", "a,b", "yes", "=", "\\7"])
+_VALUES = st.sampled_from(
+    ["24V", "47Ω", "4,7k", "85%", "a,b", "yes", "=", "\\7", "88V..125V"]
+)
 _STRINGS = st.sampled_from(['"r"', '""', '"a \\" b"', '"x#y"', '"open'])
 _GAPS = st.sampled_from([" ", "  ", "\t", " # c", "#", "\f", "\u00a0", ""])
 _BREAKS = st.sampled_from(["\n", "\n  ", "\n\t", "\r\n", "\n\n", "\n# c\n  ", "\r"])

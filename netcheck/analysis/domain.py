@@ -19,6 +19,7 @@ from netcheck.analysis.circuit import Diode, Resistor, Solution, solve_dc
 from netcheck.analysis.constants import SILICON_DIODE_CONDUCTION_VF
 from netcheck.analysis.loads import LoadFacts, load_facts
 from netcheck.analysis.si import si
+from netcheck.analysis.supplies import highest_emfs
 from netcheck.graph import COIL, CONDUCTOR, LOAD, SUPPLY, SWITCH, Branch, Domain
 from netcheck.kinds import RECTIFYING_KINDS, conducts_one_way
 
@@ -125,9 +126,9 @@ def _rails(domain: Domain, group: dict[str, str]) -> tuple[dict, dict, dict, lis
     emf, r_int, rails, shorted = {}, {}, {}, []
     edges = [b for b in domain.branches if b.role == SUPPLY]
     graph = nx.Graph()
+    highest = highest_emfs(edges)
     for branch in edges:
-        value = branch.component.value("dc")
-        emf[branch.ref] = si(value, "V") if value is not None else 0.0
+        emf[branch.ref] = highest[branch.ref]
         r = branch.component.value("r_int")
         r_int[branch.ref] = si(r, "ohm") if r is not None else 0.0
         ga, gb = group[branch.a], group[branch.b]

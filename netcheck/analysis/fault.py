@@ -19,6 +19,7 @@ import pint
 from netcheck.graph import CONDUCTOR, SUPPLY, SWITCH, Graph, supply_kind
 from netcheck.kinds import PROTECTIVE_KINDS
 from netcheck.model import Component, Pole
+from netcheck.ranges import highest_voltage
 from netcheck.units import Q_
 
 __all__ = [
@@ -43,7 +44,11 @@ class Protective:
 
 def supply_fault_current(supply: Component) -> pint.Quantity | None:
     """One supply's bolted-fault current: EMF / r_int, capped by ``isc``."""
-    emf, r_int, isc = supply.value("dc"), supply.value("r_int"), supply.value("isc")
+    emf, r_int, isc = (
+        highest_voltage(supply),
+        supply.value("r_int"),
+        supply.value("isc"),
+    )
     if emf is None:
         return None
     currents = []
@@ -75,7 +80,7 @@ def protective_devices(graph: Graph) -> list[Protective]:
         if domain is None or not domain.supplies or domain.kind != "dc":
             continue
         supplies = tuple(s for s in domain.supplies if supply_kind(s) == "dc")
-        voltage = max(s.value("dc").to("V") for s in supplies)
+        voltage = max(highest_voltage(s).to("V") for s in supplies)
         out.append(
             Protective(
                 component,

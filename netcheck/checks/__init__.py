@@ -3,6 +3,7 @@
 from netcheck.checks import (  # noqa: F401
     arc,
     arrangement,
+    clamps,
     coils,
     making,
     network,

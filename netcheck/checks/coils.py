@@ -4,10 +4,12 @@ from __future__ import annotations
 
 from collections.abc import Iterator
 
+from netcheck.analysis.supplies import ranged_supply
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding
 from netcheck.graph import COIL
+from netcheck.ranges import highest_voltage, supply_range
 from netcheck.units import Q_
 
 __all__ = ["coil_supply_mismatch", "coil_voltage_out_of_range"]
@@ -70,23 +72,41 @@ def coil_voltage_out_of_range(ctx: CheckContext) -> Iterator[Finding]:
         rated = info.facts.rated_voltage
         if rated is None or rated.magnitude <= 0:
             continue
-        if info.supply == "dc":
-            applied = info.voltage
-        else:
-            applied = ctx.graph.domain_of[info.branch.a].supplies[0].value("ac")
-        if applied is None:
-            continue
         low, high = _range(info)
-        ratio = float((applied / rated).to("").magnitude)
-        if low <= ratio <= high:
-            continue
-        yield ctx.finding(
-            info.branch.component,
-            applied=applied,
-            rated=rated,
-            percent=Q_(round(ratio * 100, 1), ""),
-            low=Q_(low * 100, ""),
-            high=Q_(high * 100, ""),
-            low_voltage=rated * low,
-            high_voltage=rated * high,
-        )
+        for applied, end in _applied(ctx, info):
+            ratio = float((applied / rated).to("").magnitude)
+            if low <= ratio <= high:
+                continue
+            yield ctx.finding(
+                info.branch.component,
+                key="" if end == "highest" else end,
+                supply_end=end,
+                applied=applied,
+                rated=rated,
+                percent=Q_(round(ratio * 100, 1), ""),
+                low=Q_(low * 100, ""),
+                high=Q_(high * 100, ""),
+                low_voltage=rated * low,
+                high_voltage=rated * high,
+            )
+
+
+def _applied(ctx: CheckContext, info) -> list[tuple[Q_, str]]:  # type: ignore[no-untyped-def]
+    """The coil's voltage at the supply's highest voltage and, with a range, lowest.
+
+    The analysis solves a DC domain at the top of the supply's range, so the
+    low end is that coil voltage scaled by low/high (a linear network: exact
+    for resistive circuits, slightly high where a diode drop is in series).
+    """
+    supply = ctx.graph.domain_of[info.branch.a].supplies[0]
+    top = info.voltage if info.supply == "dc" else highest_voltage(supply, "ac")
+    if top is None:
+        return []
+    if info.supply == "dc":
+        ranged = ranged_supply(ctx.graph, info.branch.component)
+        band = ranged[1] if ranged is not None else None
+    else:
+        band = supply_range(supply)
+    if band is None:
+        return [(top, "highest")]
+    return [(top, "highest"), (top * (band.low / band.high).to("").magnitude, "lowest")]

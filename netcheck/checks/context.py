@@ -19,6 +19,7 @@ from netcheck.analysis import fitted as fitting
 from netcheck.analysis import shorts as short_circuits
 from netcheck.analysis.elements import Analysis
 from netcheck.analysis.ratings import Assessment
+from netcheck.analysis.supplies import SUPPLY_NOTES, ranged_supply
 from netcheck.analysis.switched import ElementAnalysis
 from netcheck.analysis.verdicts import breaks_something
 from netcheck.catalogue import RuleMeta, all_margins
@@ -148,13 +149,17 @@ class CheckContext:
         key: str = "",
         severity: Severity | None = None,
         rule: str | None = None,
+        supply_end: str = "highest",
         **values: Any,
     ) -> Finding:
         """A finding of the current rule, its templates filled from ``values``.
 
         ``severity`` raises or lowers the rule's default where the rule's YAML
         says the severity depends on the case; ``rule`` lets a check report
-        ``rating-data-missing`` when it cannot decide.
+        ``rating-data-missing`` when it cannot decide. A finding with computed
+        values in a domain whose supply states a range says which end of the
+        range it was judged at: ``supply_end`` "highest" (the analysis runs there)
+        or "lowest".
         """
         meta = self.catalogue[rule or self.rule]
         if isinstance(anchor, ElementAnalysis):
@@ -163,6 +168,18 @@ class CheckContext:
             component, element = anchor
         else:
             component, element = anchor, anchor.ref
+        note = ""
+        ranged = ranged_supply(self.graph, component)
+        if ranged is not None and any(
+            isinstance(v, pint.Quantity) for v in values.values()
+        ):
+            note = SUPPLY_NOTES[supply_end]
+            values = {
+                **values,
+                "range_supply": ranged[0],
+                "supply_lowest": ranged[1].low,
+                "supply_highest": ranged[1].high,
+            }
         return meta.finding(
             component.span,
             element,
@@ -172,4 +189,5 @@ class CheckContext:
             severity=severity,
             key=key,
             ref=component.ref,
+            note=note,
         )

@@ -6,13 +6,19 @@ from collections.abc import Iterator
 
 import pint
 
+from netcheck.analysis.clamp_order import (
+    external_suppressors,
+    internal_clamp_takes,
+    zener_below,
+)
 from netcheck.analysis.fitted import Fitted, element_peak
 from netcheck.analysis.switched import ElementAnalysis
 from netcheck.analysis.transients import OpeningTransient
+from netcheck.analysis.verdicts import arrangement_lead
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding
-from netcheck.kinds import SEMICONDUCTOR_KINDS
+from netcheck.kinds import MECHANICAL_KINDS, SEMICONDUCTOR_KINDS
 from netcheck.model import Component
 from netcheck.units import Q_
 
@@ -176,13 +182,16 @@ def _resistor_range(element: ElementAnalysis) -> tuple[pint.Quantity, pint.Quant
 
 @check("peak-voltage-over-rating")
 def peak_voltage_over_rating(ctx: CheckContext) -> Iterator[Finding]:
-    """Flag opening peaks above an output's or a snubber capacitor's rating."""
+    """Flag opening peaks above an output's, a contact's or a snubber's rating."""
     for element in ctx.switching_elements(supply="dc"):
         rated = element.component.value("voltage_max")
         if element.component.kind not in SEMICONDUCTOR_KINDS or rated is None:
             continue
         opening = element_peak(element)
         peak = opening.peak_voltage if opening is not None else element.voltage
+        internal = internal_clamp_takes(element)
+        if internal is not None:  # the output's own clamp conducts first
+            peak = internal.voltage
         if peak is not None and peak > rated:
             yield ctx.finding(
                 element,
@@ -211,6 +220,45 @@ def peak_voltage_over_rating(ctx: CheckContext) -> Iterator[Finding]:
                     rated=rated,
                     about=fitted.about,
                 )
+    for element, peak, rated in _contact_peaks(ctx):
+        external = external_suppressors(element)
+        yield ctx.finding(
+            element,
+            message="contact",
+            fix="contact",
+            peak=peak,
+            rated=rated,
+            poles=element.series_poles,
+            external=", ".join(sorted({r for s in external for r in s.refs})),
+            zener_max=zener_below(element, rated * max(element.series_poles, 1)),
+        )
+
+
+def _contact_peaks(
+    ctx: CheckContext,
+) -> Iterator[tuple[ElementAnalysis, pint.Quantity, pint.Quantity]]:
+    """Mechanical contacts whose suppressed opening peak exceeds voltage_max.
+
+    The clamp (diode + zener, varistor, TVS) or RC sets the voltage across the
+    open gap (KVL at the instant of opening); series poles of one device are
+    taken to share it equally (V/n, as the series ratings are). An unsuppressed
+    contact arcs instead (its peak is an artefact of stray capacitance), and a
+    supply already above voltage_max is dc-voltage-over-rating's.
+    """
+    for element in ctx.switching_elements(supply="dc"):
+        rated = element.component.value("contacts", "voltage_max")
+        if element.component.kind not in MECHANICAL_KINDS or rated is None:
+            continue
+        if not arrangement_lead(element):  # series poles: one finding, the first
+            continue
+        if element.voltage is None or element.voltage > rated:
+            continue
+        opening = element_peak(element)
+        if opening is None or opening.kind == "none":
+            continue
+        peak = opening.peak_voltage / max(element.series_poles, 1)
+        if peak > rated:
+            yield element, peak, rated
 
 
 def _assumed(opening: OpeningTransient | None) -> str:

@@ -21,7 +21,12 @@ DESCRIPTION = (
 )
 # option -> (dimension, required, help) for the quantities the command reads.
 QUANTITIES = {
-    "voltage": ("voltage", True, "supply voltage, e.g. 110V"),
+    "voltage": (
+        "voltage",
+        True,
+        "supply voltage, e.g. 110V, or its range LOW..HIGH, e.g. 88V..125V "
+        "(sized at the highest)",
+    ),
     "resistance": ("resistance", True, "coil resistance, e.g. 440ohm"),
     "inductance": ("inductance", True, "coil inductance, e.g. 2.1H"),
     "release_current": (
@@ -49,6 +54,7 @@ class SizeSettings(NamedTuple):
     vf: Quantity | None = None  # None: the default forward drop
     margins: Mapping[str, float] | None = None  # None: the catalogue's
     format: str = "text"
+    voltage_range: str | None = None  # "88 V..125 V" where --voltage gave a range
 
 
 def add_options(parser: argparse.ArgumentParser) -> None:
@@ -79,10 +85,20 @@ def _quantity(args: argparse.Namespace, name: str) -> Quantity | None:
     if text is None:
         return None
     try:
+        if name == "voltage" and ".." in text:
+            return _range(text).high
         return parse_quantity(text, QUANTITIES[name][0])
     except QuantityError as error:
         option = f"--{name.replace('_', '-')}"
+        if error.message.startswith(option):
+            raise
         raise QuantityError(f"{option}: {error.message}") from None
+
+
+def _range(text: str):  # type: ignore[no-untyped-def]
+    from netcheck.ranges import parse_range
+
+    return parse_range("--voltage", text, dimension="voltage")
 
 
 def settings_of(args: argparse.Namespace) -> SizeSettings:
@@ -95,6 +111,7 @@ def settings_of(args: argparse.Namespace) -> SizeSettings:
         **values,  # type: ignore[arg-type]  # required ones are never None
         margins=configured_margins(args.config, load_catalogue()),
         format=args.format,
+        voltage_range=str(_range(args.voltage)) if ".." in args.voltage else None,
     )
 
 
@@ -117,6 +134,9 @@ def size_text(settings: SizeSettings, view: Terminal) -> str:
     if settings.format == "json":
         return size_to_json(result) + "\n"
     buffer = io.StringIO()
+    if settings.voltage_range is not None:
+        top = settings.voltage_range
+        buffer.write(f"Sized at the highest voltage of the supply's range {top}.\n")
     console = Console(
         file=buffer,
         width=view.width,

@@ -18,6 +18,7 @@ import pint
 from netcheck.analysis.result import Analysis
 from netcheck.catalogue import all_margins, load_catalogue
 from netcheck.findings import Finding
+from netcheck.fixes.clamp_fixes import lower_clamp
 from netcheck.fixes.edits import AddComponent, Edit, Reconnect, SetValues, UsePart
 from netcheck.fixes.propose_more import more_candidates
 from netcheck.model import Component, Netlist
@@ -51,6 +52,7 @@ _PART_RULES = {
     "suppressor-underrated",
     "suppressor-conducts-normally",
     "peak-voltage-over-rating",
+    "internal-clamp-overloaded",
     "coil-voltage-out-of-range",
     "coil-supply-mismatch",
     "dc-break-ac-only",
@@ -111,6 +113,8 @@ class Proposer:
             yield from self._add_zener(finding)
         if finding.rule in ("series-poles-underrated", "dc-break-over-rating"):
             yield from self._more_poles(finding)
+        if finding.rule in ("internal-clamp-overloaded", "peak-voltage-over-rating"):
+            yield from lower_clamp(self.netlist, finding)
         if finding.rule in _PART_RULES:
             yield from self._other_parts(finding)
         yield from more_candidates(self, finding)

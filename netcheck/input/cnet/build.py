@@ -48,6 +48,7 @@ from netcheck.model import (
     SwitchingElement,
 )
 from netcheck.quantity_hints import parse_with_hint
+from netcheck.ranges import RANGE_KEYS, check_nominal, parse_range
 from netcheck.source import Span
 from netcheck.units import check_sign
 
@@ -77,6 +78,8 @@ def _value_of(key: str, text: str) -> Any:
 
 def _value_at(key: str, text: str, span: Span | None) -> Any:
     base = key.rsplit(".", 1)[-1]
+    if base in RANGE_KEYS:
+        return parse_range(key, text, span)
     dimension = QUANTITY_KEYS.get(base)
     if dimension is not None:
         quantity = parse_with_hint(text, dimension, span)
@@ -306,6 +309,15 @@ class _Builder:
                 )
         return ()
 
+    def check_range(
+        self, values: dict[str, Any], attributes: list[Attribute], span: Span
+    ) -> None:
+        at = next((a.span for a in attributes if a.key == "range"), span)
+        try:
+            check_nominal(values, at)
+        except InputError as error:
+            self.errors.append(error)
+
     def component(self, statement: ComponentStatement) -> Component | None:
         if statement.kind not in KINDS:
             self.errors.append(
@@ -322,6 +334,8 @@ class _Builder:
         self.check_fixed_terminals(statement, connections)
         poles, elements = self.poles(statement, part, connections)
         values = _merge(self.values_of(part), attributes)
+        if statement.kind == "supply":
+            self.check_range(values, attributes, statement.span)
         tags = frozenset(values.get("tags", ()))
         return Component(
             statement.kind,
