@@ -9,7 +9,7 @@ from netcheck.analysis.arc import ayrton_margin, estimate
 from netcheck.analysis.fitted import element_peak, unsuppressed_loads
 from netcheck.analysis.ratings_tables import has_dc_data
 from netcheck.analysis.switched import ElementAnalysis
-from netcheck.analysis.verdicts import breaks_something
+from netcheck.analysis.verdicts import arrangement_lead, breaks_something
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding, Severity
@@ -139,6 +139,8 @@ def arc_sustain_risk(ctx: CheckContext) -> Iterator[Finding]:
         component = element.component
         if component.kind not in MECHANICAL_KINDS or not breaks_something(element):
             continue
+        if not arrangement_lead(element):
+            continue  # series poles of one device: one estimate, on the first
         if has_dc_data(component.value("contacts")) or element.current is None:
             continue
         if element.voltage is None:
