@@ -29,6 +29,7 @@ from netcheck.checks.making import _MAKING_CATEGORIES
 from netcheck.findings import Finding
 from netcheck.fixes.edits import AddComponent, Edit, Reconnect, SetValues, UsePart
 from netcheck.model import Component, Netlist, Part
+from netcheck.units import Q_
 
 __all__ = ["RULES", "candidates", "e12_up"]
 
@@ -114,10 +115,10 @@ def _protection(netlist: Netlist, finding: Finding) -> Iterator[list[Edit]]:
     fitting = [
         p
         for p in _library(netlist, component)
-        if _at_least(p.data.get("dc_voltage_rating"), volts)
+        if _same_current(component, p)
+        and _at_least(p.data.get("dc_voltage_rating"), volts)
         and _at_least(p.data.get("breaking_capacity"), amps)
     ]
-    # The closest rating first: a much larger fuse protects its wiring less.
     fitting.sort(key=_closest)
     for part in fitting[:MAX_PARTS]:
         yield [_use(component, part)]
@@ -125,9 +126,25 @@ def _protection(netlist: Netlist, finding: Finding) -> Iterator[list[Edit]]:
     if finding.variant in ("ac-only", "voltage") and volts is not None:
         ratings.append(("dc_voltage_rating", _text(volts, "V")))
     if finding.variant in ("ac-only", "capacity") and amps is not None:
-        ratings.append(("breaking_capacity", _text(amps, "A")))
+        unit = "kA" if amps >= Q_(1, "kA") else "A"
+        ratings.append(("breaking_capacity", _text(amps, unit)))
     if ratings:
         yield [SetValues(ref, tuple(ratings))]
+
+
+def _same_current(component: Component, part: Part) -> bool:
+    """Whether ``part`` has the rated current of the device it would replace.
+
+    A fuse of another rated current no longer protects the wiring behind it
+    (a 40 A fuse for a 4 A control circuit); without a stated rated current
+    the library offers nothing and the fix names the ratings instead.
+    """
+    rated, other = component.value("current_rating"), part.data.get("current_rating")
+    if not isinstance(rated, pint.Quantity) or not isinstance(other, pint.Quantity):
+        return False
+    return math.isclose(
+        float(rated.to("A").magnitude), float(other.to("A").magnitude), rel_tol=1e-9
+    )
 
 
 def _closest(part: Part) -> tuple[float, float]:

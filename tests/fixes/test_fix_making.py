@@ -115,8 +115,11 @@ def test_write_then_check_clears_the_battery_findings(
 @pytest.mark.parametrize(
     ("case", "element", "edit"),
     [
-        # 48 V battery, 9.6 kA fault: the 20 kA fuse of the case library.
+        # 48 V battery, 9.6 kA fault: the case library's 4 A fuse of 20 kA,
+        # not its 250 A battery fuse (same rated current only).
         ("protection-dc-capacity/bad-battery-fault.cnet", "F2", UsePart),
+        # A 32 V fuse stating no rated current: the 48 V rating to ask for.
+        ("protection-dc-capacity/bad-dc-voltage.cnet", "F1", SetValues),
         # AC-only fuse, no DC part in the library: the DC ratings to ask for,
         # 110 V and 110 V / 50 mohm = 2.2 kA (hand calculation).
         ("protection-dc-capacity/bad-ac-only-fuse.cnet", "F1", SetValues),
@@ -143,13 +146,25 @@ def test_fix_values_name_the_ratings_that_pass() -> None:
     (fuse,) = [f for f in found if f.rule == "protection-dc-capacity"]
     assert fuse.edits == (
         SetValues(
-            "F1", (("dc_voltage_rating", "110V"), ("breaking_capacity", "2200A"))
+            "F1", (("dc_voltage_rating", "110V"), ("breaking_capacity", "2.2kA"))
         ),
     )
     _, _, found = _verified(CASES / "making-over-rating/bad-motor-start.cnet")
     (motor,) = [f for f in found if f.rule == "making-over-rating"]
     # 4 x 10 A (IEC 60947-4-1 Table 7, DC-3 making at 4 Ie): 40 A.
     assert motor.edits == (SetValues("Q1", (("contacts.making_current", "40A"),)),)
+
+
+def test_a_fuse_of_another_rated_current_is_never_offered() -> None:
+    """The 48 V sample: F2 is a 4 A control fuse; its library's 40 A and 250 A
+    fuses break the 9.6 kA fault but would not protect the control wiring."""
+    _, _, found = _verified(ROOT / "sample_nets/battery-48v/battery-48v.cnet")
+    (fuse,) = [f for f in found if f.rule == "protection-dc-capacity"]
+    assert fuse.verified
+    assert fuse.edits == (SetValues("F2", (("breaking_capacity", "9.6kA"),)),)
+    _, _, found = _verified(CASES / "protection-dc-capacity/bad-battery-fault.cnet")
+    (fuse,) = [f for f in found if f.rule == "protection-dc-capacity"]
+    assert fuse.edits == (UsePart("F2", "fuse-dc-4a-20k"),)
 
 
 def test_reversed_polarized_breaker_is_turned_round() -> None:
