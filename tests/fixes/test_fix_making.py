@@ -22,7 +22,7 @@ import pytest
 
 from netcheck import cli
 from netcheck.findings import Severity
-from netcheck.fixes.edits import AddComponent, SetValues, UsePart
+from netcheck.fixes.edits import AddComponent, Reconnect, SetValues, UsePart
 from netcheck.fixes.propose_making import E12, e12_up
 from netcheck.fixes.verify import Verifier, verify_fixes
 from netcheck.pipeline import analyse_path, run_checks
@@ -125,6 +125,12 @@ def test_write_then_check_clears_the_battery_findings(
         ("protection-dc-capacity/bad-ac-only-fuse.cnet", "F1", SetValues),
         # The RC's own resistor: 2.7 ohm (E12) >= 110 V / 49 A = 2.2449 ohm.
         ("making-over-rating/bad-snubber-discharge.cnet", "K1:13-14", SetValues),
+        # A bare capacitor's discharge: a resistor added in series with it.
+        (
+            "making-over-rating/bad-capacitor-and-resistor-discharge.cnet",
+            "K1:13-14",
+            Reconnect,
+        ),
         # A motor: the making current asked of its DC-3 contactor, 40 A.
         ("making-over-rating/bad-motor-start.cnet", "Q1:1-2", SetValues),
         # A 48 V link with no precharge: a precharge path across Q1.
