@@ -21,6 +21,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Iterator
+from typing import TYPE_CHECKING
 
 import pint
 
@@ -30,6 +31,10 @@ from netcheck.findings import Finding
 from netcheck.fixes.edits import AddComponent, Edit, Reconnect, SetValues, UsePart
 from netcheck.model import Component, Netlist, Part
 from netcheck.units import Q_
+
+if TYPE_CHECKING:  # propose imports this module
+    from netcheck.analysis.switched import ElementAnalysis
+    from netcheck.fixes.propose import Proposer
 
 __all__ = ["RULES", "candidates", "e12_up"]
 
@@ -59,7 +64,7 @@ def _ohm_text(ohms: float) -> str:
     return f"{ohms:g}ohm"
 
 
-def candidates(proposer, finding: Finding) -> Iterator[list[Edit]]:  # type: ignore[no-untyped-def]
+def candidates(proposer: Proposer, finding: Finding) -> Iterator[list[Edit]]:
     """Every candidate fix of ``finding``, most preferred first."""
     if finding.rule == "protection-dc-capacity":
         yield from _protection(proposer.netlist, finding)
@@ -149,16 +154,18 @@ def _same_current(component: Component, part: Part) -> bool:
 
 def _closest(part: Part) -> tuple[float, float]:
     """Breaking capacity, then DC voltage (unknown last), for sorting."""
-    keys = ("breaking_capacity", "dc_voltage_rating")
-    values = [part.data.get(k) for k in keys]
-    return tuple(
-        float(v.to_base_units().magnitude) if isinstance(v, pint.Quantity) else math.inf
-        for v in values
-    )  # type: ignore[return-value]
+
+    def base(key: str) -> float:
+        value = part.data.get(key)
+        if isinstance(value, pint.Quantity):
+            return float(value.to_base_units().magnitude)
+        return math.inf
+
+    return base("breaking_capacity"), base("dc_voltage_rating")
 
 
 # -- making ----------------------------------------------------------------
-def _making(proposer, finding: Finding) -> Iterator[list[Edit]]:  # type: ignore[no-untyped-def]
+def _making(proposer: Proposer, finding: Finding) -> Iterator[list[Edit]]:
     element = proposer.analysis.elements.get(finding.element)
     if element is None:
         return
@@ -195,7 +202,9 @@ def _serves(part: Part, load: Component | None) -> bool:
     return any(str(r.get("category")) in wanted for r in rows if isinstance(r, dict))
 
 
-def _limit_inrush(proposer, element, finding: Finding) -> Iterator[list[Edit]]:  # type: ignore[no-untyped-def]
+def _limit_inrush(
+    proposer: Proposer, element: ElementAnalysis, finding: Finding
+) -> Iterator[list[Edit]]:
     """More resistance in the capacitor's loop, bypassed in service."""
     added = finding.values.get("resistor")
     netlist: Netlist = proposer.netlist
@@ -219,8 +228,8 @@ def _resistance(component: Component) -> float:
 
 
 def _discharge_resistor(
-    proposer, capacitor: Component, ohms: float
-) -> Iterator[list[Edit]]:  # type: ignore[no-untyped-def]
+    proposer: Proposer, capacitor: Component, ohms: float
+) -> Iterator[list[Edit]]:
     """An RC's own resistor raised, or a resistor put in series with a bare C."""
     if capacitor.kind == "rc":
         for value in e12_up(_resistance(capacitor) + ohms):
@@ -244,7 +253,7 @@ def _discharge_resistor(
         ]
 
 
-def _series_resistor(netlist: Netlist, element) -> Component | None:  # type: ignore[no-untyped-def]
+def _series_resistor(netlist: Netlist, element: ElementAnalysis) -> Component | None:
     """A resistor wired in series with the element: they alone share a net."""
     component = element.component
     for terminal in (element.element.a, element.element.b):
@@ -277,7 +286,9 @@ def _larger_resistor(
         yield [SetValues(resistor.ref, (("R", _ohm_text(value)),))]
 
 
-def _precharge_path(proposer, element, ohms: float) -> Iterator[list[Edit]]:  # type: ignore[no-untyped-def]
+def _precharge_path(
+    proposer: Proposer, element: ElementAnalysis, ohms: float
+) -> Iterator[list[Edit]]:
     """A second contact of the same device and a resistor, across the element.
 
     The new contact closes first and charges the capacitor through the
@@ -314,7 +325,7 @@ def _precharge_path(proposer, element, ohms: float) -> Iterator[list[Edit]]:  # 
 
 
 # -- arc estimate ----------------------------------------------------------
-def _arc(proposer, finding: Finding) -> Iterator[list[Edit]]:  # type: ignore[no-untyped-def]
+def _arc(proposer: Proposer, finding: Finding) -> Iterator[list[Edit]]:
     element = proposer.analysis.elements.get(finding.element)
     if element is None:
         return
