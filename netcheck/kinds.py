@@ -110,12 +110,18 @@ _OWN_ATTRIBUTES: dict[str, tuple[str, ...]] = {
     "tvs": ("standoff", "vclamp", "energy", "bidirectional"),
     "varistor": ("vdc_max", "vclamp", "energy", "alpha"),
     "rc": ("R", "C", "voltage_rating"),
-    "fuse": ("dc_voltage_rating", "ac_voltage_rating", "breaking_capacity"),
+    "fuse": (
+        "dc_voltage_rating",
+        "ac_voltage_rating",
+        "breaking_capacity",
+        "current_rating",
+    ),
     "breaker": (
         "dc_voltage_rating",
         "ac_voltage_rating",
         "breaking_capacity",
         "polarized",
+        "current_rating",
     ),
 }
 # The attributes each kind takes inline (``contacts.*``/``coil.*`` come on top

@@ -84,9 +84,22 @@ def _extra(
     return best
 
 
-def _precharge(ctx: CheckContext, charge: Charge, limit: float) -> dict[str, object]:
+def _precharge(
+    ctx: CheckContext, charge: Charge, limit: float, other: float
+) -> dict[str, object]:
+    """The resistance to add so the making current stays within ``limit``.
+
+    ``other``: the current through the contact at closing besides this
+    capacitor's (a load on the contact's far side), which the resistor
+    does not limit.
+    """
     step, loop = abs(charge.step), charge.loop or 0.0
-    added = max(step / limit - loop, 0.0)
+    if limit - other <= 0:
+        return {
+            "resistor": None, "tau": None, "t95": None, "pulse_power": None,
+            "pulse": Q_(0.5 * charge.capacitance * step**2, "J"),
+        }  # fmt: skip
+    added = max(step / (limit - other) - loop, 0.0)
     tau = (added + loop) * charge.capacitance
     return {
         "resistor": Q_(added, "ohm"),
@@ -104,6 +117,8 @@ def _capacitive(ctx, element, inrush: Inrush, allowed, basis, severity) -> Findi
     limit = float(allowed.to("A").magnitude) / ctx.option("making-current")
     making = Q_(inrush.peak, "A")
     variant = "discharge" if charge.step < 0 else "capacitive"
+    own = abs(charge.step) / charge.loop if charge.loop else 0.0
+    other = max(inrush.peak - own, 0.0)
     return ctx.finding(
         element, message=variant, fix=variant, severity=severity,
         capacitor=charge.ref, capacitance=Q_(charge.capacitance, "F"),
@@ -111,7 +126,7 @@ def _capacitive(ctx, element, inrush: Inrush, allowed, basis, severity) -> Findi
         loop=Q_(charge.loop or 0.0, "ohm"),
         making=making, allowed=allowed, basis=basis,
         making_needed=making * ctx.option("making-current"),
-        **_precharge(ctx, charge, limit),
+        **_precharge(ctx, charge, limit, other),
     )  # fmt: skip
 
 

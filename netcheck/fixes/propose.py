@@ -18,6 +18,7 @@ import pint
 from netcheck.analysis.result import Analysis
 from netcheck.catalogue import all_margins, load_catalogue
 from netcheck.findings import Finding
+from netcheck.fixes import propose_making
 from netcheck.fixes.clamp_fixes import lower_clamp
 from netcheck.fixes.edits import AddComponent, Edit, Reconnect, SetValues, UsePart
 from netcheck.fixes.propose_more import more_candidates
@@ -118,6 +119,8 @@ class Proposer:
         if finding.rule in _PART_RULES:
             yield from self._other_parts(finding)
         yield from more_candidates(self, finding)
+        if finding.rule in propose_making.RULES:
+            yield from propose_making.candidates(self, finding)
 
     # -- suppression across the loads ------------------------------------
     def _suppress(self, finding: Finding) -> Iterator[list[Edit]]:

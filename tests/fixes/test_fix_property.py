@@ -98,4 +98,6 @@ def test_share_of_verified_fixes_is_measured() -> None:
     # 105 of 177 (0.59) once a diode on AC is removed (Remove edit) and a part
     # missing data or resting on the V/n assumption may use a library part that
     # has them (fixes/propose_more.py).
-    assert verified / total >= 0.58
+    # With machine edits for those three rules too (precharge paths, library
+    # parts, ratings, series poles): 128 of 188 (0.68), so the floor is 0.65.
+    assert verified / total >= 0.65
