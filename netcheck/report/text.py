@@ -21,6 +21,7 @@ from netcheck.catalogue import RuleMeta
 from netcheck.coverage import MISSING_DATA, NOT_ANALYSED
 from netcheck.findings import Finding, Severity, quantity_dict
 from netcheck.report import CAUTION, Report, fix_note, unique_rules
+from netcheck.report.edit_words import edit_lines
 from netcheck.report.template_words import readable
 
 __all__ = [
@@ -72,7 +73,10 @@ def _detail_lines(finding: Finding) -> list[str]:
     values = _values_text(finding)
     lines = [f"    values: {values}"] if values else []
     if finding.fix:
-        lines.append(f"    fix: {_one_line(finding.fix)}")
+        note = fix_note(finding)
+        suffix = f" ({note})" if note else ""
+        lines.append(f"    fix: {_one_line(finding.fix)}{suffix}")
+        lines += edit_lines(finding.edits)
     return lines
 
 
@@ -200,6 +204,8 @@ def _finding_table(group: list[Finding]) -> Table:
             note = fix_note(finding)
             if note:
                 body.append(f" ({note})", "dim")
+            for line in edit_lines(finding.edits, indent=""):
+                body.append("\n" + line, "green")
         label = Text(finding.severity.label, STYLES[finding.severity])
         table.add_row(label, body)
     return table
