@@ -1,7 +1,9 @@
 """Verify fixes: apply the edits to a copy of the design and check it again.
 
 A fix is verified only when, with its edits applied, the finding it fixes is
-gone and no error appears that the design did not have. Candidates are tried
+gone and no error appears that the design did not have. Only the part of the
+design the edits can affect is re-checked (:mod:`netcheck.fixes.locality`):
+findings elsewhere cannot change. Candidates are tried
 in order of preference; the first that verifies is the one shown. A fix none
 of whose candidates verifies keeps its text and is marked unverified.
 """
@@ -15,6 +17,7 @@ from netcheck.analysis.elements import Analysis, analyse
 from netcheck.errors import InputError, InputErrors
 from netcheck.findings import Finding, Severity
 from netcheck.fixes.edits import AddComponent, Edit, apply_edits
+from netcheck.fixes.locality import Cut, Locality
 from netcheck.fixes.propose import Proposer, rating_attribute
 from netcheck.graph import build_graph
 from netcheck.model import Netlist
@@ -22,10 +25,18 @@ from netcheck.model import Netlist
 __all__ = ["Verifier", "verify_fixes", "identity"]
 
 MAX_CANDIDATES = 12  # candidates per finding
-# Re-checks of one design during ``check``: each is a full analysis, so a large
-# design with many findings would otherwise cost findings x candidates analyses.
+# Work of the re-checks of one design during ``check``, in components
+# re-analysed: WORK_FACTOR times the design's size plus WORK_FLOOR, so the cost
+# stays linear in the design and small designs verify every fix.
 # ``netcheck fix`` lifts the budget (None).
-CHECK_BUDGET = 64
+WORK_FACTOR = 4
+WORK_FLOOR = 5000
+DESIGN_BUDGET = -1  # verify_fixes: the budget of work_budget()
+
+
+def work_budget(netlist: Netlist) -> int:
+    """Components ``check`` may re-analyse verifying the fixes of ``netlist``."""
+    return WORK_FACTOR * len(netlist.components) + WORK_FLOOR
 
 
 def identity(finding: Finding) -> tuple[str, str, str]:
@@ -35,38 +46,59 @@ def identity(finding: Finding) -> tuple[str, str, str]:
 
 @dataclass
 class Verifier:
-    """Re-checks one design with candidate edits applied, memoised by edits."""
+    """Re-checks one design with candidate edits applied, memoised by edits.
+
+    ``locality`` cuts out the part of the design the edits touch; without one
+    the whole design is re-checked (the reference the tests compare with).
+    ``budget`` and ``spent`` count components re-analysed.
+    """
 
     netlist: Netlist
     findings: Sequence[Finding]
     margins: Mapping[str, float]
     budget: int | None = None
+    locality: Locality | None = None
     spent: int = 0
-    _results: dict[tuple[Edit, ...], list[Finding] | None] = field(default_factory=dict)
+    refused: bool = False
+    _results: dict[tuple[Edit, ...], tuple[list[Finding], Cut] | None] = field(
+        default_factory=dict
+    )
 
     def recheck(self, edits: Sequence[Edit]) -> list[Finding] | None:
-        """The findings of the edited design, or None if the edits do not build."""
+        """The findings of the edited part, or None if the edits do not build."""
+        result = self._result(edits)
+        return None if result is None else result[0]
+
+    def _result(self, edits: Sequence[Edit]) -> tuple[list[Finding], Cut] | None:
         key = tuple(edits)
         if key not in self._results:
-            if self.exhausted:
+            cut = self._cut(edits)
+            if self.budget is not None and self.spent + cut.size > self.budget:
+                self.refused = True
                 return None
-            self.spent += 1
-            self._results[key] = self._run(edits)
+            self.spent += cut.size
+            self._results[key] = self._run(cut, edits)
         return self._results[key]
+
+    def _cut(self, edits: Sequence[Edit]) -> Cut:
+        if self.locality is None:
+            everything = {c.ref for c in self.netlist.components}
+            return Cut(self.netlist, frozenset(everything))
+        return self.locality.cut(edits)
 
     @property
     def exhausted(self) -> bool:
-        """Whether the re-check budget is spent."""
-        return self.budget is not None and self.spent >= self.budget
+        """Whether a re-check was refused for want of budget."""
+        return self.refused
 
-    def _run(self, edits: Sequence[Edit]) -> list[Finding] | None:
+    def _run(self, cut: Cut, edits: Sequence[Edit]) -> tuple[list[Finding], Cut] | None:
         from netcheck.pipeline import run_checks  # the pipeline calls this module
 
         try:
-            edited = apply_edits(self.netlist, edits)
+            edited = apply_edits(cut.netlist, edits)
         except (InputError, InputErrors, ValueError, KeyError):
             return None
-        return run_checks(edited, analyse(build_graph(edited)), self.margins)
+        return run_checks(edited, analyse(build_graph(edited)), self.margins), cut
 
     def refined(self, edits: list[Edit]) -> list[Edit]:
         """The edits with each added part rated at what the re-check asks of it.
@@ -100,9 +132,16 @@ class Verifier:
         return needs
 
     def passes(self, finding: Finding, edits: Sequence[Edit]) -> bool:
-        """The finding is gone and no new error appears."""
-        after = self.recheck(edits)
-        if after is None:
+        """The finding is gone and no new error appears.
+
+        A finding outside the re-checked part stays as it was, so it is not
+        gone; errors outside are unchanged, so none of them is new.
+        """
+        result = self._result(edits)
+        if result is None:
+            return False
+        after, cut = result
+        if self.locality is not None and not cut.decides(finding.element):
             return False
         before = {identity(f) for f in self.findings if f.waived is None}
         target = identity(finding)
@@ -143,12 +182,15 @@ def verify_fixes(
     analysis: Analysis,
     findings: Sequence[Finding],
     margins: Mapping[str, float] = {},
-    budget: int | None = CHECK_BUDGET,
+    budget: int | None = DESIGN_BUDGET,
+    local: bool = True,
 ) -> list[Finding]:
     """The findings, each fix given its verified edits (or marked unverified).
 
-    Fixes left when the re-check ``budget`` is spent keep their first candidate
-    and ``verified`` None: not checked, rather than checked and failed.
+    ``budget`` counts components re-analysed: DESIGN_BUDGET is :func:`work_budget`, None
+    no limit. Fixes left when it is spent keep their first candidate and
+    ``verified`` None: not checked, rather than checked and failed. ``local``
+    False re-checks the whole design each time (the reference for the tests).
 
     A finding that is a consequence of another (a contact "breaking" the short
     of a reversed diode) has no fix of its own that works; the verified edits
@@ -156,7 +198,10 @@ def verify_fixes(
     so this costs nothing more.
     """
     proposer = Proposer(netlist, analysis, dict(margins))
-    verifier = Verifier(netlist, findings, margins, budget)
+    if budget == DESIGN_BUDGET:
+        budget = work_budget(netlist)
+    locality = Locality(netlist, analysis.graph) if local else None
+    verifier = Verifier(netlist, findings, margins, budget, locality)
     chosen: dict[int, list[Edit]] = {}
     unchecked: set[int] = set()
     firsts: dict[int, list[Edit] | None] = {}
