@@ -73,10 +73,11 @@ class Verifier:
         key = tuple(edits)
         if key not in self._results:
             cut = self._cut(edits)
-            if self.budget is not None and self.spent + cut.size > self.budget:
+            cost = cut.size + sum(isinstance(e, AddComponent) for e in edits)
+            if self.budget is not None and self.spent + cost > self.budget:
                 self.refused = True
                 return None
-            self.spent += cut.size
+            self.spent += cost
             self._results[key] = self._run(cut, edits)
         return self._results[key]
 
