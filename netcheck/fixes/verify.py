@@ -172,6 +172,8 @@ def _first_passing(
         if count >= MAX_CANDIDATES:
             break
         first = first if first is not None else edits
+        if verifier.exhausted:
+            break  # past the budget: the first candidate, not checked
         edits = verifier.refined(edits)
         if verifier.passes(finding, edits):
             return first, edits
@@ -188,10 +190,11 @@ def verify_fixes(
 ) -> list[Finding]:
     """The findings, each fix given its verified edits (or marked unverified).
 
-    ``budget`` counts components re-analysed: DESIGN_BUDGET is :func:`work_budget`, None
-    no limit. Fixes left when it is spent keep their first candidate and
-    ``verified`` None: not checked, rather than checked and failed. ``local``
-    False re-checks the whole design each time (the reference for the tests).
+    ``budget`` counts components re-analysed: DESIGN_BUDGET is
+    :func:`work_budget`, None no limit. Fixes left when it is spent keep their
+    first candidate and ``verified`` None: not checked, rather than checked and
+    failed. ``local`` False re-checks the whole design each time (the
+    reference for the tests).
 
     A finding that is a consequence of another (a contact "breaking" the short
     of a reversed diode) has no fix of its own that works; the verified edits
