@@ -285,7 +285,8 @@ def fix_dict(
         "text": finding.fix,
         "values": values,
         "edits": [edit_dict(edit) for edit in finding.edits],
-        "verified": bool(finding.verified),
+        # None (JSON null): not re-checked, the design's re-check budget spent.
+        "verified": finding.verified,
     }
 
 
