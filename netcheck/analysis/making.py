@@ -17,6 +17,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from netcheck.analysis.closing_net import mna_system
 from netcheck.analysis.domain import DomainState
 from netcheck.analysis.elements import Analysis
 from netcheck.analysis.switched import ElementAnalysis
@@ -78,26 +79,8 @@ class _Net:
 
     def solve(self) -> tuple[dict[str, float], dict[str, float]]:
         """Node potentials and source currents (into ``plus`` from outside)."""
-        n, m = len(self.nodes), len(self.sources)
-        matrix, rhs = np.zeros((n + m, n + m)), np.zeros(n + m)
-        index = self.nodes.get
-        for a, b, ohms in self.resistors:
-            if a == b:
-                continue
-            g = 1.0 / ohms
-            for x, y in ((a, b), (b, a)):
-                i, j = index(x), index(y)
-                if i is not None:
-                    matrix[i, i] += g
-                    if j is not None:
-                        matrix[i, j] -= g
-        for k, (plus, minus, volts, _key) in enumerate(self.sources):
-            for node, sign in ((plus, 1.0), (minus, -1.0)):
-                i = index(node)
-                if i is not None:
-                    matrix[i, n + k] += sign
-                    matrix[n + k, i] += sign
-            rhs[n + k] = volts
+        n = len(self.nodes)
+        matrix, rhs = mna_system(self.nodes, self.resistors, self.sources)
         solution = np.linalg.lstsq(matrix, rhs, rcond=None)[0]
         potentials = {name: float(solution[i]) for name, i in self.nodes.items()}
         potentials[self.ground] = 0.0
