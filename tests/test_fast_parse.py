@@ -204,7 +204,7 @@ _ODD = [
 ]
 
 
-def _recording_grammar(calls: list):
+def _counting_grammar(calls: list):
     from netcheck.input.cnet.parse import _grammar_statements
 
     def grammar(text: str, lines: int):
@@ -218,7 +218,7 @@ def _recording_grammar(calls: list):
 def test_only_the_odd_statement_goes_to_the_grammar(odd):
     text = f"# top\nload H1 1:a 2:b\n\n{odd}\n# c\nload H2\n  1:a 2:b\n"
     calls: list = []
-    statements = fast_statements(text, "t.cnet", _recording_grammar(calls))
+    statements = fast_statements(text, "t.cnet", _counting_grammar(calls))
     assert statements is not None
     assert tuple(statements) == _grammar(text, "t.cnet")
     assert calls == [(odd, 3)]  # its own lines, after the file's first three
@@ -231,7 +231,7 @@ def test_an_error_in_an_odd_statement_is_worded_for_the_whole_file():
     # is then read by the grammar, every error worded and placed as before.
     text = "load H1 1:a 2:b\nrelay title 13 :a\nload H2 1:a 2 :b\n"
     calls: list = []
-    assert fast_statements(text, "t.cnet", _recording_grammar(calls)) is None
+    assert fast_statements(text, "t.cnet", _counting_grammar(calls)) is None
     assert len(calls) == 1
     errors = _reader(text, "t.cnet")
     assert errors == _grammar(text, "t.cnet")

@@ -25,7 +25,6 @@ from netcheck.analysis.si import si
 from netcheck.graph import COIL, CONDUCTOR, LOAD, SUPPLY, SWITCH, Branch
 
 __all__ = [
-    "mna_system",
     "Net",
     "Blocks",
     "blocks_of",
@@ -37,39 +36,6 @@ __all__ = [
 # A supply with no r_int is given this internal resistance (ohm).
 R_IDEAL = 1e-6
 R_LEAK = 1e12  # ohm, every node to the reference (the usual SPICE remedy)
-
-
-def mna_system(
-    nodes: dict[str, int],
-    resistors: list[tuple[str, str, float]],
-    sources: list[tuple[str, str, float, str]],
-) -> tuple[np.ndarray, np.ndarray]:
-    """Modified nodal analysis: resistors and ideal voltage sources stamped.
-
-    ``nodes`` maps a net to its row (the reference net is not in it); each
-    source adds a row for its current (into ``plus`` from outside).
-    """
-    n, m = len(nodes), len(sources)
-    matrix, rhs = np.zeros((n + m, n + m)), np.zeros(n + m)
-    index = nodes.get
-    for a, b, ohms in resistors:
-        if a == b:
-            continue
-        g = 1.0 / ohms
-        for x, y in ((a, b), (b, a)):
-            i, j = index(x), index(y)
-            if i is not None:
-                matrix[i, i] += g
-                if j is not None:
-                    matrix[i, j] -= g
-    for k, (plus, minus, volts, _key) in enumerate(sources):
-        for node, sign in ((plus, 1.0), (minus, -1.0)):
-            i = index(node)
-            if i is not None:
-                matrix[i, n + k] += sign
-                matrix[n + k, i] += sign
-        rhs[n + k] = volts
-    return matrix, rhs
 
 
 class Net:
@@ -106,7 +72,26 @@ class Net:
 
     def system(self) -> tuple[np.ndarray, np.ndarray]:
         """The modified-nodal matrix and right-hand side."""
-        matrix, rhs = mna_system(self.nodes, self.resistors, self.sources)
+        n, m = len(self.nodes), len(self.sources)
+        matrix, rhs = np.zeros((n + m, n + m)), np.zeros(n + m)
+        index = self.nodes.get
+        for a, b, ohms in self.resistors:
+            if a == b:
+                continue
+            g = 1.0 / ohms
+            for x, y in ((a, b), (b, a)):
+                i, j = index(x), index(y)
+                if i is not None:
+                    matrix[i, i] += g
+                    if j is not None:
+                        matrix[i, j] -= g
+        for k, (plus, minus, volts, _key) in enumerate(self.sources):
+            for node, sign in ((plus, 1.0), (minus, -1.0)):
+                i = index(node)
+                if i is not None:
+                    matrix[i, n + k] += sign
+                    matrix[n + k, i] += sign
+            rhs[n + k] = volts
         for ports, y in self.stamps:
             at = [self.nodes[p] for p in ports]
             matrix[np.ix_(at, at)] += y

@@ -15,21 +15,17 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-import numpy as np
-
-from netcheck.analysis.closing_net import mna_system
+from netcheck.analysis.closing_net import R_IDEAL, R_LEAK, Net, network_ohms
 from netcheck.analysis.domain import DomainState
 from netcheck.analysis.elements import Analysis
 from netcheck.analysis.switched import ElementAnalysis
-from netcheck.graph import COIL, CONDUCTOR, LOAD, SUPPLY, SWITCH, Branch
+from netcheck.graph import CONDUCTOR, LOAD, SUPPLY, SWITCH, Branch
 
 __all__ = ["Inrush", "Charge", "closing_inrush", "R_IDEAL", "UNBOUNDED_LOOP"]
 
-# A supply with no r_int is given this internal resistance (ohm); a loop below
-# UNBOUNDED_LOOP is "limited only by the wiring" (None), never a number.
-R_IDEAL = 1e-6
+# A loop below UNBOUNDED_LOOP is "limited only by the wiring" (None), never a
+# number (a supply with no r_int is given R_IDEAL, closing_net.py).
 UNBOUNDED_LOOP = 1e-3
-R_LEAK = 1e12  # ohm, every node to the reference (the usual SPICE remedy)
 # A domain of up to this many branches is solved whole (one dense system per
 # closing); a larger one is cut at its rails into blocks (``making_cut.py``),
 # which gives the same currents at a cost that grows with the rung, not the
@@ -56,54 +52,12 @@ class Inrush:
     charges: tuple[Charge, ...]
 
 
-class _Net:
-    """A linear network: resistors and ideal voltage sources between nets."""
-
-    def __init__(self, ground: str) -> None:
-        self.ground = ground
-        self.nodes: dict[str, int] = {}
-        self.resistors: list[tuple[str, str, float]] = []
-        self.sources: list[tuple[str, str, float, str]] = []  # plus, minus, V, key
-
-    def node(self, name: str) -> None:
-        if name != self.ground and name not in self.nodes:
-            self.nodes[name] = len(self.nodes)
-
-    def resistor(self, a: str, b: str, ohms: float) -> None:
-        self.node(a), self.node(b)
-        self.resistors.append((a, b, ohms))
-
-    def source(self, plus: str, minus: str, volts: float, key: str = "") -> None:
-        self.node(plus), self.node(minus)
-        self.sources.append((plus, minus, volts, key))
-
-    def solve(self) -> tuple[dict[str, float], dict[str, float]]:
-        """Node potentials and source currents (into ``plus`` from outside)."""
-        n = len(self.nodes)
-        matrix, rhs = mna_system(self.nodes, self.resistors, self.sources)
-        solution = np.linalg.lstsq(matrix, rhs, rcond=None)[0]
-        potentials = {name: float(solution[i]) for name, i in self.nodes.items()}
-        potentials[self.ground] = 0.0
-        currents = {s[3]: float(solution[n + k]) for k, s in enumerate(self.sources)}
-        return potentials, currents
-
-
-def _ohms(state: DomainState, branch: Branch) -> float | None:
-    if branch.role in (LOAD, COIL):
-        value = state.facts[branch.key].resistance
-    elif branch.kind == "resistor":
-        value = branch.component.value("R")
-    else:
-        return None
-    return float(value.to("ohm").magnitude) if value is not None else None
-
-
 def _network(
     state: DomainState,
     shut: frozenset[str],
     held: dict[str, float] | None,
     loads: bool = True,
-) -> _Net:
+) -> Net:
     """The domain with the switches in ``shut`` closed and the others open.
 
     ``held``: capacitors as sources at these voltages (None: open, as in DC);
@@ -111,7 +65,7 @@ def _network(
     link is up). Every node leaks to the reference through 1 Tohm so that a
     capacitor cut off from the supply sits empty, as it does at power-up.
     """
-    net = _Net(state.supplies[0].b)
+    net = Net(state.supplies[0].b)
     for branch in state.domain.branches:
         key = branch.key
         net.resistor(branch.a, net.ground, R_LEAK)
@@ -126,12 +80,12 @@ def _network(
                 _held_capacitor(net, branch, held.get(key, 0.0))
         elif branch.role == LOAD and not loads:
             continue
-        elif (ohms := _ohms(state, branch)) is not None:
+        elif (ohms := network_ohms(state, branch)) is not None:
             net.resistor(branch.a, branch.b, ohms)
     return net
 
 
-def _held_capacitor(net: _Net, branch: Branch, volts: float) -> None:
+def _held_capacitor(net: Net, branch: Branch, volts: float) -> None:
     series = branch.component.value("R") if branch.kind == "rc" else None
     ohms = float(series.to("ohm").magnitude) if series is not None else 0.0
     middle = f"{branch.key}:c"
@@ -147,7 +101,7 @@ def _capacitors(state: DomainState) -> list[Branch]:
     ]
 
 
-def _voltages(net: _Net, caps: list[Branch]) -> dict[str, float]:
+def _voltages(net: Net, caps: list[Branch]) -> dict[str, float]:
     potentials, _ = net.solve()
     return {c.key: potentials.get(c.a, 0.0) - potentials.get(c.b, 0.0) for c in caps}
 

@@ -24,6 +24,7 @@ import numpy as np
 import pytest
 from helpers import net
 
+import netcheck.analysis.closing_net as closing_net
 import netcheck.analysis.making as making
 from netcheck.analysis.closing_net import blocks_of
 from netcheck.analysis.making import closing_inrush
@@ -63,9 +64,9 @@ def _both(analysis, name, monkeypatch):  # type: ignore[no-untyped-def]
     element = analysis.elements[name]
     ROUGH.clear()
     monkeypatch.setattr(making, "DENSE_BRANCHES", 10**9)
-    monkeypatch.setattr(making, "np", EXACT)
+    monkeypatch.setattr(closing_net, "np", EXACT)  # the dense solve only
     dense = closing_inrush(analysis, element)
-    monkeypatch.setattr(making, "np", np)
+    monkeypatch.setattr(closing_net, "np", np)
     monkeypatch.setattr(making, "DENSE_BRANCHES", -1)
     for state in analysis.states.values():
         state.cache.clear()
