@@ -7,6 +7,7 @@ import hashlib
 import string
 from collections.abc import Mapping
 from dataclasses import dataclass, field
+from functools import lru_cache
 from typing import Any
 
 import pint
@@ -35,9 +36,28 @@ class Severity(enum.IntEnum):
         return cls[text.upper()]
 
 
+# Formatted quantities by (units, magnitude type, magnitude): a heavy report
+# words the same few values thousands of times. Zero is left out (0.0 and
+# -0.0 are one key but print differently).
+_FORMATTED: dict[tuple[Any, type, Any], str] = {}
+
+
+def _quantity_text(value: pint.Quantity) -> str:
+    magnitude = value._magnitude
+    if type(magnitude) not in (float, int) or not magnitude:
+        return format_quantity(value)
+    key = (value._units, type(magnitude), magnitude)
+    text = _FORMATTED.get(key)
+    if text is None:
+        if len(_FORMATTED) > 100_000:
+            _FORMATTED.clear()
+        text = _FORMATTED[key] = format_quantity(value)
+    return text
+
+
 def _text(value: Any) -> str:
     if isinstance(value, pint.Quantity):
-        return format_quantity(value)
+        return _quantity_text(value)
     if isinstance(value, float):
         return f"{value:.4g}"
     if isinstance(value, (list, tuple, frozenset, set)):
@@ -58,7 +78,7 @@ def fill_template(
     """
     absent = absent or {}
     out = []
-    for literal, name, _spec, _conv in string.Formatter().parse(template):
+    for literal, name in _parsed(template):
         out.append(literal)
         if name is None:
             continue
@@ -67,6 +87,12 @@ def fill_template(
         value = values[name]
         out.append(_text(value) if value is not None else _absent(name, values, absent))
     return "".join(out)
+
+
+@lru_cache(maxsize=1024)
+def _parsed(template: str) -> tuple[tuple[str, str | None], ...]:
+    """A template's (literal, placeholder name) pieces, parsed once per text."""
+    return tuple((lit, name) for lit, name, _, _ in string.Formatter().parse(template))
 
 
 def _absent(

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from collections.abc import Iterator
 
-from netcheck.analysis.clamp_order import internal_clamp_takes, zener_below
+from netcheck.analysis.clamp_order import zener_below
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding
@@ -16,7 +16,7 @@ __all__ = ["internal_clamp_overloaded"]
 def internal_clamp_overloaded(ctx: CheckContext) -> Iterator[Finding]:
     """Flag outputs whose internal clamp takes energy meant for an external clamp."""
     for element in ctx.switching_elements(supply="dc"):
-        clamp = internal_clamp_takes(element)
+        clamp = ctx.internal_clamp(element)
         if clamp is None or not clamp.overloaded:
             continue
         limit = zener_below(element, clamp.voltage)

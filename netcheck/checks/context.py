@@ -17,19 +17,37 @@ import pint
 from netcheck.analysis import fault
 from netcheck.analysis import fitted as fitting
 from netcheck.analysis import shorts as short_circuits
+from netcheck.analysis.clamp_order import InternalClamp, internal_clamp_takes
 from netcheck.analysis.elements import Analysis
 from netcheck.analysis.ratings import Assessment
 from netcheck.analysis.supplies import SUPPLY_NOTES, ranged_supply
 from netcheck.analysis.switched import ElementAnalysis
+from netcheck.analysis.transients import OpeningTransient
 from netcheck.analysis.verdicts import breaks_something
 from netcheck.catalogue import RuleMeta, all_margins
 from netcheck.findings import Finding, Severity
 from netcheck.graph import Branch, Domain, Graph
 from netcheck.model import Component, Netlist
+from netcheck.ranges import ValueRange
 
-__all__ = ["CheckContext", "Anchor"]
+__all__ = ["CheckContext", "Anchor", "quantity_like"]
 
 Anchor = ElementAnalysis | Component | tuple[Component, str]
+
+
+def quantity_like(value: pint.Quantity, magnitude: Any) -> pint.Quantity:
+    """A quantity of ``magnitude`` in the units of ``value``.
+
+    What pint's ``value * k`` and ``value / k`` build for a plain number
+    ``k`` (magnitude op k, the units kept), made without pint's dispatch.
+    """
+    if type(magnitude) is not float:
+        return type(value)(magnitude, value._units)
+    # Quantity.__new__ stores a float magnitude and a units container as given.
+    made = object.__new__(type(value))
+    made._magnitude = magnitude
+    made._units = value._units
+    return made
 
 
 @dataclass
@@ -49,9 +67,14 @@ class CheckContext:
         self, supply: str | None = None
     ) -> Iterator[ElementAnalysis]:
         """Switching elements sorted by name, optionally of one supply kind."""
-        for element in self.analysis.sorted_elements():
-            if supply is None or element.supply == supply:
-                yield element
+        # Every check walks these; sorted and filtered once per design.
+        return iter(self._memo(f"elements:{supply}", lambda: self._elements(supply)))
+
+    def _elements(self, supply: str | None) -> tuple[ElementAnalysis, ...]:
+        ordered = self._memo("elements:None", self.analysis.sorted_elements)
+        if supply is None:
+            return tuple(ordered)
+        return tuple(e for e in ordered if e.supply == supply)
 
     def components(self, *kinds: str) -> Iterator[Component]:
         """Components of the given kinds (all if none), in file order."""
@@ -80,6 +103,13 @@ class CheckContext:
         """Every net with its connections, sorted by name."""
         for net in sorted(self.graph.connections):
             yield net, self.graph.connections[net]
+
+    def _ranged(self, component: Component) -> tuple[str, ValueRange] | None:
+        """``ranged_supply`` of a component, looked up once per component."""
+        ranged = self._memo("ranged", dict)
+        if component.ref not in ranged:
+            ranged[component.ref] = ranged_supply(self.graph, component)
+        return ranged[component.ref]  # type: ignore[no-any-return]
 
     def _memo(self, name: str, compute: Callable[[], Any]) -> Any:
         if name not in self.memo:
@@ -130,15 +160,47 @@ class CheckContext:
 
     def verdict(self, element: ElementAnalysis) -> Assessment | None:
         """The rating verdict of an element that breaks a current (series poles too)."""
-        if not breaks_something(element):
-            return None
-        return self.analysis.verdict(element)
+        verdicts = self._memo("verdicts", dict)
+        name = element.name
+        if name not in verdicts:
+            breaks = breaks_something(element)
+            verdicts[name] = self.analysis.verdict(element) if breaks else None
+        return verdicts[name]  # type: ignore[no-any-return]
+
+    def element_peak(self, element: ElementAnalysis) -> OpeningTransient | None:
+        """The opening transient the element itself sees, computed once each."""
+        peaks = self._memo("peaks", dict)
+        name = element.name
+        if name not in peaks:
+            peaks[name] = fitting.element_peak(element)
+        return peaks[name]  # type: ignore[no-any-return]
+
+    def internal_clamp(self, element: ElementAnalysis) -> InternalClamp | None:
+        """``internal_clamp_takes`` of an output, computed once each."""
+        clamps = self._memo("internal-clamps", dict)
+        name = element.name
+        if name not in clamps:
+            clamps[name] = internal_clamp_takes(element)
+        return clamps[name]  # type: ignore[no-any-return]
 
     def option(self, name: str) -> float:
         """A margin: from configuration, else the rule YAML's default."""
-        if name in self.margins:
-            return float(self.margins[name])
-        return all_margins(self.catalogue)[name].default
+        options = self._memo("options", dict)
+        if name not in options:
+            if name in self.margins:
+                options[name] = float(self.margins[name])
+            else:
+                options[name] = all_margins(self.catalogue)[name].default
+        return options[name]  # type: ignore[no-any-return]
+
+    def scaled(self, value: pint.Quantity, margin: str) -> pint.Quantity:
+        """``value * self.option(margin)``, bit for bit, without pint's operator.
+
+        pint multiplies a quantity by a number as magnitude times number in
+        the quantity's own units; the rules do this for every rating they
+        judge, so it is worth skipping pint's dispatch.
+        """
+        return quantity_like(value, value._magnitude * self.option(margin))
 
     def finding(
         self,
@@ -169,7 +231,7 @@ class CheckContext:
         else:
             component, element = anchor, anchor.ref
         note = ""
-        ranged = ranged_supply(self.graph, component)
+        ranged = self._ranged(component)
         if ranged is not None and any(
             isinstance(v, pint.Quantity) for v in values.values()
         ):

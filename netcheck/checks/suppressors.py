@@ -8,14 +8,13 @@ import pint
 
 from netcheck.analysis.clamp_order import (
     external_suppressors,
-    internal_clamp_takes,
     zener_below,
 )
-from netcheck.analysis.fitted import Fitted, element_peak
+from netcheck.analysis.fitted import Fitted
 from netcheck.analysis.switched import ElementAnalysis
 from netcheck.analysis.transients import OpeningTransient
 from netcheck.analysis.verdicts import arrangement_lead
-from netcheck.checks.context import CheckContext
+from netcheck.checks.context import CheckContext, quantity_like
 from netcheck.checks.registry import check
 from netcheck.findings import Finding
 from netcheck.kinds import MECHANICAL_KINDS, SEMICONDUCTOR_KINDS
@@ -37,12 +36,12 @@ def _needs(ctx: CheckContext, fitted: Fitted, part: Component):  # type: ignore[
     if part.kind == "diode":
         yield (
             "reverse voltage",
-            v * ctx.option("diode-reverse-voltage"),
+            ctx.scaled(v, "diode-reverse-voltage"),
             part.value("voltage_rating"),
         )
         yield (
             "forward current",
-            i * ctx.option("diode-current"),
+            ctx.scaled(i, "diode-current"),
             part.value("current_rating"),
         )
     elif part.kind == "zener" and opening is not None:
@@ -55,12 +54,12 @@ def _needs(ctx: CheckContext, fitted: Fitted, part: Component):  # type: ignore[
             yield "energy per opening", needed, part.value("energy")
     elif part.kind in ("varistor", "tvs") and energy is not None:
         margin = "varistor-energy" if part.kind == "varistor" else "tvs-energy"
-        yield "energy per opening", energy * ctx.option(margin), part.value("energy")
+        yield "energy per opening", ctx.scaled(energy, margin), part.value("energy")
     elif part.kind in ("capacitor", "rc") and opening is not None:
         peak = opening.suppressor_peak_voltage
         rated = part.value("voltage_rating")
         if rated is None or rated >= peak:  # above the rating: peak-voltage-over-rating
-            yield "voltage rating", peak * ctx.option("capacitor-voltage"), rated
+            yield "voltage rating", ctx.scaled(peak, "capacitor-voltage"), rated
 
 
 def _missing(
@@ -187,9 +186,9 @@ def peak_voltage_over_rating(ctx: CheckContext) -> Iterator[Finding]:
         rated = element.component.value("voltage_max")
         if element.component.kind not in SEMICONDUCTOR_KINDS or rated is None:
             continue
-        opening = element_peak(element)
+        opening = ctx.element_peak(element)
         peak = opening.peak_voltage if opening is not None else element.voltage
-        internal = internal_clamp_takes(element)
+        internal = ctx.internal_clamp(element)
         if internal is not None:  # the output's own clamp conducts first
             peak = internal.voltage
         if peak is not None and peak > rated:
@@ -253,10 +252,11 @@ def _contact_peaks(
             continue
         if element.voltage is None or element.voltage > rated:
             continue
-        opening = element_peak(element)
+        opening = ctx.element_peak(element)
         if opening is None or opening.kind == "none":
             continue
-        peak = opening.peak_voltage / max(element.series_poles, 1)
+        peak = opening.peak_voltage
+        peak = quantity_like(peak, peak._magnitude / max(element.series_poles, 1))
         if peak > rated:
             yield element, peak, rated
 
