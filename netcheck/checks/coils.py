@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from collections.abc import Iterator
 
-from netcheck.analysis.supplies import ranged_supply
+from netcheck.analysis.si import ratio as si_ratio
 from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding
@@ -20,7 +20,7 @@ DEFAULT_RANGE = (0.85, 1.10)
 
 
 def _coils(ctx: CheckContext):  # type: ignore[no-untyped-def]
-    for _key, info in sorted(ctx.analysis.loads.items()):
+    for info in ctx.loads():
         if info.branch.role == COIL and info.supply in ("ac", "dc"):
             yield info
 
@@ -74,7 +74,7 @@ def coil_voltage_out_of_range(ctx: CheckContext) -> Iterator[Finding]:
             continue
         low, high = _range(info)
         for applied, end in _applied(ctx, info):
-            ratio = float((applied / rated).to("").magnitude)
+            ratio = float(si_ratio(applied, rated, "").magnitude)
             if low <= ratio <= high:
                 continue
             yield ctx.finding(
@@ -103,7 +103,7 @@ def _applied(ctx: CheckContext, info) -> list[tuple[Q_, str]]:  # type: ignore[n
     if top is None:
         return []
     if info.supply == "dc":
-        ranged = ranged_supply(ctx.graph, info.branch.component)
+        ranged = ctx.ranged_supply(info.branch.component)
         band = ranged[1] if ranged is not None else None
     else:
         band = supply_range(supply)

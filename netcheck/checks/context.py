@@ -20,6 +20,7 @@ from netcheck.analysis import shorts as short_circuits
 from netcheck.analysis.clamp_order import InternalClamp, internal_clamp_takes
 from netcheck.analysis.elements import Analysis
 from netcheck.analysis.ratings import Assessment
+from netcheck.analysis.result import LoadInfo
 from netcheck.analysis.supplies import SUPPLY_NOTES, ranged_supply
 from netcheck.analysis.switched import ElementAnalysis
 from netcheck.analysis.transients import OpeningTransient
@@ -76,6 +77,13 @@ class CheckContext:
             return tuple(ordered)
         return tuple(e for e in ordered if e.supply == supply)
 
+    def loads(self) -> Iterator[LoadInfo]:
+        """Every load and coil the analysis found, sorted by branch key."""
+        ordered = self._memo(
+            "loads", lambda: [i for _, i in sorted(self.analysis.loads.items())]
+        )
+        return iter(ordered)
+
     def components(self, *kinds: str) -> Iterator[Component]:
         """Components of the given kinds (all if none), in file order."""
         for component in self.netlist.components:
@@ -104,12 +112,18 @@ class CheckContext:
         for net in sorted(self.graph.connections):
             yield net, self.graph.connections[net]
 
-    def _ranged(self, component: Component) -> tuple[str, ValueRange] | None:
-        """``ranged_supply`` of a component, looked up once per component."""
+    def ranged_supply(self, component: Component) -> tuple[str, ValueRange] | None:
+        """``ranged_supply`` of a component, once per set of domains it touches.
+
+        The answer depends only on the domains of the component's nets, and a
+        design has far fewer of those than components.
+        """
         ranged = self._memo("ranged", dict)
-        if component.ref not in ranged:
-            ranged[component.ref] = ranged_supply(self.graph, component)
-        return ranged[component.ref]  # type: ignore[no-any-return]
+        domain_of = self.graph.domain_of
+        key = tuple(id(domain_of.get(c.net)) for c in component.connections)
+        if key not in ranged:
+            ranged[key] = ranged_supply(self.graph, component)
+        return ranged[key]  # type: ignore[no-any-return]
 
     def _memo(self, name: str, compute: Callable[[], Any]) -> Any:
         if name not in self.memo:
@@ -231,7 +245,7 @@ class CheckContext:
         else:
             component, element = anchor, anchor.ref
         note = ""
-        ranged = self._ranged(component)
+        ranged = self.ranged_supply(component)
         if ranged is not None and any(
             isinstance(v, pint.Quantity) for v in values.values()
         ):

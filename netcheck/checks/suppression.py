@@ -128,7 +128,7 @@ def freewheel_diode_reversed(ctx: CheckContext) -> Iterator[Finding]:
 @check("diode-on-ac-load")
 def diode_on_ac_load(ctx: CheckContext) -> Iterator[Finding]:
     """Flag diodes and other polarized suppressors across loads on AC circuits."""
-    for _key, info in sorted(ctx.analysis.loads.items()):
+    for info in ctx.loads():
         if info.supply != "ac":
             continue
         for suppressor in info.suppressors:
