@@ -135,9 +135,9 @@ def _ayrton_note(margin: float) -> str:
 @check("arc-sustain-risk")
 def arc_sustain_risk(ctx: CheckContext) -> Iterator[Finding]:
     """Estimate the arc of DC contacts with no DC rating (warning or info)."""
-    for element in ctx.switching_elements(supply="dc"):
+    for element in ctx.switching_elements(supply="dc", kinds=MECHANICAL_KINDS):
         component = element.component
-        if component.kind not in MECHANICAL_KINDS or not breaks_something(element):
+        if not breaks_something(element):
             continue
         if not arrangement_lead(element):
             continue  # series poles of one device: one estimate, on the first

@@ -32,7 +32,7 @@ def is_polarized(element: ElementAnalysis) -> bool:
 def polarized_pole_reversed(ctx: CheckContext) -> Iterator[Finding]:
     """Flag polarized poles whose current flows against their marked direction."""
     for element in ctx.switching_elements(supply="dc"):
-        if is_polarized(element) and element.direction < 0:
+        if element.direction < 0 and is_polarized(element):
             yield ctx.finding(
                 element,
                 current=element.current,
@@ -45,7 +45,7 @@ def polarized_pole_reversed(ctx: CheckContext) -> Iterator[Finding]:
 def polarized_pole_bidirectional(ctx: CheckContext) -> Iterator[Finding]:
     """Flag polarized poles on a supply whose current can reverse (battery charging)."""
     for element in ctx.switching_elements(supply="dc"):
-        if is_polarized(element) and element.bidirectional:
+        if element.bidirectional and is_polarized(element):
             yield ctx.finding(
                 element,
                 supply=element.supply_ref or element.domain,

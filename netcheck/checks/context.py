@@ -8,7 +8,7 @@ solver state nor import one another.
 
 from __future__ import annotations
 
-from collections.abc import Callable, Iterator, Mapping
+from collections.abc import Callable, Hashable, Iterator, Mapping
 from dataclasses import dataclass, field
 from typing import Any
 
@@ -31,7 +31,7 @@ from netcheck.graph import Branch, Domain, Graph
 from netcheck.model import Component, Netlist
 from netcheck.ranges import ValueRange
 
-__all__ = ["CheckContext", "Anchor", "quantity_like"]
+__all__ = ["CheckContext", "Anchor", "quantity_like", "exceeds"]
 
 Anchor = ElementAnalysis | Component | tuple[Component, str]
 
@@ -51,6 +51,19 @@ def quantity_like(value: pint.Quantity, magnitude: Any) -> pint.Quantity:
     return made
 
 
+def exceeds(value: pint.Quantity, limit: pint.Quantity) -> bool:
+    """``value > limit``, as pint compares them, for the rules' inner loops.
+
+    pint compares the magnitudes when both quantities have the same units;
+    where the units are one object (as a design's values mostly are) that is
+    done here without pint's dispatch, else pint compares.
+    """
+    units = getattr(value, "_units", None)
+    if units is not None and units is getattr(limit, "_units", None):
+        return bool(value._magnitude > limit._magnitude)
+    return bool(value > limit)
+
+
 @dataclass
 class CheckContext:
     """The read-only view a check gets; ``rule`` is set by the runner per check."""
@@ -62,20 +75,26 @@ class CheckContext:
     margins: Mapping[str, float]
     rule: str = ""
     # Results several checks share (e.g. the suppressors fitted), computed once.
-    memo: dict[str, Any] = field(default_factory=dict)
+    memo: dict[Hashable, Any] = field(default_factory=dict)
 
     def switching_elements(
-        self, supply: str | None = None
+        self, supply: str | None = None, kinds: frozenset[str] | None = None
     ) -> Iterator[ElementAnalysis]:
-        """Switching elements sorted by name, optionally of one supply kind."""
+        """Switching elements sorted by name, optionally of one supply and kinds."""
         # Every check walks these; sorted and filtered once per design.
-        return iter(self._memo(f"elements:{supply}", lambda: self._elements(supply)))
+        key = ("elements", supply, kinds)
+        return iter(self._memo(key, lambda: self._elements(supply, kinds)))
 
-    def _elements(self, supply: str | None) -> tuple[ElementAnalysis, ...]:
-        ordered = self._memo("elements:None", self.analysis.sorted_elements)
-        if supply is None:
-            return tuple(ordered)
-        return tuple(e for e in ordered if e.supply == supply)
+    def _elements(
+        self, supply: str | None, kinds: frozenset[str] | None
+    ) -> tuple[ElementAnalysis, ...]:
+        ordered = self._memo("sorted-elements", self.analysis.sorted_elements)
+        return tuple(
+            e
+            for e in ordered
+            if (supply is None or e.supply == supply)
+            and (kinds is None or e.component.kind in kinds)
+        )
 
     def loads(self) -> Iterator[LoadInfo]:
         """Every load and coil the analysis found, sorted by branch key."""
@@ -125,10 +144,27 @@ class CheckContext:
             ranged[key] = ranged_supply(self.graph, component)
         return ranged[key]  # type: ignore[no-any-return]
 
-    def _memo(self, name: str, compute: Callable[[], Any]) -> Any:
+    def _memo(self, name: Hashable, compute: Callable[[], Any]) -> Any:
         if name not in self.memo:
             self.memo[name] = compute()
         return self.memo[name]
+
+    def _per_element(
+        self,
+        name: str,
+        element: ElementAnalysis,
+        compute: Callable[[ElementAnalysis], Any],
+    ) -> Any:
+        """``compute(element)``, once per element.
+
+        Keyed by identity: the analysis holds every element for as long as the
+        context lives.
+        """
+        results = self._memo(name, dict)
+        key = id(element)
+        if key not in results:
+            results[key] = compute(element)
+        return results[key]
 
     def fitted_suppressors(self) -> list[fitting.Fitted]:
         """Every effective suppressor of a DC element's circuit, once each."""
@@ -174,28 +210,20 @@ class CheckContext:
 
     def verdict(self, element: ElementAnalysis) -> Assessment | None:
         """The rating verdict of an element that breaks a current (series poles too)."""
-        verdicts = self._memo("verdicts", dict)
-        name = element.name
-        if name not in verdicts:
-            breaks = breaks_something(element)
-            verdicts[name] = self.analysis.verdict(element) if breaks else None
-        return verdicts[name]  # type: ignore[no-any-return]
+        return self._per_element("verdicts", element, self._verdict)  # type: ignore[no-any-return]
+
+    def _verdict(self, element: ElementAnalysis) -> Assessment | None:
+        if not breaks_something(element):
+            return None
+        return self.analysis.verdict(element)
 
     def element_peak(self, element: ElementAnalysis) -> OpeningTransient | None:
-        """The opening transient the element itself sees, computed once each."""
-        peaks = self._memo("peaks", dict)
-        name = element.name
-        if name not in peaks:
-            peaks[name] = fitting.element_peak(element)
-        return peaks[name]  # type: ignore[no-any-return]
+        """The opening transient the element itself sees (``fitted.element_peak``)."""
+        return self._per_element("peaks", element, fitting.element_peak)  # type: ignore[no-any-return]
 
     def internal_clamp(self, element: ElementAnalysis) -> InternalClamp | None:
-        """``internal_clamp_takes`` of an output, computed once each."""
-        clamps = self._memo("internal-clamps", dict)
-        name = element.name
-        if name not in clamps:
-            clamps[name] = internal_clamp_takes(element)
-        return clamps[name]  # type: ignore[no-any-return]
+        """An output's internal clamp where it conducts first (``clamp_order``)."""
+        return self._per_element("clamps", element, internal_clamp_takes)  # type: ignore[no-any-return]
 
     def option(self, name: str) -> float:
         """A margin: from configuration, else the rule YAML's default."""

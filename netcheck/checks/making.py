@@ -133,9 +133,7 @@ def _capacitive(ctx, element, inrush: Inrush, allowed, basis, severity) -> Findi
 @check("making-over-rating")
 def making_over_rating(ctx: CheckContext) -> Iterator[Finding]:
     """Flag DC contacts whose closing current exceeds their making capacity."""
-    for element in ctx.switching_elements(supply="dc"):
-        if element.component.kind not in MECHANICAL_KINDS:
-            continue
+    for element in ctx.switching_elements(supply="dc", kinds=MECHANICAL_KINDS):
         # What there is to judge is known before any network is solved: a
         # contact with no making data that speaks for its loads is skipped.
         kind, load, multiple, hot = _extra(ctx, element)

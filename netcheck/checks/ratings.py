@@ -14,10 +14,10 @@ from netcheck.analysis.verdicts import (
     fits_device,
     rating_values,
 )
-from netcheck.checks.context import CheckContext
+from netcheck.checks.context import CheckContext, exceeds
 from netcheck.checks.registry import check
 from netcheck.findings import Finding
-from netcheck.kinds import SEMICONDUCTOR_KINDS
+from netcheck.kinds import MECHANICAL_KINDS, SEMICONDUCTOR_KINDS
 
 __all__ = [
     "dc_break_ac_only",
@@ -31,7 +31,8 @@ __all__ = [
 
 
 def _judged(ctx: CheckContext) -> Iterator[tuple[ElementAnalysis, Assessment]]:
-    for element in ctx.switching_elements(supply="dc"):
+    # Only mechanical elements get a rating verdict (verdicts.element_rating).
+    for element in ctx.switching_elements(supply="dc", kinds=MECHANICAL_KINDS):
         if element.missing or not arrangement_lead(element):
             continue
         verdict = ctx.verdict(element)
@@ -59,14 +60,10 @@ def _outputs_over(
     ctx: CheckContext, limit_key: str, attribute: str
 ) -> Iterator[tuple[ElementAnalysis, object]]:
     """Semiconductor outputs whose breaking ``attribute`` exceeds ``limit_key``."""
-    for element in ctx.switching_elements(supply="dc"):
+    for element in ctx.switching_elements(supply="dc", kinds=SEMICONDUCTOR_KINDS):
         limit = element.component.value(limit_key)
         value = getattr(element, attribute)
-        if (
-            element.component.kind in SEMICONDUCTOR_KINDS
-            and limit is not None
-            and (value is not None and value > limit)
-        ):
+        if limit is not None and value is not None and exceeds(value, limit):
             yield element, limit
 
 

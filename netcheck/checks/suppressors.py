@@ -14,7 +14,7 @@ from netcheck.analysis.fitted import Fitted
 from netcheck.analysis.switched import ElementAnalysis
 from netcheck.analysis.transients import OpeningTransient
 from netcheck.analysis.verdicts import arrangement_lead
-from netcheck.checks.context import CheckContext, quantity_like
+from netcheck.checks.context import CheckContext, exceeds, quantity_like
 from netcheck.checks.registry import check
 from netcheck.findings import Finding
 from netcheck.kinds import MECHANICAL_KINDS, SEMICONDUCTOR_KINDS
@@ -85,7 +85,7 @@ def suppressor_underrated(ctx: CheckContext) -> Iterator[Finding]:
             for what, needed, rated in _needs(ctx, fitted, part):
                 if rated is None:
                     yield _missing(ctx, part, what, needed, f"{part.ref}:{what}")
-                elif rated < needed:
+                elif exceeds(needed, rated):
                     yield ctx.finding(
                         part,
                         what=what,
@@ -182,23 +182,24 @@ def _resistor_range(element: ElementAnalysis) -> tuple[pint.Quantity, pint.Quant
 @check("peak-voltage-over-rating")
 def peak_voltage_over_rating(ctx: CheckContext) -> Iterator[Finding]:
     """Flag opening peaks above an output's, a contact's or a snubber's rating."""
-    for element in ctx.switching_elements(supply="dc"):
+    for element in ctx.switching_elements(supply="dc", kinds=SEMICONDUCTOR_KINDS):
         rated = element.component.value("voltage_max")
-        if element.component.kind not in SEMICONDUCTOR_KINDS or rated is None:
+        if rated is None:
             continue
-        opening = ctx.element_peak(element)
-        peak = opening.peak_voltage if opening is not None else element.voltage
         internal = ctx.internal_clamp(element)
         if internal is not None:  # the output's own clamp conducts first
             peak = internal.voltage
-        if peak is not None and peak > rated:
+        else:
+            opening = ctx.element_peak(element)
+            peak = opening.peak_voltage if opening is not None else element.voltage
+        if peak is not None and exceeds(peak, rated):
             yield ctx.finding(
                 element,
                 message="output",
                 fix="output",
                 peak=peak,
                 rated=rated,
-                assumptions=_assumed(opening),
+                assumptions=_assumed(ctx.element_peak(element)),
             )
     for fitted in ctx.fitted_suppressors():
         for part in fitted.parts():
@@ -210,7 +211,7 @@ def peak_voltage_over_rating(ctx: CheckContext) -> Iterator[Finding]:
             ):
                 continue
             peak = fitted.opening.suppressor_peak_voltage
-            if peak > rated:
+            if exceeds(peak, rated):
                 yield ctx.finding(
                     part,
                     message="capacitor",
@@ -244,20 +245,18 @@ def _contact_peaks(
     contact arcs instead (its peak is an artefact of stray capacitance), and a
     supply already above voltage_max is dc-voltage-over-rating's.
     """
-    for element in ctx.switching_elements(supply="dc"):
+    for element in ctx.switching_elements(supply="dc", kinds=MECHANICAL_KINDS):
         rated = element.component.value("contacts", "voltage_max")
-        if element.component.kind not in MECHANICAL_KINDS or rated is None:
-            continue
-        if not arrangement_lead(element):  # series poles: one finding, the first
-            continue
-        if element.voltage is None or element.voltage > rated:
+        if rated is None or not arrangement_lead(element):
+            continue  # series poles: one finding, on the first
+        if element.voltage is None or exceeds(element.voltage, rated):
             continue
         opening = ctx.element_peak(element)
         if opening is None or opening.kind == "none":
             continue
         peak = opening.peak_voltage
         peak = quantity_like(peak, peak._magnitude / max(element.series_poles, 1))
-        if peak > rated:
+        if exceeds(peak, rated):
             yield element, peak, rated
 
 
