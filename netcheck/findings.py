@@ -55,6 +55,10 @@ def _quantity_text(value: pint.Quantity) -> str:
     return text
 
 
+# The default of Finding.values: a fresh dict per finding, as field(default_factory).
+_NEW_DICT: Any = object()
+
+
 def _text(value: Any) -> str:
     if isinstance(value, pint.Quantity):
         return _quantity_text(value)
@@ -156,6 +160,42 @@ class Finding:
     # applying them was verified to clear the finding; None: not verified yet.
     edits: tuple[Any, ...] = ()
     verified: bool | None = None
+
+    def __init__(
+        self,
+        rule: str,
+        severity: Severity,
+        message: str,
+        span: Span,
+        element: str,
+        values: Mapping[str, Any] = _NEW_DICT,
+        fix: str | None = None,
+        references: tuple[str, ...] = (),
+        key: str = "",
+        fingerprint: str = "",
+        waived: str | None = None,
+        variant: str = "default",
+        edits: tuple[Any, ...] = (),
+        verified: bool | None = None,
+    ) -> None:
+        # What the dataclass's own __init__ does (tests/test_model_init.py),
+        # without a frozen-attribute call per field: a heavy report builds
+        # each of its thousands of findings twice (made, then fingerprinted).
+        fields = self.__dict__
+        fields["rule"] = rule
+        fields["severity"] = severity
+        fields["message"] = message
+        fields["span"] = span
+        fields["element"] = element
+        fields["values"] = {} if values is _NEW_DICT else values
+        fields["fix"] = fix
+        fields["references"] = references
+        fields["key"] = key
+        fields["fingerprint"] = fingerprint
+        fields["waived"] = waived
+        fields["variant"] = variant
+        fields["edits"] = edits
+        fields["verified"] = verified
 
     def sort_key(self) -> tuple[Any, ...]:
         """Deterministic order: file, line, column, rule, element."""

@@ -6,6 +6,7 @@ import difflib
 import os
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field, replace
+from functools import lru_cache
 from pathlib import Path
 
 from netcheck.alloc import collector_paused
@@ -137,7 +138,9 @@ def run_checks(
     return out
 
 
+@lru_cache(maxsize=4096)
 def _relative(file: str) -> str:
+    # Once per file, not per finding: a heavy report has thousands of findings.
     return Path(file).as_posix()
 
 

@@ -1,7 +1,8 @@
 """The hand-written ``__init__``s make what the dataclass's own would.
 
 ``model.py``, ``graph.py`` and ``input/cnet/statements.py`` give the classes
-built once per token their own ``__init__`` for speed; here each is compared
+built once per token their own ``__init__`` for speed (``findings.Finding``
+too: a heavy report builds thousands); here each is compared
 with the ``__init__`` that ``dataclasses`` generates for the same fields:
 positional and keyword calls, defaults, equality, hash, repr, immutability and
 ``dataclasses.replace``.
@@ -13,6 +14,7 @@ import dataclasses
 
 import pytest
 
+from netcheck.findings import Finding, Severity
 from netcheck.graph import Branch
 from netcheck.input.cnet.statements import ComponentStatement, RawAttribute
 from netcheck.model import Attribute, Component, Connection, Pole, SwitchingElement
@@ -64,6 +66,22 @@ CASES = [
         ("relay", "K1", (RawAttribute("v", "24", False, SPAN),), (), SPAN),
         {"ref_span": SPAN},
     ),
+    (Finding, ("rule", Severity.ERROR, "text", SPAN, "K1:13-14"), {}),
+    (
+        Finding,
+        ("rule", Severity.WARNING, "text", SPAN, "K1:13-14"),
+        {
+            "values": {"current": 1.5},
+            "fix": "fit a diode",
+            "references": ("IEC 60947-5-1",),
+            "key": "vz",
+            "fingerprint": "0123456789abcdef",
+            "waived": "reviewed",
+            "variant": "output",
+            "edits": ("edit",),
+            "verified": True,
+        },
+    ),
 ]
 
 
@@ -75,7 +93,7 @@ def test_init_matches_the_generated_one(cls, args, kwargs):
     assert [getattr(ours, n) for n in names] == [getattr(theirs, n) for n in names]
     by_name = cls(**dict(zip(names, args, strict=False)), **kwargs)
     assert by_name == ours
-    if cls is not Component:  # a component holds a dict: unhashable, as before
+    if cls not in (Component, Finding):  # they hold a dict: unhashable, as before
         assert hash(by_name) == hash(ours) == hash(theirs)
     assert repr(ours) == repr(theirs).replace(
         theirs.__class__.__qualname__, cls.__qualname__, 1
@@ -89,4 +107,10 @@ def test_init_matches_the_generated_one(cls, args, kwargs):
 def test_a_components_default_values_are_a_new_dict_each_time():
     first = Component("load", "H1", SPAN, ())
     second = Component("load", "H2", SPAN, ())
+    assert first.values == {} and first.values is not second.values
+
+
+def test_a_findings_default_values_are_a_new_dict_each_time():
+    first = Finding("rule", Severity.INFO, "text", SPAN, "H1")
+    second = Finding("rule", Severity.INFO, "text", SPAN, "H2")
     assert first.values == {} and first.values is not second.values

@@ -8,7 +8,7 @@ solver state nor import one another.
 
 from __future__ import annotations
 
-from collections.abc import Callable, Hashable, Iterator, Mapping
+from collections.abc import Callable, Hashable, Iterable, Iterator, Mapping
 from dataclasses import dataclass, field
 from typing import Any
 
@@ -21,6 +21,7 @@ from netcheck.analysis.clamp_order import InternalClamp, internal_clamp_takes
 from netcheck.analysis.elements import Analysis
 from netcheck.analysis.ratings import Assessment
 from netcheck.analysis.result import LoadInfo
+from netcheck.analysis.si import quantity
 from netcheck.analysis.supplies import SUPPLY_NOTES, ranged_supply
 from netcheck.analysis.switched import ElementAnalysis
 from netcheck.analysis.transients import OpeningTransient
@@ -31,7 +32,7 @@ from netcheck.graph import Branch, Domain, Graph
 from netcheck.model import Component, Netlist
 from netcheck.ranges import ValueRange
 
-__all__ = ["CheckContext", "Anchor", "quantity_like", "exceeds"]
+__all__ = ["CheckContext", "Anchor", "quantity_like", "exceeds", "total"]
 
 Anchor = ElementAnalysis | Component | tuple[Component, str]
 
@@ -62,6 +63,22 @@ def exceeds(value: pint.Quantity, limit: pint.Quantity) -> bool:
     if units is not None and units is getattr(limit, "_units", None):
         return bool(value._magnitude > limit._magnitude)
     return bool(value > limit)
+
+
+def total(values: Iterable[pint.Quantity], unit: str) -> pint.Quantity:
+    """``sum(values, Q_(0.0, unit))``, bit for bit.
+
+    pint adds quantities of equal units as their magnitudes, left to right,
+    in those units; values of other units (or not floats) take pint's path.
+    """
+    values = tuple(values)
+    start = quantity(0.0, unit)
+    magnitude = 0.0
+    for value in values:
+        if type(value._magnitude) is not float or value._units != start._units:
+            return sum(values, start)
+        magnitude = magnitude + value._magnitude
+    return quantity_like(start, magnitude)
 
 
 @dataclass

@@ -8,11 +8,10 @@ from netcheck.analysis.fitted import effective, unsuppressed_loads
 from netcheck.analysis.opening import element_transient, load_transient, zener_release
 from netcheck.analysis.switched import ElementAnalysis, Suppressor
 from netcheck.analysis.verdicts import arrangement_lead
-from netcheck.checks.context import CheckContext
+from netcheck.checks.context import CheckContext, total
 from netcheck.checks.registry import check
 from netcheck.findings import Finding, Severity
 from netcheck.kinds import POLARIZED_SUPPRESSORS, SEMICONDUCTOR_KINDS
-from netcheck.units import Q_
 
 __all__ = [
     "inductive_load_unsuppressed",
@@ -72,18 +71,18 @@ def inductive_load_unsuppressed(ctx: CheckContext) -> Iterator[Finding]:
         # An inductive type with no L or tau given leaves the energy unknown;
         # then ``energy_known`` carries the part that is known, if any.
         known = [ld.energy for ld in loads if ld.energy is not None]
-        energy = sum(known, Q_(0.0, "J")) if len(known) == len(loads) else None
+        energy = total(known, "J") if len(known) == len(loads) else None
         current = max(ld.current for ld in loads)
         values = {
             "loads": ", ".join(ld.facts.ref for ld in loads),
             "energy": energy,
             "current": current,
             "voltage": element.voltage,
-            "diode_voltage": element.voltage * ctx.option("diode-reverse-voltage"),
-            "diode_current": current * ctx.option("diode-current"),
+            "diode_voltage": ctx.scaled(element.voltage, "diode-reverse-voltage"),
+            "diode_current": ctx.scaled(current, "diode-current"),
         }
         if energy is None and known:
-            values["energy_known"] = sum(known, Q_(0.0, "J"))
+            values["energy_known"] = total(known, "J")
         if element.load_category in _MOTOR_CATEGORIES:
             values.update(fix="motor", category=element.load_category)
         if case is None:
