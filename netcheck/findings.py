@@ -121,7 +121,7 @@ def quantity_dict(value: Any) -> dict[str, Any]:
             # 12 significant digits: exact enough, and free of solver round-off.
             "value": float(f"{float(value.magnitude):.12g}"),
             "unit": "ohm" if unit == "Ω" else unit,
-            "text": format_quantity(value),
+            "text": _quantity_text(value),
         }
     if isinstance(value, bool) or value is None:
         return {"value": value, "unit": "", "text": str(value)}

@@ -161,6 +161,14 @@ class CheckContext:
             ranged[key] = ranged_supply(self.graph, component)
         return ranged[key]  # type: ignore[no-any-return]
 
+    def shared(self, name: str, compute: Callable[[], Any]) -> Any:
+        """What ``compute`` returns, computed once per design.
+
+        For a check module's own result that several of its rules read; the
+        name is the module's to choose (``"module:what"`` keeps them apart).
+        """
+        return self._memo(("shared", name), compute)
+
     def _memo(self, name: Hashable, compute: Callable[[], Any]) -> Any:
         if name not in self.memo:
             self.memo[name] = compute()

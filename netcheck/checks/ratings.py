@@ -31,6 +31,14 @@ __all__ = [
 
 
 def _judged(ctx: CheckContext) -> Iterator[tuple[ElementAnalysis, Assessment]]:
+    """DC elements judged on their ratings, with the verdict (series poles once).
+
+    Five rules read the same list: it is made once per design.
+    """
+    return iter(ctx.shared("ratings:judged", lambda: list(_judge(ctx))))
+
+
+def _judge(ctx: CheckContext) -> Iterator[tuple[ElementAnalysis, Assessment]]:
     # Only mechanical elements get a rating verdict (verdicts.element_rating).
     for element in ctx.switching_elements(supply="dc", kinds=MECHANICAL_KINDS):
         if element.missing or not arrangement_lead(element):

@@ -8,6 +8,7 @@ from __future__ import annotations
 
 import contextlib
 import dataclasses
+import functools
 import math
 import os
 from collections.abc import Iterable, Iterator, Mapping
@@ -78,10 +79,16 @@ def display_path(file: str | os.PathLike[str]) -> str:
     the root stay absolute (there is no shorter name that means the same file
     wherever netcheck runs).
     """
-    absolute = Path(os.path.abspath(Path(file)))
-    root = project_root_in_use() or Path(os.path.abspath(os.getcwd()))
+    return _display_path(os.fspath(file), project_root_in_use(), os.getcwd())
+
+
+@functools.lru_cache(maxsize=4096)
+def _display_path(file: str, root: Path | None, cwd: str) -> str:
+    # Once per file, root and working directory: reports show thousands of
+    # findings from a few files.
+    absolute = Path(os.path.normpath(os.path.join(cwd, file)))  # os.path.abspath
     try:
-        relative = absolute.relative_to(root)
+        relative = absolute.relative_to(root or Path(os.path.abspath(cwd)))
     except ValueError:
         return absolute.as_posix()
     return PurePath(relative).as_posix() or "."
