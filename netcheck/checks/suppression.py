@@ -157,15 +157,13 @@ def slow_release_suppression(ctx: CheckContext) -> Iterator[Finding]:
     seen: set[str] = set()
     for element in ctx.switching_elements(supply="dc"):
         for load in element.inductive_loads:
+            if load.facts.key in seen:
+                continue
             component = ctx.netlist.component(load.facts.ref)
+            if component is None or not (component.tags & set(FAST)):
+                continue
             active = effective(load.suppressors)
-            if (
-                component is None
-                or load.facts.key in seen
-                or not (component.tags & set(FAST))
-                or not active
-                or any(s.kind != "diode" for s in active)
-            ):
+            if not active or any(s.kind != "diode" for s in active):
                 continue
             seen.add(load.facts.key)
             with_diode = load_transient(load, load.voltage, active[0])
