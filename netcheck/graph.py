@@ -4,6 +4,7 @@ from __future__ import annotations
 
 from collections.abc import Iterable, Iterator
 from dataclasses import dataclass, field
+from functools import cached_property
 
 import networkx as nx
 
@@ -60,17 +61,20 @@ class Branch:
         fields["b"] = b
         fields["element"] = element
 
-    @property
+    # ref, kind and key are read a dozen times per branch by the analysis and
+    # the checks: each is worked out once (the fields are frozen) and then read
+    # from the instance like a field.
+    @cached_property
     def ref(self) -> str:
         """The component's reference."""
         return self.component.ref
 
-    @property
+    @cached_property
     def kind(self) -> str:
         """The component's kind."""
         return self.component.kind
 
-    @property
+    @cached_property
     def key(self) -> str:
         """A unique name: the element name, or ``REF`` (``REF:coil`` for coils)."""
         if self.element is not None:

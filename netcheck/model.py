@@ -15,6 +15,7 @@ from __future__ import annotations
 
 from collections.abc import Mapping
 from dataclasses import dataclass, field
+from functools import cached_property
 from typing import Any
 
 from netcheck.source import Span
@@ -35,6 +36,8 @@ __all__ = [
 # The default of ``Component.values``: a new dict each time, as the dataclass's
 # ``default_factory=dict`` gives.
 _NEW_DICT: Any = object()
+# What ``Component.value`` finds where a key is not there (None is a value).
+_ABSENT: Any = object()
 
 
 @dataclass(frozen=True)
@@ -111,7 +114,7 @@ class SwitchingElement:
         fields["form"] = form
         fields["span"] = span
 
-    @property
+    @cached_property  # read many times per element; the fields are frozen
     def name(self) -> str:
         """The element's name, ``K1:13-14``.
 
@@ -179,9 +182,12 @@ class Component:
         """Return a merged value by key path (``value("coil", "resistance")``)."""
         node: Any = self.values
         for key in path:
-            if not isinstance(node, Mapping) or key not in node:
+            # A plain dict first: the ABC check costs more than the look-up.
+            if type(node) is not dict and not isinstance(node, Mapping):
                 return default
-            node = node[key]
+            node = node.get(key, _ABSENT)
+            if node is _ABSENT:
+                return default
         return node
 
     def attribute_span(self, key: str) -> Span:

@@ -6,6 +6,7 @@ kernel; callers convert to and from quantities.
 
 from __future__ import annotations
 
+import math
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
 
@@ -64,8 +65,8 @@ def _diode_current(d: Diode, state: str, va: float, vb: float) -> float:
 
 
 def _stamp(
-    matrix: np.ndarray,
-    rhs: np.ndarray,
+    matrix: list[list[float]],
+    rhs: list[float],
     index: Mapping[str, int],
     fixed: Mapping[str, float],
     a: str,
@@ -83,7 +84,7 @@ def _stamp(
             if j is None:
                 rhs[i] -= sign * osign * g * fixed[other]
             else:
-                matrix[i, j] += sign * osign * g
+                matrix[i][j] += sign * osign * g
 
 
 def _linear_solve(
@@ -93,12 +94,14 @@ def _linear_solve(
     diodes: Sequence[Diode],
     states: Mapping[str, str],
 ) -> dict[str, float]:
+    # The equations are stamped in Python floats (the same IEEE operations in
+    # the same order as into numpy arrays, a fraction of the cost per entry).
     index = {n: i for i, n in enumerate(nodes)}
     size = len(nodes)
-    matrix = np.zeros((size, size))
+    matrix = [[0.0] * size for _ in range(size)]
     for node in _floating(nodes, fixed, resistors, diodes, states):
-        matrix[index[node], index[node]] = G_MIN
-    rhs = np.zeros(size)
+        matrix[index[node]][index[node]] = G_MIN
+    rhs = [0.0] * size
     for r in resistors:
         _stamp(matrix, rhs, index, fixed, r.a, r.b, 1.0 / r.resistance, 0.0)
     for d in diodes:
@@ -107,7 +110,7 @@ def _linear_solve(
             _stamp(matrix, rhs, index, fixed, d.a, d.b, 1.0 / R_ON, d.vf)
         elif state == "reverse" and d.vz is not None:
             _stamp(matrix, rhs, index, fixed, d.a, d.b, 1.0 / R_ON, -d.vz)
-    values = _solve(matrix, rhs) if size else np.zeros(0)
+    values = _solve(matrix, rhs) if size else []
     potentials = dict(fixed)
     potentials.update({n: float(values[i]) for n, i in index.items()})
     return potentials
@@ -146,13 +149,26 @@ def _floating(
     return {n for n in nodes if n not in reached}
 
 
-def _solve(matrix: np.ndarray, rhs: np.ndarray) -> np.ndarray:
+def _solve(matrix: list[list[float]], rhs: list[float]) -> Sequence[float]:
     """Solve the nodal equations; least squares where they are ill-conditioned.
 
     Conductances spanning twenty decades (a micro-ohm in series with a
     tera-ohm) can make the matrix numerically singular; the least-squares
     solution is then the physically meaningful one.
+
+    One unknown (nearly every solve: a rung cut off at one node) is one
+    division, which is what LAPACK's LU solve computes for a 1x1 system, bit
+    for bit (``tests/analysis/test_circuit_solve.py``); numpy's call costs a
+    hundred times that.
     """
+    if len(rhs) == 1 and matrix[0][0] != 0.0:
+        value = rhs[0] / matrix[0][0]
+        if math.isfinite(value):
+            return [value]
+    return _solve_dense(np.array(matrix), np.array(rhs))
+
+
+def _solve_dense(matrix: np.ndarray, rhs: np.ndarray) -> np.ndarray:
     try:
         values = np.linalg.solve(matrix, rhs)
         if np.all(np.isfinite(values)):

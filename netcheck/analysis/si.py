@@ -48,7 +48,9 @@ def si(value: pint.Quantity, unit: str) -> float:
     """``float(value.to(unit).magnitude)`` without pint's per-call look-ups."""
     magnitude = value._magnitude
     factor = _factor(value._units, unit)
-    if factor is None or not isinstance(magnitude, numbers.Real):
+    if factor is None or (
+        type(magnitude) is not float and not isinstance(magnitude, numbers.Real)
+    ):
         return float(value.to(unit).magnitude)
     # pint converts a multiplicative unit as magnitude * factor; with matching
     # units the factor is 1.0 and the product is the magnitude exactly.
