@@ -89,6 +89,8 @@ class Domain:
     nets: frozenset[str]
     supplies: tuple[Component, ...]
     branches: list[Branch] = field(default_factory=list)
+    # What the analysis derives once per domain from its branches alone.
+    cache: dict[str, object] = field(default_factory=dict, repr=False, compare=False)
 
     @property
     def name(self) -> str:

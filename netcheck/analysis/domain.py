@@ -172,34 +172,53 @@ def _internal_components(state: DomainState) -> list[set[str]]:
     return [set(c) for c in nx.connected_components(graph)]
 
 
-def _elements(state: DomainState, groups: Iterable[str]) -> tuple[list, list]:
-    members = set(groups)
-    resistors, diodes = [], []
-    for branch in state.resistive:
-        ga, gb = state.group[branch.a], state.group[branch.b]
-        if ga in members or gb in members:
-            resistance = _resistance(state, branch)
-            resistors.append(Resistor(branch.key, ga, gb, resistance))
-    for branch in state.domain.branches:
-        component = branch.component
-        if conducts_one_way(
-            branch.kind,
-            component.value("bidirectional"),
-            {c.terminal for c in component.connections},
-        ):
-            ga, gb = state.group[branch.a], state.group[branch.b]
-            if ga in members or gb in members:
-                vz = branch.component.value("vz") if branch.kind == "zener" else None
-                diodes.append(
-                    Diode(
-                        branch.key,
-                        ga,
-                        gb,
-                        _vf(branch),
-                        si(vz, "V") if vz is not None else None,
-                    )
-                )
+def _elements(state: DomainState) -> tuple[list[Resistor], list[Diode]]:
+    """Every resistive branch and every one-way part, as circuit models."""
+    group = state.group
+    resistors = [
+        Resistor(b.key, group[b.a], group[b.b], _resistance(state, b))
+        for b in state.resistive
+    ]
+    diodes = [
+        Diode(branch.key, group[branch.a], group[branch.b], vf, vz)
+        for branch, vf, vz in _one_way_parts(state.domain)
+    ]
     return resistors, diodes
+
+
+def _one_way_parts(domain: Domain) -> list[tuple[Branch, float, float | None]]:
+    """The domain's branches that conduct one way, with vf and vz (V)."""
+    parts = domain.cache.get("one-way")
+    if parts is None:
+        parts = []
+        for branch in domain.branches:
+            component = branch.component
+            if branch.kind in RECTIFYING_KINDS and conducts_one_way(
+                branch.kind,
+                component.value("bidirectional"),
+                {c.terminal for c in component.connections},
+            ):
+                vz = component.value("vz") if branch.kind == "zener" else None
+                parts.append(
+                    (branch, _vf(branch), si(vz, "V") if vz is not None else None)
+                )
+        domain.cache["one-way"] = parts
+    return parts  # type: ignore[return-value]
+
+
+def _by_internal(
+    state: DomainState, models: list, count: int
+) -> list[list[Resistor | Diode]]:
+    """The models touching each internal component, in the order of ``models``."""
+    found: list[list[Resistor | Diode]] = [[] for _ in range(count)]
+    internal = state.internal_of
+    for model in models:
+        ia, ib = internal.get(model.a), internal.get(model.b)
+        if ia is not None:
+            found[ia].append(model)
+        if ib is not None and ib != ia:
+            found[ib].append(model)
+    return found
 
 
 def _resistance(state: DomainState, branch: Branch) -> float:
@@ -211,14 +230,17 @@ def _resistance(state: DomainState, branch: Branch) -> float:
     return si(value, "ohm")
 
 
-def _direct_solve(state: DomainState) -> Solution:
+def _direct_solve(
+    state: DomainState, resistors: list[Resistor], diodes: list[Diode]
+) -> Solution:
     """Branches whose two ends are both rails: no unknown node at all."""
-    resistors, diodes = [], []
-    rails = set(state.rails)
-    all_r, all_d = _elements(state, rails)
-    resistors = [r for r in all_r if r.a in rails and r.b in rails]
-    diodes = [d for d in all_d if d.a in rails and d.b in rails]
-    return solve_dc(list(rails), state.rails, resistors, diodes)
+    rails = state.rails
+    return solve_dc(
+        list(rails),
+        rails,
+        [r for r in resistors if r.a in rails and r.b in rails],
+        [d for d in diodes if d.a in rails and d.b in rails],
+    )
 
 
 CONDUCTING = (
@@ -263,6 +285,7 @@ def solve_domain(
         domain.nets,
         domain.supplies,
         [b for b in domain.branches if b.a in domain.nets and b.b in domain.nets],
+        domain.cache,
     )
     group, wire = _groups(domain, open_keys)
     emf, r_int, rails, supply_shorts = _rails(domain, group)
@@ -298,28 +321,32 @@ def solve_domain(
     for branch in domain.branches:
         state.attached.setdefault(branch.a, []).append(branch)
         state.attached.setdefault(branch.b, []).append(branch)
-    solutions = [_direct_solve(state)]
-    for index, members in enumerate(_internal_components(state)):
-        resistors, diodes = _elements(state, members)
+    all_r, all_diodes = _elements(state)
+    solutions = [_direct_solve(state, all_r, all_diodes)]
+    internal = _internal_components(state)
+    for index, members in enumerate(internal):
+        for g in members:
+            state.internal_of[g] = index
+    # Each internal component gets the models touching it, found in one pass
+    # (not one pass over the domain per component).
+    resistors_of = _by_internal(state, all_r, len(internal))
+    diodes_of = _by_internal(state, all_diodes, len(internal))
+    for index, members in enumerate(internal):
+        resistors, diodes = resistors_of[index], diodes_of[index]
         nodes = sorted(
             members
             | {n for r in resistors for n in (r.a, r.b)}
             | {n for d in diodes for n in (d.a, d.b)}
         )
         fixed = {n: state.rails[n] for n in nodes if n in state.rails}
-        solutions.append(solve_dc(nodes, fixed, resistors, diodes))
-        rails_touched = frozenset(n for n in nodes if n in state.rails)
-        for g in members:
-            state.internal_of[g] = index
-        state.internal_rails[index] = rails_touched
-    all_diodes: list[Diode] = []
+        solutions.append(solve_dc(nodes, fixed, resistors, diodes))  # type: ignore[arg-type]
+        state.internal_rails[index] = frozenset(n for n in nodes if n in state.rails)
     for solution in solutions:
         state.potentials.update(solution.potentials)
         state.currents.update(solution.currents)
         state.diode_state.update(solution.diode_state)
     for g in set(group.values()):
         state.potentials.setdefault(g, 0.0)
-    all_r, all_diodes = _elements(state, set(group.values()))
     state.models = {m.key: m for m in [*all_r, *all_diodes]}
     for key, m in state.models.items():
         for g in (m.a, m.b):

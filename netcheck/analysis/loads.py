@@ -6,7 +6,7 @@ from dataclasses import dataclass
 
 import pint
 
-from netcheck.analysis.si import ratio
+from netcheck.analysis.si import converted, ratio
 from netcheck.graph import COIL, Branch
 from netcheck.units import Q_
 
@@ -155,9 +155,9 @@ def _resistance_of(values: dict) -> pint.Quantity | None:
 def _inductance(r: pint.Quantity | None, l_value, tau) -> tuple:
     if l_value is not None:
         tau_out = ratio(l_value, r, "s") if r is not None and r.magnitude > 0 else None
-        return l_value.to("H"), tau_out
+        return converted(l_value, "H"), tau_out
     if tau is not None:
-        return ((tau * r).to("H") if r is not None else None), tau.to("s")
+        return ((tau * r).to("H") if r is not None else None), converted(tau, "s")
     return None, None
 
 

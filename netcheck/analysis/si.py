@@ -4,9 +4,10 @@ pint spends most of a large design's analysis time building quantities
 (``Quantity.__new__`` parses or checks its unit on every call) and converting
 them (``.to`` looks the factor up afresh each time). The analysis computes in
 SI floats and makes quantities only where a value leaves for a result; these
-two helpers make those crossings cheap while giving exactly what pint gives:
-``si(q, u) == float(q.to(u).magnitude)``, ``quantity(x, u) == Q_(x, u)`` and
-``ratio(a, b, u) == (a / b).to(u)``, bit for bit (``tests/analysis/test_si.py``).
+helpers make those crossings cheap while giving exactly what pint gives:
+``si(q, u) == float(q.to(u).magnitude)``, ``quantity(x, u) == Q_(x, u)``,
+``ratio(a, b, u) == (a / b).to(u)`` and ``converted(q, u) == q.to(u)``, bit for
+bit (``tests/analysis/test_si.py``).
 """
 
 from __future__ import annotations
@@ -19,7 +20,7 @@ import pint
 
 from netcheck.units import Q_
 
-__all__ = ["si", "quantity", "ratio"]
+__all__ = ["si", "quantity", "ratio", "converted"]
 
 # (source units, target unit text) -> multiplicative factor, or None where the
 # conversion is not a plain factor (offset units such as degC): those take
@@ -89,3 +90,14 @@ def ratio(
         return (numerator / denominator).to(unit)
     # pint divides the magnitudes, then converts the quotient's units.
     return quantity((top / bottom) * factor, unit)
+
+
+def converted(value: pint.Quantity, unit: str) -> pint.Quantity:
+    """``value.to(unit)`` with one cached factor (float magnitudes)."""
+    magnitude = value._magnitude
+    if type(magnitude) is float:
+        factor = _factor(value._units, unit)
+        if factor is not None:
+            # pint's multiplicative conversion: the magnitude times the factor.
+            return quantity(magnitude * factor, unit)
+    return value.to(unit)

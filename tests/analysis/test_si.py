@@ -7,7 +7,7 @@ import random
 import numpy as np
 import pytest
 
-from netcheck.analysis.si import quantity, ratio, si
+from netcheck.analysis.si import converted, quantity, ratio, si
 from netcheck.units import Q_
 
 # Units the analysis reads and writes, with prefixes a design may use.
@@ -81,3 +81,24 @@ def test_ratio_is_bit_identical_to_pint(top: str, bottom: str, target: str) -> N
     assert ratio(Q_(3, top), Q_(7, bottom), target) == (Q_(3, top) / Q_(7, bottom)).to(
         target
     )
+
+
+@pytest.mark.parametrize(("given", "target"), UNITS)
+def test_converted_is_bit_identical_to_pint(given: str, target: str) -> None:
+    rng = random.Random(11)  # fixed seed
+    for magnitude in [
+        0.0,
+        -0.0,
+        1.0,
+        3,
+        24,
+        *(rng.uniform(-1e6, 1e6) for _ in range(200)),
+    ]:
+        value = Q_(magnitude, given)
+        ours, theirs = converted(value, target), value.to(target)
+        assert type(ours.magnitude) is type(theirs.magnitude)
+        assert repr(ours) == repr(theirs) and ours.units == theirs.units
+
+
+def test_converted_follows_pint_for_offset_units() -> None:
+    assert converted(Q_(20.0, "degC"), "K") == Q_(20.0, "degC").to("K")
