@@ -4,7 +4,6 @@ from __future__ import annotations
 
 from collections.abc import Iterable, Iterator
 from dataclasses import dataclass, field
-from functools import cached_property
 
 import networkx as nx
 
@@ -15,7 +14,7 @@ from netcheck.kinds import (
     PROTECTIVE_KINDS,
     SWITCHING_KINDS,
 )
-from netcheck.model import Component, Netlist, SwitchingElement
+from netcheck.model import Component, Netlist, SwitchingElement, once
 
 __all__ = [
     "Branch",
@@ -64,17 +63,17 @@ class Branch:
     # ref, kind and key are read a dozen times per branch by the analysis and
     # the checks: each is worked out once (the fields are frozen) and then read
     # from the instance like a field.
-    @cached_property
+    @once
     def ref(self) -> str:
         """The component's reference."""
         return self.component.ref
 
-    @cached_property
+    @once
     def kind(self) -> str:
         """The component's kind."""
         return self.component.kind
 
-    @cached_property
+    @once
     def key(self) -> str:
         """A unique name: the element name, or ``REF`` (``REF:coil`` for coils)."""
         if self.element is not None:

@@ -13,14 +13,14 @@ equal to what the generated ``__init__`` makes.
 
 from __future__ import annotations
 
-from collections.abc import Mapping
+from collections.abc import Callable, Mapping
 from dataclasses import dataclass, field
-from functools import cached_property
-from typing import Any
+from typing import Any, Generic, TypeVar, overload
 
 from netcheck.source import Span
 
 __all__ = [
+    "once",
     "Attribute",
     "Connection",
     "Part",
@@ -38,6 +38,32 @@ __all__ = [
 _NEW_DICT: Any = object()
 # What ``Component.value`` finds where a key is not there (None is a value).
 _ABSENT: Any = object()
+T = TypeVar("T")
+
+
+class once(Generic[T]):  # noqa: N801 - used like ``property``
+    """A read-only property of a frozen object, worked out on its first read.
+
+    The value goes into the instance's ``__dict__``, which later reads find
+    before this (non-data) descriptor: a plain attribute read from then on.
+    ``functools.cached_property`` does the same behind a lock that costs more
+    than the small values these are.
+    """
+
+    def __init__(self, function: Callable[[Any], T]) -> None:
+        self.function = function
+        self.name = function.__name__
+        self.__doc__ = function.__doc__
+
+    @overload
+    def __get__(self, instance: None, owner: type | None = None) -> once[T]: ...
+    @overload
+    def __get__(self, instance: object, owner: type | None = None) -> T: ...
+    def __get__(self, instance: object, owner: type | None = None) -> T | once[T]:
+        if instance is None:
+            return self
+        value = instance.__dict__[self.name] = self.function(instance)
+        return value
 
 
 @dataclass(frozen=True)
@@ -114,7 +140,7 @@ class SwitchingElement:
         fields["form"] = form
         fields["span"] = span
 
-    @cached_property  # read many times per element; the fields are frozen
+    @once  # read many times per element; the fields are frozen
     def name(self) -> str:
         """The element's name, ``K1:13-14``.
 

@@ -114,3 +114,13 @@ def test_a_findings_default_values_are_a_new_dict_each_time():
     first = Finding("rule", Severity.INFO, "text", SPAN, "H1")
     second = Finding("rule", Severity.INFO, "text", SPAN, "H2")
     assert first.values == {} and first.values is not second.values
+
+
+def test_names_worked_out_once_follow_the_fields():
+    element = SwitchingElement("K1", "13", "14", "no", SPAN)
+    assert element.name == "K1:13-14" and "name" in vars(element)
+    assert dataclasses.replace(element, a="23", b="24").name == "K1:23-24"
+    coil = Branch(Component("relay", "K1", SPAN, ()), "coil", "P1", "W1")
+    assert (coil.key, coil.ref, coil.kind) == ("K1:coil", "K1", "relay")
+    assert Branch(None, "switch", "P1", "W1", element).key == "K1:13-14"
+    assert coil == Branch(Component("relay", "K1", SPAN, ()), "coil", "P1", "W1")
