@@ -36,6 +36,7 @@ from netcheck.analysis.switched import (
 )
 from netcheck.analysis.zero_ohm import ZeroOhm
 from netcheck.graph import COIL, CONDUCTOR, LOAD, SUPPLY, SWITCH, Branch, Domain, Graph
+from netcheck.model import Component
 
 __all__ = ["Analysis", "LoadInfo", "analyse"]
 
@@ -108,6 +109,21 @@ def _suppressors_between(
 
 
 def _load_suppressors(ctx: _Ctx, branch: Branch) -> tuple[Suppressor, ...]:
+    """A load's suppressors in ``ctx.state``: found once per state and load.
+
+    The closed state's loads are recorded, and each is switched by one or more
+    elements; all of them read the same suppressors.
+    """
+    if ctx.state is None:
+        return _find_load_suppressors(ctx, branch)
+    memo: dict = ctx.state.cache.setdefault("load-suppressors", {})  # type: ignore[assignment]
+    found = memo.get(branch.key)
+    if found is None:
+        found = memo[branch.key] = _find_load_suppressors(ctx, branch)
+    return found  # type: ignore[no-any-return]
+
+
+def _find_load_suppressors(ctx: _Ctx, branch: Branch) -> tuple[Suppressor, ...]:
     facts = ctx.state.facts[branch.key] if ctx.state else None
     low = branch.b
     if ctx.state is not None and (
@@ -178,6 +194,15 @@ def _switched_loads(
     return loads
 
 
+def _rated_as_power_device(state: DomainState, component: Component) -> bool:
+    """``rated_as_power_device``, once per component (one per pole before)."""
+    memo: dict = state.cache.setdefault("power-device", {})  # type: ignore[assignment]
+    rated = memo.get(component.ref)
+    if rated is None:
+        rated = memo[component.ref] = rated_as_power_device(component)
+    return rated  # type: ignore[no-any-return]
+
+
 def _shorted_chains(state: DomainState, floating: frozenset[str]) -> list:
     """The supply shorts that the element feeds (a chain touching its open side)."""
     return [
@@ -225,7 +250,7 @@ def _analyse_dc(
     opening = open_element(state, zero, injection, terminals, branch)
     power = (
         branch.component.kind == "contactor" and len(branch.element.a) == 1
-    ) or rated_as_power_device(branch.component)
+    ) or _rated_as_power_device(state, branch.component)
     current, supply_ref = _sag(state, opening.current_ab)
     # The loads break at the sagged current too: ½·L·I² with I = E/(R + r_int).
     sag = abs(current / opening.current_ab) if abs(opening.current_ab) > 1e-12 else 1.0
@@ -255,11 +280,7 @@ def _analyse_dc(
     )
     suppression = tuple(s for ld in loads for s in ld.suppressors) + tuple(across)
     missing = tuple(sorted({m for ld in loads for m in ld.facts.missing}))
-    unknown = [
-        b.ref
-        for b in state.unknown_resistance
-        if b.a in opening.floating_nets or b.b in opening.floating_nets
-    ]
+    unknown = _unknown_resistance(state, opening.floating_nets)
     supply = state.domain.supplies[0] if state.domain.supplies else None
     return ElementAnalysis(
         element=branch.element,
@@ -285,6 +306,27 @@ def _analyse_dc(
         missing=missing + tuple(f"{r}: resistance" for r in unknown),
         short_circuit=bool(shorted),
     )
+
+
+def _unknown_resistance(state: DomainState, nets: frozenset[str]) -> list[str]:
+    """References of the branches of unknown resistance touching ``nets``.
+
+    In the order of ``state.unknown_resistance``, found through an index by
+    net: a walk of the whole list per element was quadratic where many loads
+    lack their data.
+    """
+    at: dict[str, list[int]] | None = state.cache.get("unknown-at")  # type: ignore[assignment]
+    if at is None:
+        at = {}
+        for index, b in enumerate(state.unknown_resistance):
+            at.setdefault(b.a, []).append(index)
+            at.setdefault(b.b, []).append(index)
+        state.cache["unknown-at"] = at
+    if len(nets) > len(at):
+        found = {i for net in at if net in nets for i in at[net]}
+    else:
+        found = {i for net in nets for i in at.get(net, ())}
+    return [state.unknown_resistance[i].ref for i in sorted(found)]
 
 
 def _record_loads(
