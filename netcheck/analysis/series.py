@@ -23,23 +23,16 @@ def mark_series(elements: dict[str, ElementAnalysis]) -> dict[str, ElementAnalys
     for names in groups.values():
         if len(names) < 2:
             continue
+        # Sorted once per group: filtering a sorted list keeps it sorted.
+        ordered = sorted(names)
+        device_of = {n: elements[n].element.device for n in ordered}
         for name in names:
             e = elements[name]
-            partners = [n for n in names if n not in e.bypass]
-            same = tuple(
-                sorted(
-                    n
-                    for n in partners
-                    if elements[n].element.device == e.element.device
-                )
-            )
-            other = tuple(
-                sorted(
-                    n
-                    for n in partners
-                    if elements[n].element.device != e.element.device
-                )
-            )
+            bypass = set(e.bypass)
+            partners = [n for n in ordered if n not in bypass] if bypass else ordered
+            device = device_of[name]
+            same = tuple(n for n in partners if device_of[n] == device)
+            other = tuple(n for n in partners if device_of[n] != device)
             out[name] = replace(
                 e, series_poles=len(same), series_elements=same, other_series=other
             )

@@ -41,6 +41,7 @@ class ZeroOhm:
             subdivided.add_edge(edge_node, ("net", branch.b))
         self.block_of: dict[str, int] = {}
         self.blocks: list[list[str]] = []
+        self._switches: dict[int, list[str]] = {}
         for nodes in nx.biconnected_components(subdivided):
             if len(nodes) <= 2:
                 continue  # a bridge: its two halves are blocks of their own
@@ -54,11 +55,14 @@ class ZeroOhm:
         block = self.block_of.get(key)
         if block is None:
             return ()
-        return tuple(
-            k
-            for k in self.blocks[block]
-            if k != key and k in self.by_key and self.by_key[k].role == SWITCH
-        )
+        switches = self._switches.get(block)
+        if switches is None:  # the block's switching elements, once per block
+            switches = self._switches[block] = [
+                k
+                for k in self.blocks[block]
+                if k in self.by_key and self.by_key[k].role == SWITCH
+            ]
+        return tuple(k for k in switches if k != key)
 
     def bypass_through_load(self, key: str) -> bool:
         """Whether a bypass path of ``key`` runs through a load or resistor."""
