@@ -5,8 +5,7 @@ from __future__ import annotations
 from collections import deque
 from collections.abc import Iterable, Iterator
 
-import networkx as nx
-
+from netcheck.analysis.blocks import biconnected_components
 from netcheck.graph import SWITCH, Branch
 
 __all__ = ["ZeroOhm"]
@@ -27,25 +26,33 @@ class ZeroOhm:
         self.adjacent: dict[str, list[tuple[str, str]]] = {}
         self.by_key: dict[str, Branch] = {}
         self.shunt_keys: set[str] = set()
-        subdivided = nx.Graph()
+        # Each branch a net - edge - net path (parallel branches make a cycle),
+        # a simple graph: every neighbour once, as networkx's Graph keeps it.
+        subdivided: dict[tuple[str, str], dict[tuple[str, str], None]] = {}
+
+        def link(u: tuple[str, str], v: tuple[str, str]) -> None:
+            if u != v:
+                subdivided.setdefault(u, {})[v] = None
+                subdivided.setdefault(v, {})[u] = None
+
         for branch in shunts:
             self.shunt_keys.add(branch.key)
-            subdivided.add_edge(("net", branch.a), ("edge", branch.key))
-            subdivided.add_edge(("edge", branch.key), ("net", branch.b))
+            link(("net", branch.a), ("edge", branch.key))
+            link(("edge", branch.key), ("net", branch.b))
         for branch in branches:
             self.by_key[branch.key] = branch
             self.adjacent.setdefault(branch.a, []).append((branch.key, branch.b))
             self.adjacent.setdefault(branch.b, []).append((branch.key, branch.a))
             edge_node = ("edge", branch.key)
-            subdivided.add_edge(("net", branch.a), edge_node)
-            subdivided.add_edge(edge_node, ("net", branch.b))
+            link(("net", branch.a), edge_node)
+            link(edge_node, ("net", branch.b))
         self.block_of: dict[str, int] = {}
         self.blocks: list[list[str]] = []
         self._switches: dict[int, list[str]] = {}
-        for nodes in nx.biconnected_components(subdivided):
+        for nodes in biconnected_components(subdivided):
             if len(nodes) <= 2:
                 continue  # a bridge: its two halves are blocks of their own
-            edges = sorted(key for kind, key in nodes if kind == "edge")
+            edges = sorted(key for kind, key in nodes if kind == "edge")  # type: ignore[misc]
             for key in edges:
                 self.block_of[key] = len(self.blocks)
             self.blocks.append(edges)
