@@ -3,17 +3,20 @@
 from __future__ import annotations
 
 from collections.abc import Mapping
-from dataclasses import dataclass
 
 from netcheck.alloc import collector_paused, is_loaded
 from netcheck.analysis.constants import T95_PER_TAU
 from netcheck.analysis.domain import (
-    CONDUCTING,
     DomainState,
     chain_drop,
     prospective_current,
     shunts,
     solve_domain,
+)
+from netcheck.analysis.found_suppressors import (
+    DomainContext,
+    load_suppressors,
+    suppressors_between,
 )
 from netcheck.analysis.loads import (
     category_for,
@@ -62,103 +65,8 @@ def _degrees(graph: Graph) -> dict[str, int]:
     return {net: len(conns) for net, conns in graph.connections.items()}
 
 
-def _passes(chain: Chain, source: str, wire: Mapping[str, str]) -> bool:
-    """Whether the chain can carry current from ``source``'s side to the other.
-
-    A plain diode must be forward in that direction; a zener or unidirectional TVS
-    conducts forward or in breakdown, so either way (diode physics).
-    """
-    from_a = wire.get(chain.a, chain.a) == wire.get(source, source)
-    for branch in chain.branches:
-        sign = chain.polarity.get(branch.key)
-        if sign is None or branch.kind != "diode":
-            continue
-        if (sign > 0) != from_a:
-            return False
-    return True
-
-
-def _suppressors_between(
-    chains: Mapping[frozenset[str], list[Chain]],
-    wire: Mapping[str, str],
-    a: str,
-    b: str,
-    placement: str,
-    load: str | None,
-    currents: Mapping[str, float],
-    source: str | None = None,
-) -> list[Suppressor]:
-    """Suppressors between nets ``a`` and ``b``.
-
-    ``source`` is the net the suppressor must carry current away from at opening
-    (the load's negative side, or the element's current inlet); a chain that
-    cannot (a diode + zener with its diode turned round) is not functional.
-    """
-    found = []
-    for chain in chains.get(frozenset({wire.get(a, a), wire.get(b, b)}), ()):
-        conducts = any(
-            abs(currents.get(br.key, 0.0)) > CONDUCTING for br in chain.branches
-        )
-        functional = source is None or _passes(chain, source, wire)
-        found.append(
-            Suppressor(
-                chain.kind, placement, chain.refs, load, chain, conducts, functional
-            )
-        )
-    return found
-
-
-def _load_suppressors(ctx: _Ctx, branch: Branch) -> tuple[Suppressor, ...]:
-    """A load's suppressors in ``ctx.state``: found once per state and load.
-
-    The closed state's loads are recorded, and each is switched by one or more
-    elements; all of them read the same suppressors.
-    """
-    if ctx.state is None:
-        return _find_load_suppressors(ctx, branch)
-    memo: dict = ctx.state.cache.setdefault("load-suppressors", {})  # type: ignore[assignment]
-    found = memo.get(branch.key)
-    if found is None:
-        found = memo[branch.key] = _find_load_suppressors(ctx, branch)
-    return found  # type: ignore[no-any-return]
-
-
-def _find_load_suppressors(ctx: _Ctx, branch: Branch) -> tuple[Suppressor, ...]:
-    facts = ctx.state.facts[branch.key] if ctx.state else None
-    low = branch.b
-    if ctx.state is not None and (
-        ctx.state.net_potential(branch.a) < ctx.state.net_potential(branch.b)
-    ):
-        low = branch.a
-    # At opening the load drives its current on: out of its low side, round
-    # through the suppressor, into its high side.
-    found = _suppressors_between(
-        ctx.chains,
-        ctx.wire,
-        branch.a,
-        branch.b,
-        "across-load",
-        branch.ref,
-        ctx.state.currents if ctx.state else {},
-        source=low if ctx.state is not None else None,
-    )
-    if facts is not None and facts.suppression not in ("none", ""):
-        found.append(
-            Suppressor(facts.suppression, "built-in", (branch.ref,), branch.ref)
-        )
-    return tuple(found)
-
-
-@dataclass
-class _Ctx:
-    domain: Domain
-    state: DomainState | None
-    chains: Mapping[frozenset[str], list[Chain]]
-    wire: Mapping[str, str]
-
-
 def _switched_loads(
-    ctx: _Ctx, opening: Opening, power: bool, sag: float = 1.0
+    ctx: DomainContext, opening: Opening, power: bool, sag: float = 1.0
 ) -> list[SwitchedLoad]:
     """The loads the element switches, at the current it breaks.
 
@@ -188,7 +96,7 @@ def _switched_loads(
                 category_for(facts.type, power),
                 energy,
                 is_inductive(facts),
-                _load_suppressors(ctx, branch),
+                load_suppressors(ctx, branch),
             )
         )
     return loads
@@ -228,7 +136,7 @@ def _sag(state: DomainState, current: float) -> tuple[float, str | None]:
 
 
 def _analyse_dc(
-    ctx: _Ctx,
+    ctx: DomainContext,
     branch: Branch,
     zero: ZeroOhm,
     injection: Mapping[str, float],
@@ -244,7 +152,7 @@ def _analyse_dc(
             state.opened | frozenset(zero.bypass(branch.key)),
             opened=state.opened,
         )
-        ctx = _Ctx(ctx.domain, state, ctx.chains, ctx.wire)
+        ctx = DomainContext(ctx.domain, state, ctx.chains, ctx.wire)
         zero = _zero_ohm(ctx.domain, state)
         injection = net_injections(state)
     opening = open_element(state, zero, injection, terminals, branch)
@@ -268,7 +176,7 @@ def _analyse_dc(
     tau = max(taus) if taus else (quantity(0.0, "s") if loads else None)
     energies = [ld.energy for ld in loads if ld.energy is not None]
     inlet = branch.a if opening.current_ab >= 0 else branch.b
-    across = _suppressors_between(
+    across = suppressors_between(
         ctx.chains,
         ctx.wire,
         branch.a,
@@ -338,11 +246,11 @@ def _record_loads(
     """Loads of domains that are not solved (AC, no supply): facts and suppressors."""
     if domain.kind == "dc":
         return
-    ctx = _Ctx(domain, None, chains, wire)
+    ctx = DomainContext(domain, None, chains, wire)
     for branch in domain.branches:
         if branch.role in (LOAD, COIL):
             facts = load_facts(branch)
-            suppressors = _suppressors_between(
+            suppressors = suppressors_between(
                 chains, wire, branch.a, branch.b, "across-load", branch.ref, {}
             )
             if facts.suppression not in ("none", ""):
@@ -361,7 +269,7 @@ def _record_loads(
     del ctx
 
 
-def _record_dc_loads(analysis: Analysis, ctx: _Ctx) -> None:
+def _record_dc_loads(analysis: Analysis, ctx: DomainContext) -> None:
     state = ctx.state
     assert state is not None
     for key, facts in state.facts.items():
@@ -375,7 +283,7 @@ def _record_dc_loads(analysis: Analysis, ctx: _Ctx) -> None:
             "dc",
             quantity(current, "A") if current is not None else None,
             quantity(voltage, "V"),
-            _load_suppressors(ctx, branch),
+            load_suppressors(ctx, branch),
         )
 
 
@@ -432,7 +340,7 @@ def _analyse(graph: Graph) -> Analysis:
             if mode == "nc" and not members:
                 continue
             state = solve_domain(domain, frozenset(opened), opened=frozenset(opened))
-            ctx = _Ctx(domain, state, chains, wire)
+            ctx = DomainContext(domain, state, chains, wire)
             if mode == "no":
                 analysis.states[domain.name] = state
                 _record_dc_loads(analysis, ctx)
