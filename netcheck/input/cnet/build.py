@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 import difflib
-from collections.abc import Mapping, Sequence
+from collections.abc import Hashable, Mapping, Sequence
 from functools import cache, lru_cache
 from pathlib import Path
 from typing import Any
@@ -17,8 +17,9 @@ from netcheck.errors import (
     QuantityError,
     UnknownKindError,
 )
-from netcheck.input.cnet.parse import ComponentStatement
+from netcheck.input.cnet.parse import ComponentStatement, RawAttribute
 from netcheck.input.cnet.read import Reader, read_libraries
+from netcheck.input.cnet.template import Template, shape_of
 from netcheck.input.poles import (
     check_terminals,
     elements_of,
@@ -54,17 +55,21 @@ from netcheck.units import check_sign
 
 __all__ = ["load_cnet"]
 
+# Statement shapes remembered a design (template.py): a design of unique values
+# gains nothing from more.
+MAX_TEMPLATES = 4096
+
 
 def _close(word: str, options: Sequence[str]) -> str:
     near = difflib.get_close_matches(word, options, n=1)
     return f"; did you mean {near[0]!r}?" if near else ""
 
 
-def _parse_value(key: str, text: str, span: Span, quoted: bool) -> Any:
+def _parse_value(raw: RawAttribute) -> Any:
     try:
-        return _value_of(key, text)
-    except InputError:
-        return _value_at(key, text, span)  # again, to raise the error located
+        return _value_of(raw.key, raw.text)
+    except InputError:  # again, to raise the error located (where the value is)
+        return _value_at(raw.key, raw.text, raw.value_span)
 
 
 @lru_cache(maxsize=4096)
@@ -141,6 +146,7 @@ class _Builder:
         self.parts = parts
         self.errors = errors
         self.part_values: dict[str, dict[str, Any]] = {}
+        self.templates: dict[Hashable, Template] = {}
 
     def values_of(self, part: Part | None) -> Mapping[str, Any]:
         """A part's data with its groups as dicts, made once per part.
@@ -172,7 +178,7 @@ class _Builder:
                 )
                 continue
             try:
-                value = _parse_value(raw.key, raw.text, raw.value_span, raw.quoted)
+                value = _parse_value(raw)
             except InputError as error:
                 self.errors.append(error)
                 continue
@@ -206,20 +212,24 @@ class _Builder:
         return part
 
     def connections(self, statement: ComponentStatement) -> tuple[Connection, ...]:
+        connections = statement.connections
+        if len({c.terminal for c in connections}) == len(connections):
+            return connections
         seen: dict[str, Span] = {}
         out = []
-        for terminal, net, span in statement.connections:
+        for connection in connections:
+            terminal = connection.terminal
             if terminal in seen:
                 self.errors.append(
                     InputError(
                         f"terminal {terminal!r} of {statement.ref} is connected twice "
                         f"(first at {seen[terminal]})",
-                        span,
+                        connection.span,
                     )
                 )
                 continue
-            seen[terminal] = span
-            out.append(Connection(terminal, net, span))
+            seen[terminal] = connection.span
+            out.append(connection)
         return tuple(out)
 
     def check_fixed_terminals(
@@ -319,6 +329,20 @@ class _Builder:
             self.errors.append(error)
 
     def component(self, statement: ComponentStatement) -> Component | None:
+        """The component of ``statement``, by its shape's template if there is one."""
+        shape = shape_of(statement)
+        template = self.templates.get(shape)
+        if template is not None:
+            return template.component(statement)
+        errors = len(self.errors)
+        component = self.build(statement)
+        if component is not None and len(self.errors) == errors:
+            if len(self.templates) < MAX_TEMPLATES:
+                self.templates[shape] = Template.of(component)
+        return component
+
+    def build(self, statement: ComponentStatement) -> Component | None:
+        """The component of ``statement``, every attribute, part and pole read."""
         if statement.kind not in KINDS:
             self.errors.append(
                 UnknownKindError(

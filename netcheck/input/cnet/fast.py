@@ -3,17 +3,18 @@
 Almost every file of a design is well formed and made of a few statement shapes
 (``kind ref key=value ... terminal:net ...``, ``title``/``parts``/``include``
 with a string, ``waive``). Lexing them token by token through lark costs
-several microseconds a token; this reads each line with one regular
-expression instead. It reads only what it is sure of: a statement with
-anything else (a syntax error, a space around ``=`` or ``:``, a keyword used as
-a name) is handed alone to the grammar, its lines and positions kept; if the
-grammar finds an error there, or the file's lines themselves are unusual (a
-form feed, a stray carriage return, an indented first line), it gives up and
-returns None, and ``parse.parse_text`` reads the whole file with the lark
-parser, which finds and words every error. So the grammar stays the one
-definition of the language; ``tests/test_fast_parse.py`` checks over every
-``.cnet`` file in the repository and a generated corpus that both readers give
-the same statements, spans included, and the same errors.
+several microseconds a token; this splits each line into its tokens with one
+regular expression (``findall``, no match objects) and builds a component's
+attributes and connections as it goes. It reads only what it is sure of: a
+statement with anything else (a syntax error, a space around ``=`` or ``:``, a
+keyword used as a name) is handed alone to the grammar, its lines and
+positions kept; if the grammar finds an error there, or the file's lines
+themselves are unusual (a form feed, a stray carriage return, an indented
+first line), it gives up and returns None, and ``parse.parse_text`` reads the
+whole file with the lark parser, which finds and words every error. So the
+grammar stays the one definition of the language; ``tests/test_fast_parse.py``
+checks over every ``.cnet`` file in the repository and a generated corpus that
+both readers give the same statements, spans included, and the same errors.
 """
 
 from __future__ import annotations
@@ -28,11 +29,13 @@ from netcheck.input.cnet.statements import (
     RawAttribute,
     Statement,
     WaiveStatement,
+    new_span,
     unquote,
 )
+from netcheck.model import Connection
 from netcheck.source import Span
 
-__all__ = ["fast_statements"]
+__all__ = ["fast_statements", "KEYWORDS"]
 
 # The grammar's terminals (grammar/cnet.lark), as written there.
 _NAME = r"[A-Za-z0-9_+\-.\/~!*]+"
@@ -41,206 +44,225 @@ _STRING = r'"(?:[^"\\\r\n]|\\.)*"'
 # The grammar's keywords: a name spelled like one is lexed as the keyword.
 KEYWORDS = frozenset({"title", "parts", "include", "waive"})
 
-# One token of a line, after optional blanks: key=value, terminal:net, a bare
-# name, or a string. Each must end at a blank, a comment or the line's end;
-# anything else is left to the grammar. The last group that matched tells the
-# shape (``match.lastindex``): 2 a quoted value, 3 a value, 5 a net, 6 a name,
-# 7 a string.
+# One token of a line and the blanks before it (kept for its column): key=value
+# (a quoted or a plain value), terminal:net, a bare name or a string, each
+# ending at a blank, a comment or the line's end; else a comment, or any other
+# character (which leaves the statement to the grammar). ``findall`` gives one
+# tuple a token, its groups in this order; it skips nothing but trailing blanks,
+# since "any other character" matches wherever no token does.
 _TOKEN = re.compile(
-    rf"[ \t]*(?:"
+    rf"([ \t]*+)(?:(?:"
     rf"({_NAME})=(?:({_STRING})|({_VALUE}))"
     rf"|({_NAME}):({_NAME})"
     rf"|({_NAME})"
     rf"|({_STRING})"
-    rf")(?=[ \t]|#|\Z)"
+    rf")(?=[ \t]|#|\Z)|(#.*)|(.))"
 )
-_REST = re.compile(r"[ \t]*(?:#.*)?\Z")
-_BLANK = _REST
+# The tuple's fields: blanks, key, quoted value, value, terminal, net, name,
+# string, comment, other character; the name's and the comment's indices:
+_NAME_FIELD, _COMMENT_FIELD = 6, 8
+# A token as keyword statements use it: (text, second text, shape, line,
+# column, end column); shapes NAME, LINK (terminal:net) and STRING.
+NAME, LINK, STRING = range(3)
+Token = tuple[str, str, int, int, int, int]
 
-# A token: (shape, first text, second text, line, column, end column); shapes
-# are ITEM (key and value), QUOTED (key and quoted value), LINK (terminal and
-# net), NAME and STRING (one text). Tokens never span lines.
-ITEM, QUOTED, LINK, NAME, STRING = range(5)
-Token = tuple[int, str, str, int, int, int]
-# match.lastindex -> (shape, group of the token's start, first, second text).
-_SHAPES = {
-    2: (QUOTED, 1, 1, 2),
-    3: (ITEM, 1, 1, 3),
-    5: (LINK, 4, 4, 5),
-    6: (NAME, 6, 6, 0),
-    7: (STRING, 7, 7, 0),
-}
+
+_NEW = object.__new__
 
 
 class _GiveUp(Exception):
     """The text is not certainly well formed: leave it to the grammar."""
 
 
-def _line_tokens(line: str, number: int, tokens: list[Token]) -> None:
-    """Append the tokens of ``line`` to ``tokens``; raise _GiveUp if unsure."""
-    at = 0
-    shapes = _SHAPES
+def _items(
+    file: str,
+    tokens: list[tuple[str, ...]],
+    number: int,
+    at: int,
+    attributes: list[RawAttribute],
+    connections: list[Connection],
+) -> int | None:
+    """Add a line's attributes and connections; the end column of its last one.
+
+    ``at`` is where the tokens start on the line (0-based); 0 if there are none
+    (a comment only). None if the line holds anything else (a bare name, a
+    string, a keyword where a name stands, a character no token explains).
+    """
+    keywords = KEYWORDS  # how the grammar lexes a keyword there is its business
     # Kinds, keys, terminals, values and nets repeat throughout a design: one
     # string each (interned) instead of one per token, a tenth of the model.
     intern = sys.intern
-    for match in _TOKEN.finditer(line):
-        if match.start() != at:
-            break  # something no token explains: only a comment may follow
-        at = match.end()
-        shape, begin, first, second = shapes[match.lastindex]  # type: ignore[index]
-        tokens.append(
-            (
-                shape,
-                intern(match[first]),
-                intern(match[second]) if second else "",
-                number,
-                match.start(begin) + 1,
-                at + 1,
-            )
-        )
-    if not _REST.match(line, at):
-        raise _GiveUp
-
-
-class _Statement:
-    """The lines of one statement (first and last line numbers) and its tokens.
-
-    ``tokens`` is None once a line of it is not certainly well formed.
-    """
-
-    __slots__ = ("first", "last", "tokens")
-
-    def __init__(self, first: int) -> None:
-        self.first = self.last = first
-        self.tokens: list[Token] | None = []
-
-    def add(self, line: str, number: int) -> None:
-        self.last = number
-        if self.tokens is not None:
-            try:
-                _line_tokens(line, number, self.tokens)
-            except _GiveUp:
-                self.tokens = None
-
-
-def _statements_lines(lines: list[str]) -> list[_Statement]:
-    """The statements of a file's lines, continuation lines joined.
-
-    A line that starts with a blank continues the statement above; blank and
-    comment-only lines belong to none (the grammar's own rules, cnet.lark).
-    """
-    statements: list[_Statement] = []
-    current: _Statement | None = None
-    for number, line in enumerate(lines, start=1):
-        if line.endswith("\r"):
-            line = line[:-1]
-        if "\r" in line or "\f" in line:
-            raise _GiveUp  # how the grammar breaks such a line is its business
-        if _BLANK.match(line):
-            continue
-        if line[0] in " \t":
-            if current is None:
-                raise _GiveUp  # an indented first statement: the grammar words it
+    end = 0
+    for blanks, key, quoted, value, terminal, net, _, _, comment, _ in tokens:
+        column = at + len(blanks) + 1
+        if terminal:
+            if terminal in keywords or net in keywords:
+                return None
+            end = column + len(terminal) + 1 + len(net)
+        elif key and key not in keywords and value not in keywords:
+            end = column + len(key) + 1 + len(quoted or value)
+        elif comment:
+            break
         else:
-            current = _Statement(number)
-            statements.append(current)
-        current.add(line, number)
-    return statements
+            return None
+        # new_span(file, number, column, number, end), written out: a call per
+        # token was a fifth of the read.
+        span = _NEW(Span)
+        fields = span.__dict__
+        fields["file"] = file
+        fields["line"] = number
+        fields["column"] = column
+        fields["end_line"] = number
+        fields["end_column"] = end
+        if terminal:
+            connections.append(Connection(intern(terminal), intern(net), span))
+        elif quoted:
+            attributes.append(RawAttribute(intern(key), unquote(quoted), True, span))
+        else:
+            attributes.append(RawAttribute(intern(key), intern(value), False, span))
+        at = end - 1
+    return end
 
 
-def _new_span(
-    file: str, line: int, column: int, end_line: int, end_column: int
-) -> Span:
-    """``Span(...)`` without the frozen dataclass's five ``__setattr__`` calls.
+def _keyword_tokens(tokens: list[tuple[str, ...]], number: int) -> list[Token]:
+    """A line's tokens as keyword statements read them; raise _GiveUp if unsure."""
+    out: list[Token] = []
+    at = 0
+    for blanks, _key, _, _, terminal, net, name, string, comment, _ in tokens:
+        column = at + len(blanks) + 1
+        if comment:
+            break
+        if terminal:
+            text, second, shape, width = (
+                terminal,
+                net,
+                LINK,
+                len(terminal) + 1 + len(net),
+            )
+        elif name:
+            text, second, shape, width = name, "", NAME, len(name)
+        elif string:
+            text, second, shape, width = string, "", STRING, len(string)
+        else:
+            raise _GiveUp  # key=value or a character no token explains
+        out.append((text, second, shape, number, column, column + width))
+        at = column - 1 + width
+    return out
 
-    Half a dozen spans are made per statement, and the frozen ``__init__`` was
-    a tenth of the read; the object is the same (tests compare them equal).
+
+class _Pending:
+    """A statement being read: its first and last line and what it holds.
+
+    ``sure`` turns False once a line of it is not certainly well formed; a
+    keyword statement keeps its tokens (``keyword``), a component its kind,
+    reference, attributes and connections.
     """
-    span = _NEW(Span)
-    fields = span.__dict__
-    fields["file"] = file
-    fields["line"] = line
-    fields["column"] = column
-    fields["end_line"] = end_line
-    fields["end_column"] = end_column
-    return span
 
+    __slots__ = (
+        "file",
+        "first",
+        "last",
+        "sure",
+        "keyword",
+        "kind",
+        "ref",
+        "attributes",
+        "connections",
+        "end",
+    )
 
-_NEW = object.__new__
+    def __init__(self, file: str, tokens: list[tuple[str, ...]], number: int) -> None:
+        self.file = file
+        self.first = self.last = number
+        self.sure = True
+        self.keyword: list[Token] | None = None
+        self.attributes: list[RawAttribute] = []
+        self.connections: list[Connection] = []
+        kind = tokens[0][_NAME_FIELD]
+        if kind in KEYWORDS:
+            self.keyword = []
+            self.add(tokens, number)
+            return
+        ref = tokens[1][_NAME_FIELD] if len(tokens) > 1 else ""
+        if not kind or not ref or ref in KEYWORDS:
+            self.sure = False
+            return
+        kind_at = len(tokens[0][0])
+        ref_at = kind_at + len(kind) + len(tokens[1][0])
+        self.kind = (sys.intern(kind), kind_at + 1)
+        self.ref = (ref, ref_at + 1)
+        self.end = (number, ref_at + len(ref) + 1)
+        self.items(tokens[2:], number, ref_at + len(ref))
+
+    def add(self, tokens: list[tuple[str, ...]], number: int) -> None:
+        """Add a continuation line (or, for a keyword statement, any line)."""
+        self.last = number
+        if not self.sure:
+            return
+        if self.keyword is None:
+            self.items(tokens, number, 0)
+            return
+        try:
+            self.keyword += _keyword_tokens(tokens, number)
+        except _GiveUp:
+            self.sure = False
+
+    def items(self, tokens: list[tuple[str, ...]], number: int, at: int) -> None:
+        if not tokens:
+            return
+        end = _items(self.file, tokens, number, at, self.attributes, self.connections)
+        if end is None:
+            self.sure = False
+        elif end:
+            self.end = (number, end)
+
+    def statement(self) -> Statement | None:
+        """The statement read, or None if the line reader is unsure of it."""
+        if not self.sure:
+            return None
+        if self.keyword is not None:
+            try:
+                return _keyword_statement(self.file, self.keyword)
+            except _GiveUp:
+                return None
+        file = self.file
+        (kind, kind_column), (ref, ref_column) = self.kind, self.ref
+        first = self.first
+        return ComponentStatement(
+            kind,
+            ref,
+            tuple(self.attributes),
+            tuple(self.connections),
+            new_span(file, first, kind_column, *self.end),
+            new_span(file, first, ref_column, first, ref_column + len(ref)),
+        )
 
 
 def _span(file: str, first: Token, last: Token) -> Span:
-    return _new_span(file, first[3], first[4], last[3], last[5])
-
-
-def _check_names(*texts: str) -> None:
-    if not KEYWORDS.isdisjoint(texts):
-        raise _GiveUp  # how the grammar lexes a keyword there is its business
-
-
-def _items(
-    file: str, tokens: list[Token]
-) -> tuple[list[RawAttribute], list[tuple[str, str, Span]]]:
-    attributes: list[RawAttribute] = []
-    connections: list[tuple[str, str, Span]] = []
-    keywords = KEYWORDS  # how the grammar lexes a keyword there is its business
-    for shape, first, second, line, column, end in tokens:
-        if first in keywords:
-            raise _GiveUp
-        span = _new_span(file, line, column, line, end)
-        if shape == LINK:
-            if second in keywords:
-                raise _GiveUp
-            connections.append((first, second, span))
-            continue
-        if shape == ITEM:
-            if second in keywords:
-                raise _GiveUp
-            text, quoted = second, False
-        elif shape == QUOTED:
-            text, quoted = unquote(second), True
-        else:
-            raise _GiveUp
-        attributes.append(RawAttribute(first, text, quoted, span))
-    return attributes, connections
-
-
-def _component(file: str, tokens: list[Token]) -> ComponentStatement:
-    if len(tokens) < 2 or tokens[0][0] != NAME or tokens[1][0] != NAME:
-        raise _GiveUp
-    kind, ref = tokens[0], tokens[1]
-    _check_names(ref[1])
-    attributes, connections = _items(file, tokens[2:])
-    return ComponentStatement(
-        kind=kind[1],
-        ref=ref[1],
-        attributes=tuple(attributes),
-        connections=tuple(connections),
-        span=_span(file, kind, tokens[-1]),
-        ref_span=_span(file, ref, ref),
-    )
+    return new_span(file, first[3], first[4], last[3], last[5])
 
 
 def _keyword_statement(
     file: str, tokens: list[Token]
 ) -> FileStatement | WaiveStatement:
     keyword, last = tokens[0], tokens[-1]
-    if last[0] != STRING:
+    if last[2] != STRING:
         raise _GiveUp
     span = _span(file, keyword, last)
     last_span = _span(file, last, last)
-    if keyword[1] != "waive":
+    if keyword[0] != "waive":
         if len(tokens) != 2:
             raise _GiveUp
-        return FileStatement(keyword[1], unquote(last[1]), span, last_span)
-    if len(tokens) != 4 or tokens[1][0] != NAME or tokens[2][0] not in (NAME, LINK):
+        return FileStatement(keyword[0], unquote(last[0]), span, last_span)
+    if len(tokens) != 4 or tokens[1][2] != NAME or tokens[2][2] == STRING:
         raise _GiveUp
     rule, target = tokens[1], tokens[2]
-    _check_names(rule[1], target[1], target[2])
+    if not KEYWORDS.isdisjoint((rule[0], target[0], target[1])):
+        raise _GiveUp  # how the grammar lexes a keyword there is its business
     return WaiveStatement(
-        rule[1],
-        f"{target[1]}:{target[2]}" if target[0] == LINK else target[1],
-        unquote(last[1]),
+        rule[0],
+        f"{target[0]}:{target[1]}" if target[2] == LINK else target[0],
+        unquote(last[0]),
         span,
         _span(file, target, target),
         last_span,
@@ -251,6 +273,22 @@ def _keyword_statement(
 # sure of) with the grammar: (text, lines before it) -> its statements with
 # their spans in the file, or None if the grammar finds any error there.
 Grammar = Callable[[str, int], "list[Statement] | None"]
+
+
+def _lines(text: str) -> list[str]:
+    """The file's lines; raise _GiveUp if a form feed or a lone CR is in them.
+
+    How the grammar breaks such a line is its business. A CR is allowed only
+    before a line break (CRLF line ends) or at the very end.
+    """
+    if "\f" in text:
+        raise _GiveUp
+    lines = text.split("\n")
+    if "\r" in text:
+        lines = [line.removesuffix("\r") for line in lines]
+        if any("\r" in line for line in lines):
+            raise _GiveUp
+    return lines
 
 
 def fast_statements(
@@ -264,35 +302,47 @@ def fast_statements(
     feed, a stray carriage return, an indented first line). The caller then
     reads the whole file with the grammar, so every error and caret is the
     grammar's, as if the line reader did not exist.
+
+    A line that starts with a blank continues the statement above; blank and
+    comment-only lines belong to none (the grammar's own rules, cnet.lark).
     """
     try:
-        lines = text.split("\n")
-        out: list[Statement] = []
-        for statement in _statements_lines(lines):
-            read = _statement(file, statement.tokens)
-            if read is not None:
-                out.append(read)
-                continue
-            if grammar is None:
-                return None
-            chunk = "\n".join(lines[statement.first - 1 : statement.last])
-            parsed = grammar(chunk, statement.first - 1)
-            if parsed is None:
-                return None
-            out.extend(parsed)
-        return out
+        lines = _lines(text)
     except _GiveUp:
         return None
+    out: list[Statement] = []
+    pending: _Pending | None = None
+    tokens_of = _TOKEN.findall
+    for number, line in enumerate(lines, start=1):
+        tokens = tokens_of(line)
+        if not tokens or tokens[0][_COMMENT_FIELD]:
+            continue
+        if line[0] not in " \t":
+            if pending is not None and not _finish(pending, lines, grammar, out):
+                return None
+            pending = _Pending(file, tokens, number)
+        elif pending is None:
+            return None  # an indented first statement: the grammar words it
+        else:
+            pending.add(tokens, number)
+    if pending is not None and not _finish(pending, lines, grammar, out):
+        return None
+    return out
 
 
-def _statement(file: str, tokens: list[Token] | None) -> Statement | None:
-    """One statement from its tokens, or None if the line reader is unsure."""
-    if tokens is None:
-        return None
-    try:
-        first = tokens[0]
-        if first[0] == NAME and first[1] in KEYWORDS:
-            return _keyword_statement(file, tokens)
-        return _component(file, tokens)
-    except _GiveUp:
-        return None
+def _finish(
+    pending: _Pending, lines: list[str], grammar: Grammar | None, out: list
+) -> bool:
+    """Add the statement read to ``out`` (by the grammar if unsure); False on error."""
+    read = pending.statement()
+    if read is not None:
+        out.append(read)
+        return True
+    if grammar is None:
+        return False
+    chunk = "\n".join(lines[pending.first - 1 : pending.last])
+    parsed = grammar(chunk, pending.first - 1)
+    if parsed is None:
+        return False
+    out.extend(parsed)
+    return True

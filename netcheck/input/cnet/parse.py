@@ -24,6 +24,7 @@ from netcheck.input.cnet.statements import (
     WaiveStatement,
     unquote,
 )
+from netcheck.model import Connection
 from netcheck.resources import read_text
 from netcheck.source import Span, register_text
 
@@ -129,9 +130,10 @@ class _ToStatements(Transformer):
         return RawAttribute(str(key), text, quoted, span)
 
     @v_args(tree=True)
-    def connection(self, tree: Tree) -> tuple[str, str, Span]:
+    def connection(self, tree: Tree) -> Connection:
         terminal, net = tree.children
-        return str(terminal), str(net), self._joined(tree, terminal, net, ":")
+        span = self._joined(tree, terminal, net, ":")
+        return Connection(str(terminal), str(net), span)
 
     @v_args(tree=True)
     def component(self, tree: Tree) -> ComponentStatement:
@@ -140,7 +142,7 @@ class _ToStatements(Transformer):
             kind=str(kind),
             ref=str(ref),
             attributes=tuple(i for i in items if isinstance(i, RawAttribute)),
-            connections=tuple(i for i in items if isinstance(i, tuple)),
+            connections=tuple(i for i in items if isinstance(i, Connection)),
             span=self._span(tree),
             ref_span=self._span(ref),
         )
@@ -150,11 +152,15 @@ class _ToStatements(Transformer):
 
 
 def decode_source(data: bytes, file: str) -> str:
-    """Decode UTF-8 text or raise an InputError at the first bad byte."""
-    register_text(file, data.decode("utf-8", errors="replace"))
+    """Decode UTF-8 text or raise an InputError at the first bad byte.
+
+    The text is registered for excerpts only on an error: ``parse_text``
+    registers what it reads.
+    """
     try:
         text = data.decode("utf-8")
     except UnicodeDecodeError as error:
+        register_text(file, data.decode("utf-8", errors="replace"))
         before = data[: error.start]
         line = before.count(b"\n") + 1
         column = len(before) - (before.rfind(b"\n") + 1) + 1
@@ -163,6 +169,7 @@ def decode_source(data: bytes, file: str) -> str:
             Span(file, line, column, line, column + 1),
         ) from None
     if "\x00" in text:
+        register_text(file, text)
         index = text.index("\x00")
         line = text.count("\n", 0, index) + 1
         column = index - (text.rfind("\n", 0, index) + 1) + 1

@@ -94,8 +94,13 @@ class Reader:
         except InputError as error:
             self.errors.append(error)
             return
+        inner = (*chain, path)
+        components = self.statements
         for statement in parsed.statements:
-            self.statement(statement, path, (*chain, path))
+            if type(statement) is ComponentStatement:  # nearly all: no call each
+                components.append(statement)
+            else:
+                self.statement(statement, path, inner)
 
     def statement(self, statement: object, path: Path, chain: tuple[Path, ...]) -> None:
         """Collect one statement: a component, a waiver, or a file statement."""

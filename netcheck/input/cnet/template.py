@@ -1,0 +1,87 @@
+"""What the components of one statement shape share, worked out once a design.
+
+Components whose statements have the same kind, the same attribute texts and
+the same terminals get the same parsed values, part, poles, merged values and
+tags, and the same errors; only the reference, the nets and the spans differ.
+The builder makes the first component of a shape in full; if that raised no
+error, the shape's template makes the others: the same (immutable, shared)
+objects for what is alike, new attributes, switching elements and component
+for what is not. A large design repeats a few dozen shapes, so this does the
+part lookups, value merges and pole inference once a shape, not once a
+component.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Hashable, Mapping
+from dataclasses import dataclass
+from typing import Any
+
+from netcheck.input.cnet.statements import ComponentStatement
+from netcheck.model import Attribute, Component, Part, Pole, SwitchingElement
+
+__all__ = ["Template", "shape_of"]
+
+
+def shape_of(statement: ComponentStatement) -> Hashable:
+    """What decides everything but a component's reference, nets and spans.
+
+    Whether a value was quoted is left out: the builder reads the text alone.
+    """
+    return (
+        statement.kind,
+        tuple([(a.key, a.text) for a in statement.attributes]),
+        tuple([c.terminal for c in statement.connections]),
+    )
+
+
+@dataclass(frozen=True, slots=True)
+class Template:
+    """The parts of a component that every component of its shape shares."""
+
+    values: tuple[Any, ...]  # each attribute's parsed value, in order
+    part: Part | None
+    merged: Mapping[str, Any]  # Component.values (nothing mutates it)
+    tags: frozenset[str]
+    poles: tuple[Pole, ...]
+    elements: tuple[tuple[str, str, str], ...]  # (a, b, form) of each element
+
+    @classmethod
+    def of(cls, component: Component) -> Template:
+        """The template of the shape of ``component`` (built without errors)."""
+        return cls(
+            tuple(a.value for a in component.attributes),
+            component.part,
+            component.values,
+            component.tags,
+            component.poles,
+            tuple((e.a, e.b, e.form) for e in component.elements),
+        )
+
+    def component(self, statement: ComponentStatement) -> Component:
+        """The component of ``statement``, a statement of this template's shape."""
+        ref, span = statement.ref, statement.span
+        return Component(
+            statement.kind,
+            ref,
+            span,
+            statement.connections,
+            tuple(
+                [
+                    Attribute(raw.key, value, raw.text, raw.span)
+                    for raw, value in zip(
+                        statement.attributes, self.values, strict=True
+                    )
+                ]
+            ),
+            self.part,
+            self.merged,
+            self.tags,
+            self.poles,
+            tuple(
+                [
+                    SwitchingElement(ref, a, b, form, span)
+                    for a, b, form in self.elements
+                ]
+            ),
+        )
