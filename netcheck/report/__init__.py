@@ -228,11 +228,20 @@ class Report:
 def _shown(
     items: Iterable[ElementStatus] | Iterable[ErrorRecord],
 ) -> tuple[Any, ...]:
-    """Give records their display path; sort them; drop repeats (shared sheets)."""
-    out = {
-        dataclasses.replace(item, file=display_path(item.file) if item.file else "")
-        for item in items
-    }
+    """Give records their display path; sort them; drop repeats (shared sheets).
+
+    A design's many records share a few files: each file's path is worked out
+    once, and a record whose path reads the same already is kept as it is.
+    """
+    shown: dict[str, str] = {}
+    out = set()
+    for item in items:
+        file = item.file
+        if file not in shown:
+            shown[file] = display_path(file) if file else ""
+        if shown[file] != file:
+            item = dataclasses.replace(item, file=shown[file])
+        out.add(item)
     return tuple(sorted(out))
 
 

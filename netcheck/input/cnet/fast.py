@@ -44,23 +44,21 @@ _STRING = r'"(?:[^"\\\r\n]|\\.)*"'
 # The grammar's keywords: a name spelled like one is lexed as the keyword.
 KEYWORDS = frozenset({"title", "parts", "include", "waive"})
 
-# One token of a line and the blanks before it (kept for its column): key=value
-# (a quoted or a plain value), terminal:net, a bare name or a string, each
-# ending at a blank, a comment or the line's end; else a comment, or any other
-# character (which leaves the statement to the grammar). ``findall`` gives one
-# tuple a token, its groups in this order; it skips nothing but trailing blanks,
-# since "any other character" matches wherever no token does.
+# One token of a line and the blanks before it (kept for its column): a name,
+# alone or as key=value (a quoted or a plain value) or terminal:net, or a
+# string, each ending at a blank, a comment or the line's end; else a comment,
+# or any other character (which leaves the statement to the grammar).
+# ``findall`` gives one tuple a token, its groups in this order: blanks, the
+# token, name, quoted value, value, net, string, comment, other character. It
+# skips nothing but trailing blanks, since "any other character" matches
+# wherever no token does. (Possessive: a name or value never gives back.)
 _TOKEN = re.compile(
-    rf"([ \t]*+)(?:(?:"
-    rf"({_NAME})=(?:({_STRING})|({_VALUE}))"
-    rf"|({_NAME}):({_NAME})"
-    rf"|({_NAME})"
+    rf"([ \t]*+)(?:("
+    rf"({_NAME}+)(?:=(?:({_STRING})|({_VALUE}+))|:({_NAME}+))?"
     rf"|({_STRING})"
     rf")(?=[ \t]|#|\Z)|(#.*)|(.))"
 )
-# The tuple's fields: blanks, key, quoted value, value, terminal, net, name,
-# string, comment, other character; the name's and the comment's indices:
-_NAME_FIELD, _COMMENT_FIELD = 6, 8
+_TOKEN_FIELD, _NAME_FIELD, _COMMENT_FIELD = 1, 2, 7
 # A token as keyword statements use it: (text, second text, shape, line,
 # column, end column); shapes NAME, LINK (terminal:net) and STRING.
 NAME, LINK, STRING = range(3)
@@ -93,18 +91,18 @@ def _items(
     # string each (interned) instead of one per token, a tenth of the model.
     intern = sys.intern
     end = 0
-    for blanks, key, quoted, value, terminal, net, _, _, comment, _ in tokens:
-        column = at + len(blanks) + 1
-        if terminal:
-            if terminal in keywords or net in keywords:
+    for blanks, token, name, quoted, value, net, _, comment, _ in tokens:
+        if not name or name in keywords:
+            if comment:
+                break
+            return None  # a string, a keyword, a character no token explains
+        if net:
+            if net in keywords:
                 return None
-            end = column + len(terminal) + 1 + len(net)
-        elif key and key not in keywords and value not in keywords:
-            end = column + len(key) + 1 + len(quoted or value)
-        elif comment:
-            break
-        else:
-            return None
+        elif not quoted and (not value or value in keywords):
+            return None  # a bare name, or a keyword as a value
+        column = at + len(blanks) + 1
+        end = column + len(token)
         # new_span(file, number, column, number, end), written out: a call per
         # token was a fifth of the read.
         span = _NEW(Span)
@@ -114,39 +112,40 @@ def _items(
         fields["column"] = column
         fields["end_line"] = number
         fields["end_column"] = end
-        if terminal:
-            connections.append(Connection(intern(terminal), intern(net), span))
+        if net:
+            connections.append(Connection(intern(name), intern(net), span))
         elif quoted:
-            attributes.append(RawAttribute(intern(key), unquote(quoted), True, span))
+            attributes.append(RawAttribute(intern(name), unquote(quoted), True, span))
         else:
-            attributes.append(RawAttribute(intern(key), intern(value), False, span))
+            attributes.append(RawAttribute(intern(name), intern(value), False, span))
         at = end - 1
     return end
+
+
+def _bare(token: tuple[str, ...]) -> str:
+    """The name of a bare-name token, else ''."""
+    name = token[_NAME_FIELD]
+    return name if name == token[_TOKEN_FIELD] else ""
 
 
 def _keyword_tokens(tokens: list[tuple[str, ...]], number: int) -> list[Token]:
     """A line's tokens as keyword statements read them; raise _GiveUp if unsure."""
     out: list[Token] = []
     at = 0
-    for blanks, _key, _, _, terminal, net, name, string, comment, _ in tokens:
+    for blanks, token, name, quoted, value, net, string, comment, _ in tokens:
         column = at + len(blanks) + 1
         if comment:
             break
-        if terminal:
-            text, second, shape, width = (
-                terminal,
-                net,
-                LINK,
-                len(terminal) + 1 + len(net),
-            )
-        elif name:
-            text, second, shape, width = name, "", NAME, len(name)
+        if net:
+            text, second, shape = name, net, LINK
+        elif name and not (quoted or value):
+            text, second, shape = name, "", NAME
         elif string:
-            text, second, shape, width = string, "", STRING, len(string)
+            text, second, shape = string, "", STRING
         else:
             raise _GiveUp  # key=value or a character no token explains
-        out.append((text, second, shape, number, column, column + width))
-        at = column - 1 + width
+        out.append((text, second, shape, number, column, column + len(token)))
+        at = column - 1 + len(token)
     return out
 
 
@@ -178,12 +177,12 @@ class _Pending:
         self.keyword: list[Token] | None = None
         self.attributes: list[RawAttribute] = []
         self.connections: list[Connection] = []
-        kind = tokens[0][_NAME_FIELD]
+        kind = _bare(tokens[0])
         if kind in KEYWORDS:
             self.keyword = []
             self.add(tokens, number)
             return
-        ref = tokens[1][_NAME_FIELD] if len(tokens) > 1 else ""
+        ref = _bare(tokens[1]) if len(tokens) > 1 else ""
         if not kind or not ref or ref in KEYWORDS:
             self.sure = False
             return

@@ -40,7 +40,11 @@ def include_names(text: str) -> list[str]:
     """The strings of the ``include`` statements of ``text``, unquoted, in order.
 
     Well-formed text is read by the fast reader (no lark); other text is lexed.
+    Text without the word is not read at all: discovery asks this of every
+    file of a folder, sheets included, before any design is loaded.
     """
+    if "include" not in text:
+        return []
     statements = fast_statements(text, "")
     if statements is None:
         return lexed_include_names(text)
