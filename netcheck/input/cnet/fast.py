@@ -149,92 +149,43 @@ def _keyword_tokens(tokens: list[tuple[str, ...]], number: int) -> list[Token]:
     return out
 
 
-class _Pending:
-    """A statement being read: its first and last line and what it holds.
+# The lines of one statement: (line number, its findall tuples) each.
+Lines = list[tuple[int, list[tuple[str, ...]]]]
 
-    ``sure`` turns False once a line of it is not certainly well formed; a
-    keyword statement keeps its tokens (``keyword``), a component its kind,
-    reference, attributes and connections.
-    """
 
-    __slots__ = (
-        "file",
-        "first",
-        "last",
-        "sure",
-        "keyword",
-        "kind",
-        "ref",
-        "attributes",
-        "connections",
-        "end",
-    )
-
-    def __init__(self, file: str, tokens: list[tuple[str, ...]], number: int) -> None:
-        self.file = file
-        self.first = self.last = number
-        self.sure = True
-        self.keyword: list[Token] | None = None
-        self.attributes: list[RawAttribute] = []
-        self.connections: list[Connection] = []
-        kind = _bare(tokens[0])
-        if kind in KEYWORDS:
-            self.keyword = []
-            self.add(tokens, number)
-            return
-        ref = _bare(tokens[1]) if len(tokens) > 1 else ""
-        if not kind or not ref or ref in KEYWORDS:
-            self.sure = False
-            return
-        kind_at = len(tokens[0][0])
-        ref_at = kind_at + len(kind) + len(tokens[1][0])
-        self.kind = (sys.intern(kind), kind_at + 1)
-        self.ref = (ref, ref_at + 1)
-        self.end = (number, ref_at + len(ref) + 1)
-        self.items(tokens[2:], number, ref_at + len(ref))
-
-    def add(self, tokens: list[tuple[str, ...]], number: int) -> None:
-        """Add a continuation line (or, for a keyword statement, any line)."""
-        self.last = number
-        if not self.sure:
-            return
-        if self.keyword is None:
-            self.items(tokens, number, 0)
-            return
+def _statement(file: str, group: Lines) -> Statement | None:
+    """The statement of ``group``'s lines, or None if the line reader is unsure."""
+    number, tokens = group[0]
+    kind = _bare(tokens[0])
+    if kind in KEYWORDS:
         try:
-            self.keyword += _keyword_tokens(tokens, number)
+            keyword = [t for n, line in group for t in _keyword_tokens(line, n)]
+            return _keyword_statement(file, keyword)
         except _GiveUp:
-            self.sure = False
-
-    def items(self, tokens: list[tuple[str, ...]], number: int, at: int) -> None:
-        if not tokens:
-            return
-        end = _items(self.file, tokens, number, at, self.attributes, self.connections)
-        if end is None:
-            self.sure = False
-        elif end:
-            self.end = (number, end)
-
-    def statement(self) -> Statement | None:
-        """The statement read, or None if the line reader is unsure of it."""
-        if not self.sure:
             return None
-        if self.keyword is not None:
-            try:
-                return _keyword_statement(self.file, self.keyword)
-            except _GiveUp:
-                return None
-        file = self.file
-        (kind, kind_column), (ref, ref_column) = self.kind, self.ref
-        first = self.first
-        return ComponentStatement(
-            kind,
-            ref,
-            tuple(self.attributes),
-            tuple(self.connections),
-            new_span(file, first, kind_column, *self.end),
-            new_span(file, first, ref_column, first, ref_column + len(ref)),
-        )
+    ref = _bare(tokens[1]) if len(tokens) > 1 else ""
+    if not kind or not ref or ref in KEYWORDS:
+        return None
+    ref_at = len(kind) + len(tokens[1][0])  # a statement starts in column 1
+    at = ref_at + len(ref)  # where the first line's items start (0-based)
+    end = (number, at + 1)
+    attributes: list[RawAttribute] = []
+    connections: list[Connection] = []
+    for line, items in [(number, tokens[2:]), *group[1:]]:
+        last = _items(file, items, line, at, attributes, connections)
+        if last is None:
+            return None
+        if last:
+            end = (line, last)
+        at = 0  # a continuation line's items start at its beginning
+    return ComponentStatement(
+        sys.intern(kind),
+        ref,
+        tuple(attributes),
+        tuple(connections),
+        new_span(file, number, 1, *end),
+        new_span(file, number, ref_at + 1, number, ref_at + 1 + len(ref)),
+    )
 
 
 def _span(file: str, first: Token, last: Token) -> Span:
@@ -310,37 +261,40 @@ def fast_statements(
     except _GiveUp:
         return None
     out: list[Statement] = []
-    pending: _Pending | None = None
+    group: Lines = []  # the lines of the statement being read
     tokens_of = _TOKEN.findall
     for number, line in enumerate(lines, start=1):
         tokens = tokens_of(line)
         if not tokens or tokens[0][_COMMENT_FIELD]:
             continue
-        if line[0] not in " \t":
-            if pending is not None and not _finish(pending, lines, grammar, out):
-                return None
-            pending = _Pending(file, tokens, number)
-        elif pending is None:
-            return None  # an indented first statement: the grammar words it
-        else:
-            pending.add(tokens, number)
-    if pending is not None and not _finish(pending, lines, grammar, out):
+        if line[0] in " \t":
+            if not group:
+                return None  # an indented first statement: the grammar words it
+            group.append((number, tokens))
+            continue
+        if group and not _add(file, group, lines, grammar, out):
+            return None
+        group = [(number, tokens)]
+    if group and not _add(file, group, lines, grammar, out):
         return None
     return out
 
 
-def _finish(
-    pending: _Pending, lines: list[str], grammar: Grammar | None, out: list
+def _add(
+    file: str, group: Lines, lines: list[str], grammar: Grammar | None, out: list
 ) -> bool:
-    """Add the statement read to ``out`` (by the grammar if unsure); False on error."""
-    read = pending.statement()
+    """Add the statement of ``group`` to ``out`` (by the grammar if unsure).
+
+    False if the line reader is unsure and the grammar (if any) finds an error.
+    """
+    read = _statement(file, group)
     if read is not None:
         out.append(read)
         return True
     if grammar is None:
         return False
-    chunk = "\n".join(lines[pending.first - 1 : pending.last])
-    parsed = grammar(chunk, pending.first - 1)
+    first, last = group[0][0], group[-1][0]
+    parsed = grammar("\n".join(lines[first - 1 : last]), first - 1)
     if parsed is None:
         return False
     out.extend(parsed)
