@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from collections.abc import Mapping
+from collections.abc import Container, Mapping
 
 from netcheck.alloc import collector_paused, is_loaded
 from netcheck.analysis.constants import T95_PER_TAU
@@ -296,8 +296,13 @@ def _zero_ohm(domain: Domain, state: DomainState) -> ZeroOhm:
     return ZeroOhm(closed, shunts(state))
 
 
-def analyse(graph: Graph) -> Analysis:
+def analyse(graph: Graph, only: Container[str] | None = None) -> Analysis:
     """Analyse every switching element of the design.
+
+    ``only``, if given, names the components whose DC elements are analysed
+    (the others are left unanalysed, as off any domain); the domains are
+    solved in full either way. Fix verification uses it to re-check the few
+    elements an edit can change (``netcheck.fixes.rungs``).
 
     The cyclic collector is paused meanwhile (``netcheck.alloc``): its full
     passes over the growing analysis were a quarter of the stage's time on a
@@ -308,10 +313,10 @@ def analyse(graph: Graph) -> Analysis:
     frozen: those must be collected.
     """
     with collector_paused(freeze=is_loaded(graph.netlist)):
-        return _analyse(graph)
+        return _analyse(graph, only)
 
 
-def _analyse(graph: Graph) -> Analysis:
+def _analyse(graph: Graph, only: Container[str] | None = None) -> Analysis:
     elements: dict[str, ElementAnalysis] = {}
     analysis = Analysis(graph, elements)
     degree = _degrees(graph)
@@ -350,6 +355,8 @@ def _analyse(graph: Graph) -> Analysis:
             injection = net_injections(state)
             for branch in members:
                 assert branch.element is not None
+                if only is not None and branch.ref not in only:
+                    continue
                 elements[branch.element.name] = _analyse_dc(
                     ctx, branch, zero, injection, terminals
                 )

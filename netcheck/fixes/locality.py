@@ -20,6 +20,7 @@ from collections.abc import Sequence
 from dataclasses import dataclass, replace
 
 from netcheck.fixes.edits import AddComponent, Edit, Reconnect
+from netcheck.fixes.rungs import Restricted
 from netcheck.graph import Graph
 from netcheck.model import Netlist
 
@@ -28,10 +29,15 @@ __all__ = ["Locality", "Cut"]
 
 @dataclass(frozen=True)
 class Cut:
-    """A sub-design, and the names (refs, nets) whose findings it decides."""
+    """A sub-design, and the names (refs, nets) whose findings it decides.
+
+    ``restricted``: only some of its elements are re-analysed and only their
+    findings decided (:mod:`netcheck.fixes.rungs`); None re-checks it all.
+    """
 
     netlist: Netlist
     names: frozenset[str]
+    restricted: Restricted | None = None
 
     @property
     def size(self) -> int:
@@ -40,7 +46,8 @@ class Cut:
 
     def decides(self, element: str) -> bool:
         """Whether a finding on ``element`` is one the cut re-checks."""
-        return element.split(":", 1)[0] in self.names or element in self.names
+        names = self.names if self.restricted is None else self.restricted.decided
+        return element.split(":", 1)[0] in names or element in names
 
 
 class Locality:

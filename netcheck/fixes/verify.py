@@ -12,6 +12,7 @@ from __future__ import annotations
 
 from collections.abc import Iterator, Mapping, Sequence
 from dataclasses import dataclass, field, replace
+from typing import Any
 
 from netcheck.analysis.elements import Analysis, analyse
 from netcheck.errors import InputError, InputErrors
@@ -19,6 +20,7 @@ from netcheck.findings import Finding, Severity
 from netcheck.fixes.edits import AddComponent, Edit, apply_edits
 from netcheck.fixes.locality import Cut, Locality
 from netcheck.fixes.propose import Proposer, rating_attribute
+from netcheck.fixes.rungs import Restricted, Rungs
 from netcheck.graph import build_graph
 from netcheck.model import Netlist
 
@@ -32,6 +34,11 @@ MAX_CANDIDATES = 12  # candidates per finding
 WORK_FACTOR = 4
 WORK_FLOOR = 5000
 DESIGN_BUDGET = -1  # verify_fixes: the budget of work_budget()
+# A restricted re-check (netcheck.fixes.rungs) still builds and solves the
+# whole part; measured, that costs about this many times less than analysing
+# and checking every element of it.
+DOMAIN_PASSES = 8
+_UNKNOWN: Any = object()  # a re-check refused for want of budget
 
 
 def work_budget(netlist: Netlist) -> int:
@@ -50,6 +57,9 @@ class Verifier:
 
     ``locality`` cuts out the part of the design the edits touch; without one
     the whole design is re-checked (the reference the tests compare with).
+    ``rungs``, with a locality, re-analyses within that part only the
+    elements an edit can change (:mod:`netcheck.fixes.rungs`), falling back
+    to the whole part where it cannot show that exact.
     ``budget`` and ``spent`` count components re-analysed.
     """
 
@@ -58,6 +68,7 @@ class Verifier:
     margins: Mapping[str, float]
     budget: int | None = None
     locality: Locality | None = None
+    rungs: Rungs | None = None
     spent: int = 0
     refused: bool = False
     _results: dict[tuple[Edit, ...], tuple[list[Finding], Cut] | None] = field(
@@ -69,17 +80,26 @@ class Verifier:
         result = self._result(edits)
         return None if result is None else result[0]
 
-    def _result(self, edits: Sequence[Edit]) -> tuple[list[Finding], Cut] | None:
+    def _result(
+        self, edits: Sequence[Edit], whole: bool = False
+    ) -> tuple[list[Finding], Cut] | None:
         key = tuple(edits)
-        if key not in self._results:
+        known = self._results.get(key, _UNKNOWN)
+        if known is _UNKNOWN or (whole and known and known[1].restricted):
             cut = self._cut(edits)
-            cost = cut.size + sum(isinstance(e, AddComponent) for e in edits)
-            if self.budget is not None and self.spent + cost > self.budget:
-                self.refused = True
-                return None
-            self.spent += cost
-            self._results[key] = self._run(cut, edits)
+            plan = None if whole or self.rungs is None else self.rungs.plan(edits)
+            result = self._run(cut, edits, plan)
+            if result is _UNKNOWN:
+                return None  # refused for want of budget: not memoised
+            self._results[key] = result  # type: ignore[assignment]
         return self._results[key]
+
+    def _charge(self, cost: int) -> bool:
+        if self.budget is not None and self.spent + cost > self.budget:
+            self.refused = True
+            return False
+        self.spent += cost
+        return True
 
     def _cut(self, edits: Sequence[Edit]) -> Cut:
         if self.locality is None:
@@ -92,14 +112,33 @@ class Verifier:
         """Whether a re-check was refused for want of budget."""
         return self.refused
 
-    def _run(self, cut: Cut, edits: Sequence[Edit]) -> tuple[list[Finding], Cut] | None:
+    def _run(self, cut: Cut, edits: Sequence[Edit], plan: Restricted | None) -> Any:
+        """(findings, cut), None if the edits do not build, _UNKNOWN if refused."""
         from netcheck.pipeline import run_checks  # the pipeline calls this module
 
+        added = sum(isinstance(e, AddComponent) for e in edits)
+        if plan is not None:
+            # The domains are still solved in full: a pass over the part costs
+            # about 1/DOMAIN_PASSES of analysing its elements (bench/README.md).
+            if not self._charge(plan.cost + added + -(-cut.size // DOMAIN_PASSES)):
+                return _UNKNOWN
+        elif not self._charge(cut.size + added):
+            return _UNKNOWN
         try:
             edited = apply_edits(cut.netlist, edits)
         except (InputError, InputErrors, ValueError, KeyError):
             return None
-        return run_checks(edited, analyse(build_graph(edited)), self.margins), cut
+        graph = build_graph(edited)
+        if plan is not None:
+            assert self.rungs is not None
+            analysis = analyse(graph, only=plan.only)
+            if self.rungs.unchanged(analysis, plan):
+                local = replace(cut, restricted=plan)
+                after = run_checks(edited, analysis, self.margins)
+                return [f for f in after if local.decides(f.element)], local
+            if not self._charge(cut.size + added):  # not shown exact: all of it
+                return _UNKNOWN
+        return run_checks(edited, analyse(graph), self.margins), cut
 
     def refined(self, edits: list[Edit]) -> list[Edit]:
         """The edits with each added part rated at what the re-check asks of it.
@@ -139,6 +178,9 @@ class Verifier:
         gone; errors outside are unchanged, so none of them is new.
         """
         result = self._result(edits)
+        if result is not None and not result[1].decides(finding.element):
+            if result[1].restricted is not None:
+                result = self._result(edits, whole=True)  # the finding is elsewhere
         if result is None:
             return False
         after, cut = result
@@ -154,6 +196,10 @@ class Verifier:
             if other.severity == Severity.ERROR and identity(other) not in before:
                 return False
         return True
+
+
+def _fixable(findings: Sequence[Finding]) -> bool:
+    return any(f.fix is not None and f.waived is None for f in findings)
 
 
 def _rated(edit: Edit, needs: dict[str, dict[str, str]]) -> Edit:
@@ -205,7 +251,8 @@ def verify_fixes(
     if budget == DESIGN_BUDGET:
         budget = work_budget(netlist)
     locality = Locality(netlist, analysis.graph) if local else None
-    verifier = Verifier(netlist, findings, margins, budget, locality)
+    rungs = Rungs(netlist, analysis) if local and _fixable(findings) else None
+    verifier = Verifier(netlist, findings, margins, budget, locality, rungs)
     chosen: dict[int, list[Edit]] = {}
     unchecked: set[int] = set()
     firsts: dict[int, list[Edit] | None] = {}
