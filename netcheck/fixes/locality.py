@@ -12,6 +12,9 @@ Design-wide rules are covered too. A net's connections all lie in the net's
 own cluster, so net rules see whole nets. A waiver is kept in the cut when its
 target is in it; one elsewhere is matched (or left unused) exactly as before,
 since no finding it could match changes.
+
+Within the cluster, :mod:`netcheck.fixes.rungs` narrows what is analysed
+again to the rungs the edits touch and the domains' global elements.
 """
 
 from __future__ import annotations

@@ -46,7 +46,8 @@ does must keep its voltage and its view of every other load (the suppressors
 of other units are fitted from it). Bus components with nothing switched from
 X, other units' components and untouched bus nets then read unchanged inputs.
 If a comparison fails, or an edit is a bus component (its edit could change
-chains across the rails or a bypass), or reaches an unsolved domain, the
+chains across the rails or a bypass), a supply or a fuse or breaker (they
+move rails and the bus), or reaches an unsolved domain, the
 verifier re-checks the whole cluster instead (:mod:`netcheck.fixes.locality`).
 """
 
@@ -61,9 +62,12 @@ from netcheck.analysis.switched import ElementAnalysis, Suppressor, SwitchedLoad
 from netcheck.analysis.zero_ohm import ZeroOhm
 from netcheck.fixes.edits import AddComponent, Edit, Reconnect, Remove
 from netcheck.graph import CONDUCTOR, SUPPLY, SWITCH, Domain
+from netcheck.kinds import PROTECTIVE_KINDS
 from netcheck.model import Netlist
 
 __all__ = ["Rungs", "Restricted"]
+
+_BUS_KINDS = PROTECTIVE_KINDS | {"supply"}
 
 
 @dataclass(frozen=True)
@@ -216,10 +220,18 @@ class Rungs:
         )
 
     def _final_nets(self, edit: Edit) -> set[str] | None:
+        """The nets of the edited component afterwards; None: not a rung's part.
+
+        A supply or a protective device would move rails or the bus itself.
+        """
         if isinstance(edit, AddComponent):
+            if edit.kind in _BUS_KINDS:
+                return None
             return {net for _, net in edit.connections}
         component = self.netlist.component(edit.ref)
         if component is None or edit.ref in self.bus_refs:
+            return None
+        if component.kind in _BUS_KINDS:
             return None
         wiring = {c.terminal: c.net for c in component.connections}
         if isinstance(edit, Reconnect):

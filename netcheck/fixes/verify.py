@@ -3,7 +3,9 @@
 A fix is verified only when, with its edits applied, the finding it fixes is
 gone and no error appears that the design did not have. Only the part of the
 design the edits can affect is re-checked (:mod:`netcheck.fixes.locality`):
-findings elsewhere cannot change. Candidates are tried
+findings elsewhere cannot change; within it, only the elements the edits can
+change are analysed again where that is shown exact (:mod:`netcheck.fixes.rungs`,
+which falls back to the whole part otherwise). Candidates are tried
 in order of preference; the first that verifies is the one shown. A fix none
 of whose candidates verifies keeps its text and is marked unverified.
 """
