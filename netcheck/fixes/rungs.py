@@ -306,6 +306,8 @@ class Rungs:
                 )
                 if not switched and _whole(before) != _whole(after):
                     return False
+                if switched and element.split(":", 1)[0] not in plan.decided:
+                    return False  # its own findings would go undecided
                 if switched and (
                     before.voltage != after.voltage
                     or _others(before, x) != _others(after, x)
