@@ -56,7 +56,7 @@ from __future__ import annotations
 from collections.abc import Iterable, Sequence
 from dataclasses import dataclass
 
-from netcheck.analysis.domain import DomainState, shunts
+from netcheck.analysis.domain import DomainState, UnionFind, shunts
 from netcheck.analysis.elements import Analysis
 from netcheck.analysis.switched import ElementAnalysis, Suppressor, SwitchedLoad
 from netcheck.analysis.zero_ohm import ZeroOhm
@@ -83,26 +83,6 @@ class Restricted:
     def cost(self) -> int:
         """Components whose elements are re-analysed."""
         return len(self.only)
-
-
-class _Sets:
-    """Union-find over net names."""
-
-    def __init__(self) -> None:
-        self.parent: dict[str, str] = {}
-
-    def find(self, item: str) -> str:
-        parent = self.parent.setdefault(item, item)
-        while parent != self.parent[parent]:
-            self.parent[parent] = self.parent[self.parent[parent]]
-            parent = self.parent[parent]
-        self.parent[item] = parent
-        return parent
-
-    def union(self, a: str, b: str) -> None:
-        ra, rb = self.find(a), self.find(b)
-        if ra != rb:
-            self.parent[max(ra, rb)] = min(ra, rb)
 
 
 class Rungs:
@@ -133,7 +113,7 @@ class Rungs:
         self.solved.add(domain.name)
 
     def _units(self, netlist: Netlist) -> None:
-        sets = _Sets()
+        sets = UnionFind()
         self.bus_refs: set[str] = set()
         for component in netlist.components:
             nets = [c.net for c in component.connections if c.net not in self.bus]
