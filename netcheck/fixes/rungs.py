@@ -54,7 +54,7 @@ verifier re-checks the whole cluster instead (:mod:`netcheck.fixes.locality`).
 from __future__ import annotations
 
 from collections.abc import Iterable, Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, fields
 
 from netcheck.analysis.domain import DomainState, UnionFind, shunts
 from netcheck.analysis.elements import Analysis
@@ -315,39 +315,34 @@ def _suppressors(suppressors: Iterable[Suppressor]) -> tuple:  # type: ignore[ty
     return tuple(out)
 
 
-def _load(load: SwitchedLoad) -> tuple:  # type: ignore[type-arg]
-    return (
-        load.facts,
-        load.current,
-        load.voltage,
-        load.category,
-        load.energy,
-        load.inductive,
-        _suppressors(load.suppressors),
-    )
+# What a re-check compares field by field, every field but these: the element
+# and component are the edited copy's own objects, and series marking is
+# design-wide (``mark_series``) while a restricted re-check analyses a few.
+_NOT_COMPARED = frozenset(
+    {"element", "component", "series_poles", "series_elements", "other_series"}
+)
+
+
+def _fields(
+    item: ElementAnalysis | SwitchedLoad, skip: frozenset[str] = frozenset()
+) -> tuple:  # type: ignore[type-arg]
+    """A result's fields as comparable values, its loads and suppressors by shape."""
+    out = []
+    for f in fields(item):
+        if f.name in skip:
+            continue
+        value = getattr(item, f.name)
+        if f.name == "loads":
+            value = tuple(_fields(ld) for ld in value)
+        elif f.name in ("suppression", "suppressors"):
+            value = _suppressors(value)
+        out.append(value)
+    return tuple(out)
 
 
 def _others(element: ElementAnalysis, x_refs: frozenset[str]) -> tuple:  # type: ignore[type-arg]
-    return tuple(_load(ld) for ld in element.loads if ld.facts.ref not in x_refs)
+    return tuple(_fields(ld) for ld in element.loads if ld.facts.ref not in x_refs)
 
 
 def _whole(e: ElementAnalysis) -> tuple:  # type: ignore[type-arg]
-    return (
-        e.domain,
-        e.supply,
-        e.voltage,
-        e.current,
-        tuple(_load(ld) for ld in e.loads),
-        e.load_category,
-        e.time_constant,
-        e.t95,
-        e.energy,
-        _suppressors(e.suppression),
-        e.bypass,
-        e.direction,
-        e.bidirectional,
-        e.supply_ref,
-        e.missing,
-        e.short_circuit,
-        e.notes,
-    )
+    return _fields(e, _NOT_COMPARED)
