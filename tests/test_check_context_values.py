@@ -1,4 +1,4 @@
-"""The check context's float short cuts give exactly what pint gives.
+"""The rules' float short cuts give exactly what pint gives.
 
 ``quantity_like``, ``CheckContext.scaled``, ``exceeds`` and ``total`` skip
 pint's operators in the rules' inner loops; the reports must not change by a
@@ -12,8 +12,9 @@ import math
 
 import pytest
 
+from netcheck.analysis.si import exceeds, quantity_like, total
 from netcheck.catalogue import load_catalogue
-from netcheck.checks.context import CheckContext, exceeds, quantity_like, total
+from netcheck.checks.context import CheckContext
 from netcheck.units import Q_
 
 MAGNITUDES = [0.0, -0.0, 1.0, 0.1, 1 / 3, 24.000000000000004, 1e-300, 7, math.nan]

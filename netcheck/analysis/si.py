@@ -7,12 +7,15 @@ SI floats and makes quantities only where a value leaves for a result; these
 helpers make those crossings cheap while giving exactly what pint gives:
 ``si(q, u) == float(q.to(u).magnitude)``, ``quantity(x, u) == Q_(x, u)``,
 ``ratio(a, b, u) == (a / b).to(u)`` and ``converted(q, u) == q.to(u)``, bit for
-bit (``tests/analysis/test_si.py``).
+bit (``tests/analysis/test_si.py``). The rules' inner loops use three more:
+``quantity_like`` (what ``q * k`` builds), ``exceeds`` (``a > b``) and
+``total`` (``sum`` from zero), held to pint by ``tests/test_check_context_values.py``.
 """
 
 from __future__ import annotations
 
 import numbers
+from collections.abc import Iterable
 from typing import Any
 
 import numpy as np
@@ -20,7 +23,7 @@ import pint
 
 from netcheck.units import Q_
 
-__all__ = ["si", "quantity", "ratio", "converted"]
+__all__ = ["si", "quantity", "ratio", "converted", "quantity_like", "exceeds", "total"]
 
 # (source units, target unit text) -> multiplicative factor, or None where the
 # conversion is not a plain factor (offset units such as degC): those take
@@ -101,3 +104,47 @@ def converted(value: pint.Quantity, unit: str) -> pint.Quantity:
             # pint's multiplicative conversion: the magnitude times the factor.
             return quantity(magnitude * factor, unit)
     return value.to(unit)
+
+
+def quantity_like(value: pint.Quantity, magnitude: Any) -> pint.Quantity:
+    """A quantity of ``magnitude`` in the units of ``value``.
+
+    What pint's ``value * k`` and ``value / k`` build for a plain number
+    ``k`` (magnitude op k, the units kept), made without pint's dispatch.
+    """
+    if type(magnitude) is not float:
+        return type(value)(magnitude, value._units)
+    # Quantity.__new__ stores a float magnitude and a units container as given.
+    made = object.__new__(type(value))
+    made._magnitude = magnitude
+    made._units = value._units
+    return made
+
+
+def exceeds(value: pint.Quantity, limit: pint.Quantity) -> bool:
+    """``value > limit``, as pint compares them, for the rules' inner loops.
+
+    pint compares the magnitudes when both quantities have the same units;
+    where the units are one object (as a design's values mostly are) that is
+    done here without pint's dispatch, else pint compares.
+    """
+    units = getattr(value, "_units", None)
+    if units is not None and units is getattr(limit, "_units", None):
+        return bool(value._magnitude > limit._magnitude)
+    return bool(value > limit)
+
+
+def total(values: Iterable[pint.Quantity], unit: str) -> pint.Quantity:
+    """``sum(values, Q_(0.0, unit))``, bit for bit.
+
+    pint adds quantities of equal units as their magnitudes, left to right,
+    in those units; values of other units (or not floats) take pint's path.
+    """
+    values = tuple(values)
+    start = quantity(0.0, unit)
+    magnitude = 0.0
+    for value in values:
+        if type(value._magnitude) is not float or value._units != start._units:
+            return sum(values, start)
+        magnitude = magnitude + value._magnitude
+    return quantity_like(start, magnitude)

@@ -8,7 +8,7 @@ solver state nor import one another.
 
 from __future__ import annotations
 
-from collections.abc import Callable, Hashable, Iterable, Iterator, Mapping
+from collections.abc import Callable, Hashable, Iterator, Mapping
 from dataclasses import dataclass, field
 from typing import Any
 
@@ -21,7 +21,7 @@ from netcheck.analysis.clamp_order import InternalClamp, internal_clamp_takes
 from netcheck.analysis.elements import Analysis
 from netcheck.analysis.ratings import Assessment
 from netcheck.analysis.result import LoadInfo
-from netcheck.analysis.si import quantity
+from netcheck.analysis.si import quantity_like
 from netcheck.analysis.supplies import SUPPLY_NOTES, ranged_supply
 from netcheck.analysis.switched import ElementAnalysis
 from netcheck.analysis.transients import OpeningTransient
@@ -32,53 +32,9 @@ from netcheck.graph import Branch, Domain, Graph
 from netcheck.model import Component, Netlist
 from netcheck.ranges import ValueRange
 
-__all__ = ["CheckContext", "Anchor", "quantity_like", "exceeds", "total"]
+__all__ = ["CheckContext", "Anchor"]
 
 Anchor = ElementAnalysis | Component | tuple[Component, str]
-
-
-def quantity_like(value: pint.Quantity, magnitude: Any) -> pint.Quantity:
-    """A quantity of ``magnitude`` in the units of ``value``.
-
-    What pint's ``value * k`` and ``value / k`` build for a plain number
-    ``k`` (magnitude op k, the units kept), made without pint's dispatch.
-    """
-    if type(magnitude) is not float:
-        return type(value)(magnitude, value._units)
-    # Quantity.__new__ stores a float magnitude and a units container as given.
-    made = object.__new__(type(value))
-    made._magnitude = magnitude
-    made._units = value._units
-    return made
-
-
-def exceeds(value: pint.Quantity, limit: pint.Quantity) -> bool:
-    """``value > limit``, as pint compares them, for the rules' inner loops.
-
-    pint compares the magnitudes when both quantities have the same units;
-    where the units are one object (as a design's values mostly are) that is
-    done here without pint's dispatch, else pint compares.
-    """
-    units = getattr(value, "_units", None)
-    if units is not None and units is getattr(limit, "_units", None):
-        return bool(value._magnitude > limit._magnitude)
-    return bool(value > limit)
-
-
-def total(values: Iterable[pint.Quantity], unit: str) -> pint.Quantity:
-    """``sum(values, Q_(0.0, unit))``, bit for bit.
-
-    pint adds quantities of equal units as their magnitudes, left to right,
-    in those units; values of other units (or not floats) take pint's path.
-    """
-    values = tuple(values)
-    start = quantity(0.0, unit)
-    magnitude = 0.0
-    for value in values:
-        if type(value._magnitude) is not float or value._units != start._units:
-            return sum(values, start)
-        magnitude = magnitude + value._magnitude
-    return quantity_like(start, magnitude)
 
 
 @dataclass

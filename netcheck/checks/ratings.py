@@ -7,6 +7,7 @@ from collections.abc import Iterator
 from netcheck.analysis.contact_loop import contact_time_constant
 from netcheck.analysis.ratings import Assessment
 from netcheck.analysis.ratings_tables import at_most, t95_of
+from netcheck.analysis.si import exceeds
 from netcheck.analysis.switched import ElementAnalysis
 from netcheck.analysis.verdicts import (
     arrangement_lead,
@@ -14,7 +15,7 @@ from netcheck.analysis.verdicts import (
     fits_device,
     rating_values,
 )
-from netcheck.checks.context import CheckContext, exceeds
+from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding
 from netcheck.kinds import MECHANICAL_KINDS, SEMICONDUCTOR_KINDS

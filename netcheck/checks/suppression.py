@@ -6,9 +6,10 @@ from collections.abc import Iterator
 
 from netcheck.analysis.fitted import effective, unsuppressed_loads
 from netcheck.analysis.opening import element_transient, load_transient, zener_release
+from netcheck.analysis.si import total
 from netcheck.analysis.switched import ElementAnalysis, Suppressor
 from netcheck.analysis.verdicts import arrangement_lead
-from netcheck.checks.context import CheckContext, total
+from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding, Severity
 from netcheck.kinds import POLARIZED_SUPPRESSORS, SEMICONDUCTOR_KINDS

@@ -11,10 +11,11 @@ from netcheck.analysis.clamp_order import (
     zener_below,
 )
 from netcheck.analysis.fitted import Fitted
+from netcheck.analysis.si import exceeds, quantity_like
 from netcheck.analysis.switched import ElementAnalysis
 from netcheck.analysis.transients import OpeningTransient
 from netcheck.analysis.verdicts import arrangement_lead
-from netcheck.checks.context import CheckContext, exceeds, quantity_like
+from netcheck.checks.context import CheckContext
 from netcheck.checks.registry import check
 from netcheck.findings import Finding
 from netcheck.kinds import MECHANICAL_KINDS, SEMICONDUCTOR_KINDS
