@@ -11,7 +11,7 @@ the ``.cnet`` builder, so what is verified is what ``netcheck fix`` writes.
 from __future__ import annotations
 
 import re
-from collections.abc import Iterable, Sequence
+from collections.abc import Callable, Iterable, Sequence
 from dataclasses import dataclass, replace
 from typing import Any
 
@@ -151,7 +151,9 @@ def _build(text: str, netlist: Netlist) -> Component:
     return build_component(statement, netlist.parts)
 
 
-def _apply_one(netlist: Netlist, edit: Edit) -> Netlist:
+def _apply_one(
+    netlist: Netlist, edit: Edit, outside: Callable[[str], Component | None]
+) -> Netlist:
     if isinstance(edit, Remove):
         if netlist.component(edit.ref) is None:
             raise KeyError(edit.ref)
@@ -159,9 +161,9 @@ def _apply_one(netlist: Netlist, edit: Edit) -> Netlist:
         return replace(netlist, components=kept)
     built = _build(statement_text(edit, netlist), netlist)
     if isinstance(edit, AddComponent):
-        if netlist.component(edit.ref) is not None:
+        if netlist.component(edit.ref) is not None or outside(edit.ref) is not None:
             raise ValueError(f"reference {edit.ref} exists already")
-        anchor = netlist.component(edit.after)
+        anchor = netlist.component(edit.after) or outside(edit.after)
         span = anchor.span if anchor is not None else built.span
         added = replace(built, span=span)
         return replace(netlist, components=(*netlist.components, added))
@@ -176,14 +178,26 @@ def _apply_one(netlist: Netlist, edit: Edit) -> Netlist:
     return replace(netlist, components=components)
 
 
-def apply_edits(netlist: Netlist, edits: Sequence[Edit]) -> Netlist:
+def apply_edits(
+    netlist: Netlist, edits: Sequence[Edit], context: Netlist | None = None
+) -> Netlist:
     """A copy of the design with ``edits`` applied in order (the input is untouched).
 
     Raises InputErrors if an edit does not build (a part of the wrong kind, say)
-    and ValueError if it adds a reference that exists.
+    and ValueError if it adds a reference that exists. ``context``, where
+    ``netlist`` is a slice of a design (``netcheck.fixes.slices``), is that
+    design: a reference it holds exists, and an added component's statement
+    may follow one of its components (the span the new one is given).
     """
+    sliced = netlist
+
+    def outside(ref: str) -> Component | None:
+        if context is None or sliced.component(ref) is not None:
+            return None
+        return context.component(ref)
+
     for edit in edits:
-        netlist = _apply_one(netlist, edit)
+        netlist = _apply_one(netlist, edit, outside)
     return netlist
 
 

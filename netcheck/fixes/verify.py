@@ -23,6 +23,7 @@ from netcheck.fixes.edits import AddComponent, Edit, apply_edits
 from netcheck.fixes.locality import Cut, Locality
 from netcheck.fixes.propose import Proposer, rating_attribute
 from netcheck.fixes.rungs import Restricted, Rungs
+from netcheck.fixes.slices import Slices
 from netcheck.graph import build_graph
 from netcheck.model import Netlist
 
@@ -42,6 +43,7 @@ DESIGN_BUDGET = -1  # verify_fixes: the budget of work_budget()
 # is charged 2/5 of the part's components (bench/README.md).
 RESTRICTED_SHARE = (2, 5)
 _UNKNOWN: Any = object()  # a re-check refused for want of budget
+_WHOLE_CLUSTER: Any = object()  # a slice cannot decide: the cluster's re-check
 
 
 def work_budget(netlist: Netlist) -> int:
@@ -72,6 +74,7 @@ class Verifier:
     budget: int | None = None
     locality: Locality | None = None
     rungs: Rungs | None = None
+    slices: Slices | None = None
     spent: int = 0
     refused: bool = False
     _results: dict[tuple[Edit, ...], tuple[list[Finding], Cut] | None] = field(
@@ -120,6 +123,10 @@ class Verifier:
         from netcheck.pipeline import run_checks  # the pipeline calls this module
 
         added = sum(isinstance(e, AddComponent) for e in edits)
+        if plan is not None and self.slices is not None:
+            sliced = self._sliced(cut, edits, plan, added)
+            if sliced is not _WHOLE_CLUSTER:
+                return sliced
         if plan is not None:
             if not self._charge(plan.cost + added + _share(cut.size)):
                 return _UNKNOWN
@@ -140,6 +147,31 @@ class Verifier:
             if not self._charge(cut.size + added):  # not shown exact: all of it
                 return _UNKNOWN
         return run_checks(edited, analyse(graph), self.margins), cut
+
+    def _sliced(
+        self, cut: Cut, edits: Sequence[Edit], plan: Restricted, added: int
+    ) -> Any:
+        """The re-check of the edited slice (:mod:`netcheck.fixes.slices`).
+
+        _WHOLE_CLUSTER where the slice cannot decide: the cluster is then
+        re-checked as before.
+        """
+        from netcheck.pipeline import run_checks  # the pipeline calls this module
+
+        assert self.slices is not None
+        if not self.slices.allows(plan, edits):
+            return _WHOLE_CLUSTER
+        if not self._charge(self.slices.cost(plan) + added):
+            return _UNKNOWN
+        try:
+            piece = self.slices.build(cut.netlist, edits, plan)
+        except (InputError, InputErrors, ValueError, KeyError):
+            return None
+        if not self.slices.exact(piece, plan):
+            return _WHOLE_CLUSTER
+        local = replace(cut, restricted=plan)
+        after = run_checks(piece.netlist, piece.analysis, self.margins)
+        return [f for f in after if local.decides(f.element)], local
 
     def refined(self, edits: list[Edit]) -> list[Edit]:
         """The edits with each added part rated at what the re-check asks of it.
@@ -240,6 +272,7 @@ def verify_fixes(
     margins: Mapping[str, float] = {},
     budget: int | None = DESIGN_BUDGET,
     local: bool = True,
+    sliced: bool = True,
 ) -> list[Finding]:
     """The findings, each fix given its verified edits (or marked unverified).
 
@@ -247,7 +280,8 @@ def verify_fixes(
     :func:`work_budget`, None no limit. Fixes left when it is spent keep their
     first candidate and ``verified`` None: not checked, rather than checked and
     failed. ``local`` False re-checks the whole design each time (the
-    reference for the tests).
+    reference for the tests). ``sliced`` False re-checks the whole cluster
+    where a slice could do (:mod:`netcheck.fixes.slices`; for the tests).
 
     A finding that is a consequence of another (a contact "breaking" the short
     of a reversed diode) has no fix of its own that works; the verified edits
@@ -259,7 +293,8 @@ def verify_fixes(
         budget = work_budget(netlist)
     locality = Locality(netlist, analysis.graph) if local else None
     rungs = Rungs(netlist, analysis) if local and _fixable(findings) else None
-    verifier = Verifier(netlist, findings, margins, budget, locality, rungs)
+    slices = Slices(rungs) if rungs is not None and sliced else None
+    verifier = Verifier(netlist, findings, margins, budget, locality, rungs, slices)
     chosen: dict[int, list[Edit]] = {}
     unchecked: set[int] = set()
     firsts: dict[int, list[Edit] | None] = {}

@@ -1,0 +1,270 @@
+"""Slices: a restricted re-check of the touched rungs and the bus alone.
+
+A restricted re-check (:mod:`netcheck.fixes.rungs`) decides the findings of
+the touched units X, the bus nets the edits touch and the domains' supplies.
+Where the domains X reaches have no global element and one supply each, those
+findings depend on X and the bus only, so the *slice* (X's components, edited,
+and the domains' bus components, in design order) is built, analysed and
+checked as a design of its own, and the rest of the cluster is never read.
+Why each decided finding equals the whole design's:
+
+*Rails.* The bus nets keep their zero-ohm groups when the slice's partition of
+them equals the original design's (another unit could join two bus nets; the
+edit could join or part them): checked, with every bus net's potential, after
+the slice is solved. Rail potentials follow from the supply branches over that
+partition, so the edited design has them too.
+
+*Groups, solves, injections.* A net of X off the bus has every connection in
+X, and so do its group (non-rail groups lie within a unit) and its internal
+component (solved alone between fixed rails: same unknowns, same models in the
+same order, the rails' names aside). Branch currents, potentials, the diode
+states, the shorts that touch X (conducting paths through X's groups, or one
+diode of X from rail to rail) and the injections into X's nets (sums over X's
+branches, in their order) are the edited design's.
+
+*Elements of X.* Each must have, in the slice, a side (``ZeroOhm.sides``) that
+holds no bus net and no bypass: then that side is closed in the whole design
+too (its nets' branches are X's), the other side only larger, so the side, the
+cut-off region and its solve are the same; a changeover (a second solved
+state) falls back. The making current at closing solves the whole domain's
+network: an element with a stated making current, or switching a lamp or a
+motor, falls back.
+
+*Chains and loads.* A chain through a net of X off the bus is X's (its inner
+nets have two connections), a chain between two bus nets is a bus component's
+or passes through a unit's nets; chains are keyed by wire groups, so those a
+decided element or load reads are found in the slice. The degree of a bus net
+(what makes a net inner) is its whole connection list, which the slice's graph
+is given, the edit applied, in design order; nets of the same name but case
+are given too (the hint of a single-connection net names them).
+
+*Checks.* The suppressors fitted (each by the first element by name switching
+its load: one of X, the domain having no global one), series partners (same
+loads), service and standing voltages (potentials above), reversed diodes and
+shorts read X's data and the rails. A supply's own findings read its group
+ends and the prospective current. If any condition fails the verifier takes
+the restricted re-check of the whole cluster instead.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterable, Sequence
+from dataclasses import replace
+
+from netcheck.analysis.domain import shunts
+from netcheck.analysis.elements import Analysis, analyse
+from netcheck.analysis.zero_ohm import ZeroOhm
+from netcheck.fixes.edits import AddComponent, Edit, apply_edits
+from netcheck.fixes.rungs import Restricted, Rungs
+from netcheck.graph import CONDUCTOR, SWITCH, Graph, build_graph
+from netcheck.model import Component, Netlist
+
+__all__ = ["Slices", "Slice"]
+
+
+class Slice:
+    """One edited slice: its design, graph and analysis."""
+
+    def __init__(self, netlist: Netlist, graph: Graph, analysis: Analysis) -> None:
+        self.netlist = netlist
+        self.graph = graph
+        self.analysis = analysis
+
+    @property
+    def size(self) -> int:
+        """Components analysed."""
+        return len(self.netlist.components)
+
+
+class Slices:
+    """Slices of an analysed design, for the restricted re-checks that allow one."""
+
+    def __init__(self, rungs: Rungs) -> None:
+        self.rungs = rungs
+        netlist = rungs.netlist
+        graph = rungs.analysis.graph
+        self.position = {c.ref: i for i, c in enumerate(netlist.components)}
+        self.bus_by_domain: dict[str, list[str]] = {}
+        for component in netlist.components:
+            if component.ref in rungs.bus_refs and component.connections:
+                domain = graph.domain_of[component.connections[0].net]
+                self.bus_by_domain.setdefault(domain.name, []).append(component.ref)
+        self.folded: dict[str, list[str]] = {}
+        for net in graph.connections:
+            self.folded.setdefault(net.lower(), []).append(net)
+
+    def allows(self, plan: Restricted, edits: Sequence[Edit]) -> bool:
+        """Whether ``plan`` can be re-checked by slice: see the module's docstring.
+
+        Its domains have no global element, one supply and no changeover, and
+        every component an edit changes is in the slice.
+        """
+        states = self.rungs.analysis.states
+        refs = plan.x_refs
+        if any(not isinstance(e, AddComponent) and e.ref not in refs for e in edits):
+            return False
+        return bool(plan.domains) and all(
+            not self.rungs.globals.get(name)
+            and len(states[name].domain.supplies) == 1
+            and name not in self.rungs.analysis.alternate_states
+            for name in plan.domains
+        )
+
+    def cost(self, plan: Restricted) -> int:
+        """Components charged for the slice's re-check: the slice itself."""
+        return len(self.refs(plan))
+
+    def refs(self, plan: Restricted) -> set[str]:
+        """The slice's components of the original design (edits not applied)."""
+        refs = {r for r in plan.x_refs if r in self.position}
+        for name in plan.domains:
+            refs.update(self.bus_by_domain.get(name, ()))
+        return refs
+
+    def build(self, cut: Netlist, edits: Sequence[Edit], plan: Restricted) -> Slice:
+        """The edited slice, analysed; raises what ``apply_edits`` raises."""
+        refs = self.refs(plan)
+        kept = tuple(c for c in cut.components if c.ref in refs)
+        sliced = replace(cut, components=kept)
+        edited = apply_edits(sliced, edits, context=cut)
+        graph = build_graph(edited)
+        graph.connections = self._connections(graph, edited, plan)
+        return Slice(edited, graph, analyse(graph))
+
+    def _connections(
+        self, graph: Graph, edited: Netlist, plan: Restricted
+    ) -> dict[str, list[tuple[Component, str]]]:
+        """The slice's nets with their whole connection lists, edits applied.
+
+        A net no component of X touches, before or after, keeps its list; the
+        others get the list of the edited design, in its order (the design's,
+        added components last).
+        """
+        original = self.rungs.analysis.graph.connections
+        x = plan.x_refs
+        order = len(self.position)
+        extra = {
+            c.ref: order + i
+            for i, c in enumerate(edited.components)
+            if c.ref not in self.position
+        }
+        touched = {
+            c.net
+            for netlist in (self.rungs.netlist, edited)
+            for ref in x
+            if (component := netlist.component(ref)) is not None
+            for c in component.connections
+        }
+
+        def place(entry: tuple[Component, str]) -> int:
+            ref = entry[0].ref
+            return self.position[ref] if ref in self.position else extra[ref]
+
+        out: dict[str, list[tuple[Component, str]]] = {}
+        for net, mine in graph.connections.items():
+            before = original.get(net)
+            if before is None:
+                out[net] = mine
+            elif net not in touched:
+                out[net] = before
+            else:
+                out[net] = _merged(before, mine, x, place)
+        for net in list(out):
+            for twin in self.folded.get(net.lower(), ()):
+                if twin not in out:
+                    out[twin] = original[twin]
+        return out
+
+    def exact(self, piece: Slice, plan: Restricted) -> bool:
+        """Whether the slice's decided findings are the whole design's (docstring)."""
+        original = self.rungs.analysis
+        for name in plan.domains:
+            state = piece.analysis.states.get(name)
+            if state is None or name in piece.analysis.alternate_states:
+                return False
+            before = original.states[name]
+            if [s.ref for s in state.domain.supplies] != [
+                s.ref for s in before.domain.supplies
+            ]:
+                return False
+            if not _same_rails(before, state, self._bus_nets(before)):
+                return False
+        return self._elements_local(piece, plan)
+
+    def _bus_nets(self, state) -> list[str]:  # type: ignore[no-untyped-def]
+        return [n for n in state.domain.nets if n in self.rungs.bus]
+
+    def _elements_local(self, piece: Slice, plan: Restricted) -> bool:
+        analysis = piece.analysis
+        zeros: dict[str, ZeroOhm] = {}
+        for component in piece.netlist.components:
+            if component.ref not in plan.x_refs:
+                continue
+            for element in component.elements:
+                result = analysis.elements.get(element.name)
+                if result is None or result.domain not in plan.domains:
+                    return False
+                if _makes(result):
+                    return False
+                name = result.domain
+                if name not in zeros:
+                    zeros[name] = _zero_ohm(piece.graph, analysis, name)
+                if not self._side_local(zeros[name], element.name):
+                    return False
+        return True
+
+    def _side_local(self, zero: ZeroOhm, key: str) -> bool:
+        if key not in zero.by_key or zero.bypass(key):
+            return False
+        side, _ = zero.sides(key, set())
+        return bool(side) and not any(net in self.rungs.bus for net in side)
+
+
+def _merged(
+    before: Iterable[tuple[Component, str]],
+    mine: Iterable[tuple[Component, str]],
+    x: frozenset[str],
+    place,  # type: ignore[no-untyped-def]
+) -> list[tuple[Component, str]]:
+    """A net's whole connection list after the edits: X's entries from the slice."""
+    kept = [entry for entry in before if entry[0].ref not in x]
+    kept += [entry for entry in mine if entry[0].ref in x]
+    kept.sort(key=place)
+    return kept
+
+
+def _same_rails(before, after, nets: Iterable[str]) -> bool:  # type: ignore[no-untyped-def]
+    """The bus nets are grouped alike in both states, at the same potentials."""
+    forward: dict[str, str] = {}
+    backward: dict[str, str] = {}
+    for net in nets:
+        if net not in after.group:
+            return False
+        old, new = before.group[net], after.group[net]
+        if forward.setdefault(old, new) != new or backward.setdefault(new, old) != old:
+            return False
+        if before.net_potential(net) != after.net_potential(net):
+            return False
+    return True
+
+
+def _zero_ohm(graph: Graph, analysis: Analysis, name: str) -> ZeroOhm:
+    state = analysis.states[name]
+    domain = next(d for d in graph.domains if d.name == name)
+    closed = [
+        b
+        for b in domain.branches
+        if b.role in (SWITCH, CONDUCTOR) and state.group[b.a] == state.group[b.b]
+    ]
+    return ZeroOhm(closed, shunts(state))
+
+
+def _makes(result) -> bool:  # type: ignore[no-untyped-def]
+    """Whether the making check could solve the element's closing network.
+
+    It does for a stated making current, or a lamp or motor switched (the
+    category's making test): the closing network is the whole domain's.
+    """
+    if result.component.value("contacts", "making_current") is not None:
+        return True
+    return any(ld.facts.type in ("lamp", "motor") for ld in result.loads)
