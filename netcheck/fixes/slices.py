@@ -48,6 +48,7 @@ the restricted re-check of the whole cluster instead.
 
 from __future__ import annotations
 
+from bisect import bisect_right
 from collections.abc import Iterable, Sequence
 from dataclasses import replace
 
@@ -121,12 +122,23 @@ class Slices:
             refs.update(self.bus_by_domain.get(name, ()))
         return refs
 
-    def build(self, cut: Netlist, edits: Sequence[Edit], plan: Restricted) -> Slice:
-        """The edited slice, analysed; raises what ``apply_edits`` raises."""
-        refs = self.refs(plan)
-        kept = tuple(c for c in cut.components if c.ref in refs)
-        sliced = replace(cut, components=kept)
-        edited = apply_edits(sliced, edits, context=cut)
+    def build(self, edits: Sequence[Edit], plan: Restricted) -> Slice:
+        """The edited slice, analysed; raises what ``apply_edits`` raises.
+
+        Its waivers are those a decided finding could match (a waiver is
+        matched by the finding's element or its device), in the design's order.
+        """
+        design = self.rungs.netlist
+        positions = sorted(self.position[ref] for ref in self.refs(plan))
+        kept = tuple(design.components[i] for i in positions)
+        decided = plan.decided
+        waivers = tuple(
+            w
+            for w in design.waivers
+            if w.target in decided or w.target.split(":", 1)[0] in decided
+        )
+        sliced = replace(design, components=kept, waivers=waivers)
+        edited = apply_edits(sliced, edits, context=design)
         graph = build_graph(edited)
         graph.connections = self._connections(graph, edited, plan)
         return Slice(edited, graph, analyse(graph))
@@ -226,10 +238,15 @@ def _merged(
     x: frozenset[str],
     place,  # type: ignore[no-untyped-def]
 ) -> list[tuple[Component, str]]:
-    """A net's whole connection list after the edits: X's entries from the slice."""
+    """A net's whole connection list after the edits: X's entries from the slice.
+
+    ``before`` is in design order; X's entries go in at their places (bisect:
+    a bus net's list is long, the entries few).
+    """
     kept = [entry for entry in before if entry[0].ref not in x]
-    kept += [entry for entry in mine if entry[0].ref in x]
-    kept.sort(key=place)
+    for entry in mine:
+        if entry[0].ref in x:
+            kept.insert(bisect_right(kept, place(entry), key=place), entry)
     return kept
 
 

@@ -92,9 +92,12 @@ class Verifier:
         key = tuple(edits)
         known = self._results.get(key, _UNKNOWN)
         if known is _UNKNOWN or (whole and known and known[1].restricted):
-            cut = self._cut(edits)
             plan = None if whole or self.rungs is None else self.rungs.plan(edits)
-            result = self._run(cut, edits, plan)
+            result = _WHOLE_CLUSTER
+            if plan is not None and self.slices is not None:
+                result = self._sliced(edits, plan)
+            if result is _WHOLE_CLUSTER:
+                result = self._run(self._cut(edits), edits, plan)
             if result is _UNKNOWN:
                 return None  # refused for want of budget: not memoised
             self._results[key] = result  # type: ignore[assignment]
@@ -123,10 +126,6 @@ class Verifier:
         from netcheck.pipeline import run_checks  # the pipeline calls this module
 
         added = sum(isinstance(e, AddComponent) for e in edits)
-        if plan is not None and self.slices is not None:
-            sliced = self._sliced(cut, edits, plan, added)
-            if sliced is not _WHOLE_CLUSTER:
-                return sliced
         if plan is not None:
             if not self._charge(plan.cost + added + _share(cut.size)):
                 return _UNKNOWN
@@ -148,9 +147,7 @@ class Verifier:
                 return _UNKNOWN
         return run_checks(edited, analyse(graph), self.margins), cut
 
-    def _sliced(
-        self, cut: Cut, edits: Sequence[Edit], plan: Restricted, added: int
-    ) -> Any:
+    def _sliced(self, edits: Sequence[Edit], plan: Restricted) -> Any:
         """The re-check of the edited slice (:mod:`netcheck.fixes.slices`).
 
         _WHOLE_CLUSTER where the slice cannot decide: the cluster is then
@@ -161,15 +158,16 @@ class Verifier:
         assert self.slices is not None
         if not self.slices.allows(plan, edits):
             return _WHOLE_CLUSTER
+        added = sum(isinstance(e, AddComponent) for e in edits)
         if not self._charge(self.slices.cost(plan) + added):
             return _UNKNOWN
         try:
-            piece = self.slices.build(cut.netlist, edits, plan)
+            piece = self.slices.build(edits, plan)
         except (InputError, InputErrors, ValueError, KeyError):
             return None
         if not self.slices.exact(piece, plan):
             return _WHOLE_CLUSTER
-        local = replace(cut, restricted=plan)
+        local = Cut(piece.netlist, frozenset(), restricted=plan)
         after = run_checks(piece.netlist, piece.analysis, self.margins)
         return [f for f in after if local.decides(f.element)], local
 
