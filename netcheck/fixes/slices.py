@@ -48,8 +48,8 @@ the restricted re-check of the whole cluster instead.
 
 from __future__ import annotations
 
-from bisect import bisect_right
-from collections.abc import Iterable, Sequence
+from bisect import bisect_left, bisect_right
+from collections.abc import Callable, Iterable, Mapping, Sequence
 from dataclasses import replace
 
 from netcheck.analysis.domain import shunts
@@ -180,7 +180,7 @@ class Slices:
             elif net not in touched:
                 out[net] = before
             else:
-                out[net] = _merged(before, mine, x, place)
+                out[net] = _merged(before, mine, x, place, self.position)
         for net in list(out):
             for twin in self.folded.get(net.lower(), ()):
                 if twin not in out:
@@ -233,17 +233,25 @@ class Slices:
 
 
 def _merged(
-    before: Iterable[tuple[Component, str]],
+    before: list[tuple[Component, str]],
     mine: Iterable[tuple[Component, str]],
     x: frozenset[str],
-    place,  # type: ignore[no-untyped-def]
+    place: Callable[[tuple[Component, str]], int],
+    position: Mapping[str, int],
 ) -> list[tuple[Component, str]]:
     """A net's whole connection list after the edits: X's entries from the slice.
 
-    ``before`` is in design order; X's entries go in at their places (bisect:
-    a bus net's list is long, the entries few).
+    ``before`` is in design order (``place``); X's old entries are taken out
+    and its new ones put in at their places by bisection: a bus net's list is
+    long, X's entries few.
     """
-    kept = [entry for entry in before if entry[0].ref not in x]
+    kept = list(before)
+    for ref in x:
+        if ref not in position:
+            continue  # an added component: no old entries
+        at = bisect_left(kept, position[ref], key=place)
+        while at < len(kept) and kept[at][0].ref == ref:
+            del kept[at]
     for entry in mine:
         if entry[0].ref in x:
             kept.insert(bisect_right(kept, place(entry), key=place), entry)

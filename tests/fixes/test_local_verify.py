@@ -10,6 +10,11 @@ suppressor across the rails, a low-side contact, a waiver) both must give the
 same verdict and the same edits for every finding. Hand-chosen edits on those
 designs (one that changes the current the fuse breaks, one that bridges two
 rungs, one across the rails) must give the same verdict for every finding.
+Where a domain allows it, a re-check analyses only the slice of the touched
+rungs and the bus (netcheck.fixes.slices): its verdicts must equal those of
+the cluster re-checked (the switch ``sliced=False``) and of the whole design,
+each slice's decided findings the whole edited design's, message included,
+and its nets' connection lists the whole edited design's, in order.
 A last test counts the components re-analysed on generated designs of two
 sizes: local re-checks make the work grow with the design, whole-design
 re-checks with its square.
@@ -18,16 +23,20 @@ re-checks with its square.
 from __future__ import annotations
 
 import sys
+from dataclasses import replace
 from pathlib import Path
 
 import pytest
 
+import netcheck.fixes.slices as slices
 import netcheck.fixes.verify as verify
 from netcheck.errors import InputError
-from netcheck.fixes.edits import AddComponent, Remove
+from netcheck.fixes.edits import AddComponent, Remove, apply_edits
 from netcheck.fixes.locality import Locality
 from netcheck.fixes.rungs import Rungs
+from netcheck.fixes.slices import Slices
 from netcheck.fixes.verify import Verifier, verify_fixes
+from netcheck.graph import build_graph
 from netcheck.input import load_design
 from netcheck.pipeline import analyse_path, run_checks
 
@@ -180,9 +189,15 @@ def _work(tmp: Path, n: int, monkeypatch: pytest.MonkeyPatch) -> tuple[int, int]
             counted[0] += len(only) + -(-size * numerator // denominator)
         return real(graph, only)
 
+    def slice_counting(graph):  # type: ignore[no-untyped-def]
+        counted[0] += len(graph.netlist.components)  # a slice is analysed whole
+        return real(graph)
+
     monkeypatch.setattr(verify, "analyse", counting)
+    monkeypatch.setattr(slices, "analyse", slice_counting)
     findings = verify_fixes(netlist, analysis, run_checks(netlist, analysis))
     monkeypatch.setattr(verify, "analyse", real)
+    monkeypatch.setattr(slices, "analyse", real)
     assert any(f.verified for f in findings)
     return counted[0], verify.work_budget(netlist)
 
@@ -202,3 +217,77 @@ def test_recheck_work_grows_linearly(
     assert small_budget == 4 * 200 + verify.WORK_FLOOR
     assert 0 < small <= small_budget and 0 < large <= large_budget
     assert large - small <= verify.WORK_FACTOR * (800 - 200) + verify.WORK_FLOOR
+
+
+def _sliced_rechecks(path: Path, monkeypatch: pytest.MonkeyPatch) -> tuple[int, list]:  # type: ignore[type-arg]
+    """(slices taken, mismatches) verifying the fixes of ``path`` by slices.
+
+    Every slice taken is compared with the whole edited design: the decided
+    findings (message included) and the connection lists of the slice's nets.
+    """
+    netlist, analysis = analyse_path(path)
+    findings = run_checks(netlist, analysis)
+    taken: list[int] = [0]
+    mismatches: list = []  # type: ignore[type-arg]
+    real = verify.Verifier._sliced
+    whole = Verifier(netlist, findings, {}, None)
+
+    def spy(self, edits, plan):  # type: ignore[no-untyped-def]
+        result = real(self, edits, plan)
+        if isinstance(result, tuple):
+            taken[0] += 1
+            after, cut = result
+            full = [f for f in whole.recheck(edits) or [] if cut.decides(f.element)]
+            if sorted(map(_facts, after)) != sorted(map(_facts, full)):
+                mismatches.append(("findings", edits))
+        return result
+
+    real_build = Slices.build
+
+    def build_spy(self, edits, plan):  # type: ignore[no-untyped-def]
+        piece = real_build(self, edits, plan)
+        edited = apply_edits(netlist, edits)
+        full = build_graph(edited).connections
+        for net, entries in piece.graph.connections.items():
+            mine = [(c.ref, t) for c, t in entries]
+            if mine != [(c.ref, t) for c, t in full.get(net, ())]:
+                mismatches.append(("connections", net, edits))
+        return piece
+
+    monkeypatch.setattr(verify.Verifier, "_sliced", spy)
+    monkeypatch.setattr(Slices, "build", build_spy)
+    sliced = verify_fixes(netlist, analysis, findings, budget=None)
+    monkeypatch.undo()
+    cluster = verify_fixes(netlist, analysis, findings, budget=None, sliced=False)
+    if _verdicts(sliced) != _verdicts(cluster):
+        mismatches.append(("verdicts", path))
+    return taken[0], mismatches
+
+
+# At 300 components only the unsuppressed shape has fixes; mixed and one-rail
+# get theirs at 2,000.
+SLICED = [(shape, 300) for shape in SHAPES] + [("mixed", 2000), ("one-rail", 2000)]
+
+
+@pytest.mark.parametrize(("shape", "size"), SLICED)
+def test_sliced_recheck_agrees_on_bench_shapes(
+    shape: str, size: int, tmp_path: Path, monkeypatch: pytest.MonkeyPatch
+) -> None:
+    top = _gen_design().generate(size, tmp_path, shape=shape)
+    taken, mismatches = _sliced_rechecks(top, monkeypatch)
+    assert mismatches == []
+    if shape == "unsuppressed" or size > 300:
+        assert taken > 0
+
+
+def test_added_component_after_one_outside_the_slice() -> None:
+    """An added part follows its anchor's statement even outside the slice."""
+    netlist, _ = analyse_path(CUT_DESIGNS / "fused-bus-110v.cnet")
+    anchor = netlist.components[0]
+    sliced = replace(netlist, components=netlist.components[1:2])
+    edit = _diode("VX", "L-", "W2", anchor.ref)
+    edited = apply_edits(sliced, [edit], context=netlist)
+    assert edited.component("VX").span == anchor.span  # type: ignore[union-attr]
+    taken = _diode(anchor.ref, "L-", "W2", anchor.ref)
+    with pytest.raises(ValueError):
+        apply_edits(sliced, [taken], context=netlist)  # exists outside the slice
