@@ -43,9 +43,9 @@ DESIGN_BUDGET = -1  # verify_fixes: the budget of work_budget()
 # is charged 2/5 of the part's components (bench/README.md).
 RESTRICTED_SHARE = (2, 5)
 # A slice (netcheck.fixes.slices) is charged its own components: measured on
-# 20,000 components, 12-28 ms per slice of ~60-560 components (0.05-0.2 ms a
-# component, its fixed costs included) against ~0.1 ms a component for a
-# whole check, so the charge follows the work.
+# 20,000 components (mixed and one-rail shapes), 8-18 ms per slice of 65-280
+# components, 0.06-0.1 ms a component with its fixed costs, against ~0.1 ms a
+# component for checking the design itself, so the charge follows the work.
 _UNKNOWN: Any = object()  # a re-check refused for want of budget
 _WHOLE_CLUSTER: Any = object()  # a slice cannot decide: the cluster's re-check
 
