@@ -226,7 +226,7 @@ class Slices:
         return True
 
     def _side_local(self, zero: ZeroOhm, key: str) -> bool:
-        if key not in zero.by_key or zero.bypass(key):
+        if key not in zero.by_key or zero.bypass(key) or zero.bypass_through_load(key):
             return False
         side, _ = zero.sides(key, set())
         return bool(side) and not any(net in self.rungs.bus for net in side)

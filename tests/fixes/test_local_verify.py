@@ -31,7 +31,7 @@ import pytest
 import netcheck.fixes.slices as slices
 import netcheck.fixes.verify as verify
 from netcheck.errors import InputError
-from netcheck.fixes.edits import AddComponent, Remove, apply_edits
+from netcheck.fixes.edits import AddComponent, Reconnect, Remove, SetValues, apply_edits
 from netcheck.fixes.locality import Locality
 from netcheck.fixes.rungs import Rungs
 from netcheck.fixes.slices import Slices
@@ -291,3 +291,52 @@ def test_added_component_after_one_outside_the_slice() -> None:
     taken = _diode(anchor.ref, "L-", "W2", anchor.ref)
     with pytest.raises(ValueError):
         apply_edits(sliced, [taken], context=netlist)  # exists outside the slice
+
+
+# Hand-chosen edits on a generated one-rail design (no global element), with
+# the way the local re-check must take: by slice, or by the cluster after the
+# slice's conditions fail (a resistor across a contact bypasses it).
+SLICE_EDITS = [
+    ([Remove("V1")], "slice"),
+    ([Reconnect("V2", (("A", "W1.2"), ("K", "M1")))], "slice"),  # reversed
+    # Bridges two rungs whose outputs are closed: a shunt round both outputs.
+    ([_resistor("RX", "W1.1", "W1.2", "Y1")], "cluster"),
+    ([_diode("VX", "W1.1", "W1.8", "Y1")], "slice"),  # a diode: no shunt
+    ([_diode("VX", "W1.1", "P1", "Y1")], "slice"),  # to the bus
+    ([_resistor("RX", "P1", "W1.7", "S1")], "cluster"),  # across S1
+    ([SetValues("V1", (("voltage_rating", "1V"),))], "slice"),
+]
+
+
+@pytest.mark.parametrize(
+    ("edits", "way"),
+    SLICE_EDITS,
+    ids=[f"{i}-{w}" for i, (_, w) in enumerate(SLICE_EDITS)],
+)
+def test_chosen_slice_edits_agree_with_whole_design(
+    edits: list, way: str, tmp_path: Path
+) -> None:
+    top = _gen_design().generate(300, tmp_path, shape="one-rail")
+    netlist, analysis = analyse_path(top)
+    findings = run_checks(netlist, analysis)
+    rungs = Rungs(netlist, analysis)
+    local = Verifier(
+        netlist,
+        findings,
+        {},
+        None,
+        Locality(netlist, analysis.graph),
+        rungs,
+        Slices(rungs),
+    )
+    whole = Verifier(netlist, findings, {}, None)
+    after = local.recheck(edits)
+    cut = local._result(edits)[1]  # type: ignore[index]
+    decided = [f for f in whole.recheck(edits) or [] if cut.decides(f.element)]
+    assert after is not None and sorted(map(_facts, after)) == sorted(
+        map(_facts, decided)
+    )
+    taken = cut.names == frozenset()  # a slice's cut names nothing but its plan
+    assert cut.restricted is not None and taken == (way == "slice")
+    for finding in findings:
+        assert local.passes(finding, edits) == whole.passes(finding, edits), finding
