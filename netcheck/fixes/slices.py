@@ -50,7 +50,7 @@ from __future__ import annotations
 
 from bisect import bisect_left, bisect_right
 from collections.abc import Callable, Iterable, Mapping, Sequence
-from dataclasses import replace
+from dataclasses import dataclass, replace
 
 from netcheck.analysis.domain import shunts
 from netcheck.analysis.elements import Analysis, analyse
@@ -63,18 +63,13 @@ from netcheck.model import Component, Netlist
 __all__ = ["Slices", "Slice"]
 
 
+@dataclass(frozen=True)
 class Slice:
     """One edited slice: its design, graph and analysis."""
 
-    def __init__(self, netlist: Netlist, graph: Graph, analysis: Analysis) -> None:
-        self.netlist = netlist
-        self.graph = graph
-        self.analysis = analysis
-
-    @property
-    def size(self) -> int:
-        """Components analysed."""
-        return len(self.netlist.components)
+    netlist: Netlist
+    graph: Graph
+    analysis: Analysis
 
 
 class Slices:
@@ -90,6 +85,9 @@ class Slices:
             if component.ref in rungs.bus_refs and component.connections:
                 domain = graph.domain_of[component.connections[0].net]
                 self.bus_by_domain.setdefault(domain.name, []).append(component.ref)
+        self.bus_nets: dict[str, list[str]] = {}
+        for net in sorted(rungs.bus):
+            self.bus_nets.setdefault(graph.domain_of[net].name, []).append(net)
         self.folded: dict[str, list[str]] = {}
         for net in graph.connections:
             self.folded.setdefault(net.lower(), []).append(net)
@@ -199,12 +197,9 @@ class Slices:
                 s.ref for s in before.domain.supplies
             ]:
                 return False
-            if not _same_rails(before, state, self._bus_nets(before)):
+            if not _same_rails(before, state, self.bus_nets.get(name, ())):
                 return False
         return self._elements_local(piece, plan)
-
-    def _bus_nets(self, state) -> list[str]:  # type: ignore[no-untyped-def]
-        return [n for n in state.domain.nets if n in self.rungs.bus]
 
     def _elements_local(self, piece: Slice, plan: Restricted) -> bool:
         analysis = piece.analysis
