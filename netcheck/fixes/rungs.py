@@ -49,6 +49,8 @@ If a comparison fails, or an edit is a bus component (its edit could change
 chains across the rails or a bypass), a supply or a fuse or breaker (they
 move rails and the bus), or reaches an unsolved domain, the
 verifier re-checks the whole cluster instead (:mod:`netcheck.fixes.locality`).
+Where the domains X reaches have no global element, the re-check need not
+build the cluster at all: :mod:`netcheck.fixes.slices` analyses X and the bus.
 """
 
 from __future__ import annotations

@@ -5,7 +5,9 @@ gone and no error appears that the design did not have. Only the part of the
 design the edits can affect is re-checked (:mod:`netcheck.fixes.locality`):
 findings elsewhere cannot change; within it, only the elements the edits can
 change are analysed again where that is shown exact (:mod:`netcheck.fixes.rungs`,
-which falls back to the whole part otherwise). Candidates are tried
+which falls back to the whole part otherwise; where the touched domains have
+no global element, :mod:`netcheck.fixes.slices` builds and checks only the
+slice of the touched rungs and the bus). Candidates are tried
 in order of preference; the first that verifies is the one shown. A fix none
 of whose candidates verifies keeps its text and is marked unverified.
 """
