@@ -208,9 +208,8 @@ class Proposer:
 
     def _fresh_ref(self, prefix: str, load: str) -> str:
         """A reference named after the load (``V_Y1``), the same for every finding."""
-        used = {c.ref for c in self.netlist.components}
         ref, number = f"{prefix}_{load}", 1
-        while ref in used:
+        while self.netlist.component(ref) is not None:  # the design's index
             number += 1
             ref = f"{prefix}_{load}_{number}"
         return ref

@@ -194,7 +194,7 @@ class Rungs:
         for name in domains:
             only.update(n.split(":", 1)[0] for n in self.globals.get(name, ()))
         decided = only - self._global_refs(domains) | x_refs | x_nets
-        decided |= (nets - set(self.unit_of)) | (nets & self.bus)
+        decided |= {n for n in nets if n not in self.unit_of} | (nets & self.bus)
         decided |= {s.ref for name in domains for s in self._supplies(name)}
         decided |= self._bus_switching_x(domains, x_refs)
         return Restricted(
@@ -219,7 +219,7 @@ class Rungs:
         if isinstance(edit, Reconnect):
             wiring.update(dict(edit.connections))
         if isinstance(edit, Remove):
-            return set(self.unit_of) & set(wiring.values())
+            return {net for net in wiring.values() if net in self.unit_of}
         return set(wiring.values())
 
     def _old_nets(self, edit: Edit) -> set[str]:
