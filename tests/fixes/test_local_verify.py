@@ -264,9 +264,10 @@ def _sliced_rechecks(path: Path, monkeypatch: pytest.MonkeyPatch) -> tuple[int, 
     return taken[0], mismatches
 
 
-# At 300 components only the unsuppressed shape has fixes; mixed and one-rail
-# get theirs at 2,000.
-SLICED = [(shape, 300) for shape in SHAPES] + [("mixed", 2000), ("one-rail", 2000)]
+# At 300 components only the unsuppressed shape has fixes; the others get
+# theirs at 2,000.
+SLICED = [(shape, 300) for shape in SHAPES]
+SLICED += [(s, 2000) for s in ("mixed", "one-rail", "many-supplies", "plc", "sheets")]
 
 
 @pytest.mark.parametrize(("shape", "size"), SLICED)
@@ -296,6 +297,7 @@ def test_added_component_after_one_outside_the_slice() -> None:
 # Hand-chosen edits on a generated one-rail design (no global element), with
 # the way the local re-check must take: by slice, or by the cluster after the
 # slice's conditions fail (a resistor across a contact bypasses it).
+LAMP = (("1", "W1.8"), ("2", "M1"))  # beside Y7, switched by K1:13-14
 SLICE_EDITS = [
     ([Remove("V1")], "slice"),
     ([Reconnect("V2", (("A", "W1.2"), ("K", "M1")))], "slice"),  # reversed
@@ -305,6 +307,10 @@ SLICE_EDITS = [
     ([_diode("VX", "W1.1", "P1", "Y1")], "slice"),  # to the bus
     ([_resistor("RX", "P1", "W1.7", "S1")], "cluster"),  # across S1
     ([SetValues("V1", (("voltage_rating", "1V"),))], "slice"),
+    # The making current at closing is the whole domain's network: a lamp
+    # switched, or a stated making current, falls back.
+    ([AddComponent("load", "HX", (("part", "lamp-24v"),), LAMP, "Y7")], "cluster"),
+    ([SetValues("K1", (("contacts.making_current", "5A"),))], "cluster"),
 ]
 
 
