@@ -120,8 +120,14 @@ class Slices:
             refs.update(self.bus_by_domain.get(name, ()))
         return refs
 
-    def build(self, edits: Sequence[Edit], plan: Restricted) -> Slice:
-        """The edited slice, analysed; raises what ``apply_edits`` raises.
+    def build(self, edited: Netlist, plan: Restricted) -> Slice:
+        """The edited slice (:meth:`edited`) with its graph and analysis."""
+        graph = build_graph(edited)
+        graph.connections = self._connections(graph, edited, plan)
+        return Slice(edited, graph, analyse(graph))
+
+    def edited(self, edits: Sequence[Edit], plan: Restricted) -> Netlist:
+        """The slice with ``edits`` applied; raises what ``apply_edits`` raises.
 
         Its waivers are those a decided finding could match (a waiver is
         matched by the finding's element or its device), in the design's order.
@@ -136,10 +142,7 @@ class Slices:
             if w.target in decided or w.target.split(":", 1)[0] in decided
         )
         sliced = replace(design, components=kept, waivers=waivers)
-        edited = apply_edits(sliced, edits, context=design)
-        graph = build_graph(edited)
-        graph.connections = self._connections(graph, edited, plan)
-        return Slice(edited, graph, analyse(graph))
+        return apply_edits(sliced, edits, context=design)
 
     def _connections(
         self, graph: Graph, edited: Netlist, plan: Restricted

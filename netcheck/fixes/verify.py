@@ -168,9 +168,10 @@ class Verifier:
         if not self._charge(self.slices.cost(plan) + added):
             return _UNKNOWN
         try:
-            piece = self.slices.build(edits, plan)
+            edited = self.slices.edited(edits, plan)
         except (InputError, InputErrors, ValueError, KeyError):
             return None
+        piece = self.slices.build(edited, plan)
         if not self.slices.exact(piece, plan):
             return _WHOLE_CLUSTER
         local = Cut(piece.netlist, frozenset(), restricted=plan)

@@ -232,26 +232,28 @@ def _sliced_rechecks(path: Path, monkeypatch: pytest.MonkeyPatch) -> tuple[int, 
     real = verify.Verifier._sliced
     whole = Verifier(netlist, findings, {}, None)
 
-    def spy(self, edits, plan):  # type: ignore[no-untyped-def]
-        result = real(self, edits, plan)
+    edits: list = [None]  # type: ignore[type-arg]  # those of the slice being built
+
+    def spy(self, chosen, plan):  # type: ignore[no-untyped-def]
+        edits[0] = chosen
+        result = real(self, chosen, plan)
         if isinstance(result, tuple):
             taken[0] += 1
             after, cut = result
-            full = [f for f in whole.recheck(edits) or [] if cut.decides(f.element)]
+            full = [f for f in whole.recheck(chosen) or [] if cut.decides(f.element)]
             if sorted(map(_facts, after)) != sorted(map(_facts, full)):
-                mismatches.append(("findings", edits))
+                mismatches.append(("findings", chosen))
         return result
 
     real_build = Slices.build
 
-    def build_spy(self, edits, plan):  # type: ignore[no-untyped-def]
-        piece = real_build(self, edits, plan)
-        edited = apply_edits(netlist, edits)
-        full = build_graph(edited).connections
+    def build_spy(self, edited, plan):  # type: ignore[no-untyped-def]
+        piece = real_build(self, edited, plan)
+        full = build_graph(apply_edits(netlist, edits[0])).connections
         for net, entries in piece.graph.connections.items():
             mine = [(c.ref, t) for c, t in entries]
             if mine != [(c.ref, t) for c, t in full.get(net, ())]:
-                mismatches.append(("connections", net, edits))
+                mismatches.append(("connections", net, edits[0]))
         return piece
 
     monkeypatch.setattr(verify.Verifier, "_sliced", spy)
