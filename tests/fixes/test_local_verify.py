@@ -299,6 +299,16 @@ def test_added_component_after_one_outside_the_slice() -> None:
 # Hand-chosen edits on a generated one-rail design (no global element), with
 # the way the local re-check must take: by slice, or by the cluster after the
 # slice's conditions fail (a resistor across a contact bypasses it).
+@pytest.mark.parametrize("shape", ["mixed", "many-supplies"])
+def test_sliced_recheck_agrees_with_many_hazards(
+    shape: str, tmp_path: Path, monkeypatch: pytest.MonkeyPatch
+) -> None:
+    """A tenth of the loads unsuppressed: dozens of slices, rungs side by side."""
+    top = _gen_design().generate(1500, tmp_path, shape=shape, hazard_rate=0.1, seed=1)
+    taken, mismatches = _sliced_rechecks(top, monkeypatch)
+    assert mismatches == [] and taken > 20
+
+
 LAMP = (("1", "W1.8"), ("2", "M1"))  # beside Y7, switched by K1:13-14
 SLICE_EDITS = [
     ([Remove("V1")], "slice"),
