@@ -1,6 +1,7 @@
 """The hand-written ``__init__``s make what the dataclass's own would.
 
-``model.py``, ``graph.py`` and ``input/cnet/statements.py`` give the classes
+``model.py``, ``graph.py``, ``input/cnet/statements.py`` and the analysis's
+``circuit.py`` and ``loads.py`` give the classes
 built once per token their own ``__init__`` for speed (``findings.Finding``
 too: a heavy report builds thousands); here each is compared
 with the ``__init__`` that ``dataclasses`` generates for the same fields:
@@ -14,6 +15,8 @@ import dataclasses
 
 import pytest
 
+from netcheck.analysis.circuit import Diode, Resistor
+from netcheck.analysis.loads import LoadFacts
 from netcheck.findings import Finding, Severity
 from netcheck.graph import Branch
 from netcheck.input.cnet.statements import ComponentStatement, RawAttribute
@@ -60,6 +63,14 @@ CASES = [
     ),
     (Branch, (None, "switch", "P1", "W1", ELEMENT), {}),
     (Branch, (None, "load", "P1", "W1"), {}),
+    (Resistor, ("R1", "P1", "W1", 48.0), {}),
+    (Diode, ("V1", "M1", "W1", 0.7), {}),
+    (Diode, ("V1", "M1", "W1", 0.7), {"vz": 33.0}),
+    (
+        LoadFacts,
+        ("Y1", "Y1", "valve", None, None, None, None, "none", None, None, ()),
+        {},
+    ),
     (RawAttribute, ("v", "24V", False, SPAN), {}),
     (
         ComponentStatement,

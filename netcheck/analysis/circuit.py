@@ -32,6 +32,14 @@ class Resistor:
     b: str
     resistance: float
 
+    def __init__(self, key: str, a: str, b: str, resistance: float) -> None:
+        # Made per branch per solve: straight into ``__dict__`` (model.py's way).
+        fields = self.__dict__
+        fields["key"] = key
+        fields["a"] = a
+        fields["b"] = b
+        fields["resistance"] = resistance
+
 
 @dataclass(frozen=True)
 class Diode:
@@ -45,6 +53,16 @@ class Diode:
     b: str
     vf: float
     vz: float | None = None
+
+    def __init__(
+        self, key: str, a: str, b: str, vf: float, vz: float | None = None
+    ) -> None:
+        fields = self.__dict__
+        fields["key"] = key
+        fields["a"] = a
+        fields["b"] = b
+        fields["vf"] = vf
+        fields["vz"] = vz
 
 
 @dataclass(frozen=True)
@@ -87,66 +105,111 @@ def _stamp(
                 matrix[i][j] += sign * osign * g
 
 
-def _linear_solve(
-    nodes: Sequence[str],
-    fixed: Mapping[str, float],
-    resistors: Sequence[Resistor],
-    diodes: Sequence[Diode],
-    states: Mapping[str, str],
-) -> dict[str, float]:
-    # The equations are stamped in Python floats (the same IEEE operations in
-    # the same order as into numpy arrays, a fraction of the cost per entry).
-    index = {n: i for i, n in enumerate(nodes)}
-    size = len(nodes)
-    matrix = [[0.0] * size for _ in range(size)]
-    for node in _floating(nodes, fixed, resistors, diodes, states):
-        matrix[index[node]][index[node]] = G_MIN
-    rhs = [0.0] * size
-    for r in resistors:
-        _stamp(matrix, rhs, index, fixed, r.a, r.b, 1.0 / r.resistance, 0.0)
-    for d in diodes:
-        state = states[d.key]
-        if state == "forward":
-            _stamp(matrix, rhs, index, fixed, d.a, d.b, 1.0 / R_ON, d.vf)
-        elif state == "reverse" and d.vz is not None:
-            _stamp(matrix, rhs, index, fixed, d.a, d.b, 1.0 / R_ON, -d.vz)
-    values = _solve(matrix, rhs) if size else []
-    potentials = dict(fixed)
-    potentials.update({n: float(values[i]) for n, i in index.items()})
-    return potentials
+class _System:
+    """The nodal equations of one ``solve_dc`` call, rebuilt per diode state.
 
-
-def _floating(
-    nodes: Sequence[str],
-    fixed: Mapping[str, float],
-    resistors: Sequence[Resistor],
-    diodes: Sequence[Diode],
-    states: Mapping[str, str],
-) -> set[str]:
-    """Nodes with no conducting path to a fixed node: only these get G_MIN.
-
-    A node tied to a rail through a resistor has a defined potential; a G_MIN
-    leak there would shift it by V·R·G_MIN (1 kV through 80 ohm read
-    999.99999992 V), so the leak goes only where it is needed.
+    What does not change with the diode states is worked out once: the node
+    index, each resistor's conductance and where it stamps, and the
+    resistors' links for ``_floating``. Each entry of the matrix and of the
+    right-hand side still receives the same IEEE operations in the same
+    order as ``_stamp`` gives it (a resistor's zero offset adds a zero, which
+    leaves every sum started from +0.0 unchanged), so the solution is the
+    same bit for bit (``tests/analysis/test_circuit_fast.py``).
     """
-    links: dict[str, list[str]] = {n: [] for n in nodes}
-    conducting = [(r.a, r.b) for r in resistors] + [
-        (d.a, d.b)
-        for d in diodes
-        if states[d.key] == "forward"
-        or (states[d.key] == "reverse" and d.vz is not None)
-    ]
-    for a, b in conducting:
-        links.setdefault(a, []).append(b)
-        links.setdefault(b, []).append(a)
-    reached = {n for n in fixed if n in links}
-    todo = list(reached)
-    while todo:
-        for other in links[todo.pop()]:
-            if other not in reached:
-                reached.add(other)
-                todo.append(other)
-    return {n for n in nodes if n not in reached}
+
+    def __init__(
+        self,
+        nodes: Sequence[str],
+        fixed: Mapping[str, float],
+        resistors: Sequence[Resistor],
+    ) -> None:
+        self.nodes = nodes
+        self.fixed = fixed
+        self.index = index = {n: i for i, n in enumerate(nodes)}
+        self.stamps = []
+        links: dict[str, list[str]] = {n: [] for n in nodes}
+        for r in resistors:
+            g = 1.0 / r.resistance
+            ia, ib = index.get(r.a), index.get(r.b)
+            # A fixed end stamps its potential into the right-hand side.
+            fa = fixed[r.a] if ia is None and ib is not None else 0.0
+            fb = fixed[r.b] if ib is None and ia is not None else 0.0
+            self.stamps.append((ia, ib, g, fa, fb))
+            links.setdefault(r.a, []).append(r.b)
+            links.setdefault(r.b, []).append(r.a)
+        # An infinite conductance (a subnormal resistance) would make g*0 a
+        # NaN where _stamp adds it: such systems take _stamp for every branch.
+        self.finite = all(math.isfinite(g) for _ia, _ib, g, _fa, _fb in self.stamps)
+        self.resistors = resistors
+        self.links = links
+
+    def solve(
+        self, diodes: Sequence[Diode], states: Mapping[str, str]
+    ) -> dict[str, float]:
+        """The potentials with the diodes in ``states``."""
+        nodes, fixed, index = self.nodes, self.fixed, self.index
+        size = len(nodes)
+        matrix = [[0.0] * size for _ in range(size)]
+        for node in self._floating(diodes, states):
+            matrix[index[node]][index[node]] = G_MIN
+        rhs = [0.0] * size
+        if self.finite:
+            for ia, ib, g, fa, fb in self.stamps:
+                if ia is not None:
+                    row = matrix[ia]
+                    row[ia] += g
+                    if ib is None:
+                        rhs[ia] += g * fb
+                    else:
+                        row[ib] += -g
+                if ib is not None:
+                    row = matrix[ib]
+                    if ia is None:
+                        rhs[ib] += g * fa
+                    else:
+                        row[ia] += -g
+                    row[ib] += g
+        else:
+            for r in self.resistors:
+                _stamp(matrix, rhs, index, fixed, r.a, r.b, 1.0 / r.resistance, 0.0)
+        for d in diodes:
+            state = states[d.key]
+            if state == "forward":
+                _stamp(matrix, rhs, index, fixed, d.a, d.b, 1.0 / R_ON, d.vf)
+            elif state == "reverse" and d.vz is not None:
+                _stamp(matrix, rhs, index, fixed, d.a, d.b, 1.0 / R_ON, -d.vz)
+        values = _solve(matrix, rhs) if size else []
+        potentials = dict(fixed)
+        potentials.update({n: float(values[i]) for n, i in index.items()})
+        return potentials
+
+    def _floating(self, diodes: Sequence[Diode], states: Mapping[str, str]) -> list:
+        """Nodes with no conducting path to a fixed node: only these get G_MIN.
+
+        A node tied to a rail through a resistor has a defined potential; a G_MIN
+        leak there would shift it by V·R·G_MIN (1 kV through 80 ohm read
+        999.99999992 V), so the leak goes only where it is needed.
+        """
+        links = self.links
+        conducting = [
+            (d.a, d.b)
+            for d in diodes
+            if states[d.key] == "forward"
+            or (states[d.key] == "reverse" and d.vz is not None)
+        ]
+        if conducting:
+            links = {n: list(v) for n, v in links.items()}
+            for a, b in conducting:
+                links.setdefault(a, []).append(b)
+                links.setdefault(b, []).append(a)
+        reached = {n for n in self.fixed if n in links}
+        todo = list(reached)
+        while todo:
+            for other in links[todo.pop()]:
+                if other not in reached:
+                    reached.add(other)
+                    todo.append(other)
+        return [n for n in self.nodes if n not in reached]
 
 
 def _solve(matrix: list[list[float]], rhs: list[float]) -> Sequence[float]:
@@ -204,8 +267,9 @@ def solve_dc(
     """
     unknown = [n for n in nodes if n not in fixed]
     states = {d.key: "off" for d in diodes}
+    system = _System(unknown, fixed, resistors)
     for _ in range(_MAX_ITERATIONS + len(diodes)):
-        potentials = _linear_solve(unknown, fixed, resistors, diodes, states)
+        potentials = system.solve(diodes, states)
         changes = []
         for d in diodes:
             va, vb = potentials[d.a], potentials[d.b]

@@ -2,7 +2,9 @@
 
 from __future__ import annotations
 
+from collections.abc import Mapping
 from dataclasses import dataclass
+from typing import Any
 
 import pint
 
@@ -134,6 +136,35 @@ class LoadFacts:
     rated_voltage: pint.Quantity | None
     missing: tuple[str, ...]
 
+    def __init__(
+        self,
+        key: str,
+        ref: str,
+        type: str,  # noqa: A002 - the field's name
+        resistance: pint.Quantity | None,
+        inductance: pint.Quantity | None,
+        time_constant: pint.Quantity | None,
+        release_current: pint.Quantity | None,
+        suppression: str,
+        coil_supply: str | None,
+        rated_voltage: pint.Quantity | None,
+        missing: tuple[str, ...],
+    ) -> None:
+        # One per load and state: written straight into the instance's
+        # ``__dict__`` as ``model.Component`` is (tests/test_model_init.py).
+        fields = self.__dict__
+        fields["key"] = key
+        fields["ref"] = ref
+        fields["type"] = type
+        fields["resistance"] = resistance
+        fields["inductance"] = inductance
+        fields["time_constant"] = time_constant
+        fields["release_current"] = release_current
+        fields["suppression"] = suppression
+        fields["coil_supply"] = coil_supply
+        fields["rated_voltage"] = rated_voltage
+        fields["missing"] = missing
+
 
 def is_inductive(facts: LoadFacts) -> bool:
     """Inductive by type or by a given inductance."""
@@ -161,45 +192,61 @@ def _inductance(r: pint.Quantity | None, l_value, tau) -> tuple:
     return None, None
 
 
+# The keys ``load_facts`` reads, of a coil's ``coil`` group and of a load's values.
+_COIL_KEYS = (
+    "resistance",
+    "voltage",
+    "current",
+    "inductance",
+    "time_constant",
+    "economy",
+    "release_current",
+    "suppression",
+    "supply",
+)
+_LOAD_KEYS = ("R", "P", "V", "I", "L", "tau", "type", "release_current", "suppression")
+# Facts by the identities of the values they are read from (see ``load_facts``).
+_FACTS: dict[tuple[int, ...], tuple[tuple[Any, ...], tuple[Any, ...]]] = {}
+_FACTS_LIMIT = 8192
+_ABSENT = object()  # a key not there (None may be a value)
+
+
 def load_facts(branch: Branch) -> LoadFacts:
-    """Read a load's or coil's electrical facts from its merged values."""
+    """Read a load's or coil's electrical facts from its merged values.
+
+    Repeated rungs repeat their parts, and a part's parsed values are shared
+    objects (``input/cnet/build.py``), so the facts are remembered by the
+    role and the *identities* of the values read (``_COIL_KEYS`` of the coil
+    group, or ``_LOAD_KEYS`` of the values): those objects are kept in the
+    memo beside the facts, so an identity met again is the same object, and
+    the facts, a pure function of them, are the same. Only the branch's key
+    and reference differ between such loads; they are filled in per call.
+    """
     component = branch.component
-    if branch.role == COIL:
-        coil = dict(component.value("coil", default={}) or {})
-        r = coil.get("resistance")
-        if (
-            r is None
-            and coil.get("voltage") is not None
-            and coil.get("current") is not None
-        ):
-            r = (coil["voltage"] / coil["current"]).to("ohm")
-        inductance, tau = _inductance(
-            r, coil.get("inductance"), coil.get("time_constant")
-        )
-        economy = bool(coil.get("economy"))
-        missing = tuple(k for k, v in (("coil.resistance", r),) if v is None)
-        return LoadFacts(
-            branch.key,
-            component.ref,
-            "economy-coil" if economy else "coil",
-            r,
-            inductance,
-            tau,
-            coil.get("release_current"),
-            str(coil.get("suppression", "none")),
-            # Unknown where not given: a relay with no part data is neither
-            # a DC nor an AC coil.
-            str(coil["supply"]) if coil.get("supply") is not None else None,
-            coil.get("voltage"),
-            missing,
-        )
-    values = dict(component.values)
+    coil = branch.role == COIL
+    source = (component.value("coil", default={}) or {}) if coil else component.values
+    if type(source) is not dict:
+        return LoadFacts(branch.key, component.ref, *_shared_facts(coil, source))
+    get = source.get
+    leaves = tuple([get(k, _ABSENT) for k in (_COIL_KEYS if coil else _LOAD_KEYS)])
+    key = (coil, *map(id, leaves))
+    found = _FACTS.get(key)
+    if found is None:
+        if len(_FACTS) >= _FACTS_LIMIT:
+            _FACTS.clear()
+        found = _FACTS[key] = (leaves, _shared_facts(coil, source))
+    return LoadFacts(branch.key, component.ref, *found[1])
+
+
+def _shared_facts(coil: bool, source: Mapping[str, Any]) -> tuple[Any, ...]:
+    """Every field of ``LoadFacts`` after its key and ref, from the values read."""
+    if coil:
+        return _coil_facts(dict(source))
+    values = dict(source)
     r = _resistance_of(values)
     inductance, tau = _inductance(r, values.get("L"), values.get("tau"))
     missing = tuple(k for k, v in (("R (or P and V, or I and V)", r),) if v is None)
-    return LoadFacts(
-        branch.key,
-        component.ref,
+    return (
         str(values.get("type", "resistive")),
         r,
         inductance,
@@ -208,6 +255,32 @@ def load_facts(branch: Branch) -> LoadFacts:
         str(values.get("suppression", "none")),
         None,
         values.get("V"),
+        missing,
+    )
+
+
+def _coil_facts(coil: dict[str, Any]) -> tuple[Any, ...]:
+    r = coil.get("resistance")
+    if (
+        r is None
+        and coil.get("voltage") is not None
+        and coil.get("current") is not None
+    ):
+        r = (coil["voltage"] / coil["current"]).to("ohm")
+    inductance, tau = _inductance(r, coil.get("inductance"), coil.get("time_constant"))
+    economy = bool(coil.get("economy"))
+    missing = tuple(k for k, v in (("coil.resistance", r),) if v is None)
+    return (
+        "economy-coil" if economy else "coil",
+        r,
+        inductance,
+        tau,
+        coil.get("release_current"),
+        str(coil.get("suppression", "none")),
+        # Unknown where not given: a relay with no part data is neither
+        # a DC nor an AC coil.
+        str(coil["supply"]) if coil.get("supply") is not None else None,
+        coil.get("voltage"),
         missing,
     )
 

@@ -29,6 +29,9 @@ __all__ = ["si", "quantity", "ratio", "converted", "quantity_like", "exceeds", "
 # conversion is not a plain factor (offset units such as degC): those take
 # pint's own path every time.
 _FACTORS: dict[tuple[Any, str], float | None] = {}
+# (numerator units, denominator units, target unit text) -> the factor of the
+# quotient's units: pint's ``UnitsContainer`` division, done once per pair.
+_RATIO_FACTORS: dict[tuple[Any, Any, str], float | None] = {}
 _CONTAINERS: dict[str, Any] = {}
 # Magnitude types pint stores unchanged (its _to_magnitude returns them as is).
 _PLAIN = frozenset({float, int, np.float64, np.ndarray})
@@ -88,7 +91,11 @@ def ratio(
 ) -> pint.Quantity:
     """``(numerator / denominator).to(unit)`` with one cached factor."""
     top, bottom = numerator._magnitude, denominator._magnitude
-    factor = _factor(numerator._units / denominator._units, unit)
+    key = (numerator._units, denominator._units, unit)
+    try:
+        factor = _RATIO_FACTORS[key]
+    except KeyError:
+        factor = _RATIO_FACTORS[key] = _factor(key[0] / key[1], unit)
     if factor is None or not (isinstance(top, float) and isinstance(bottom, float)):
         return (numerator / denominator).to(unit)
     # pint divides the magnitudes, then converts the quotient's units.

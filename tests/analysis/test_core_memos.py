@@ -1,0 +1,85 @@
+"""The analysis's memos give what a fresh computation gives.
+
+Each memo of ``analysis/loads.py`` (and the others this file grows to) is
+compared, on every load of the rule cases and samples, with the computation
+it stands for, the memo emptied first.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+from pathlib import Path
+from typing import Any
+
+import pint
+
+from netcheck.analysis import loads
+from netcheck.graph import COIL, LOAD, Branch, build_graph
+from netcheck.input import load_design
+from netcheck.units import Q_
+
+ROOT = Path(__file__).resolve().parents[2]
+DESIGNS = sorted((ROOT / "tests" / "cases").glob("*/*.cnet")) + sorted(
+    (ROOT / "sample_nets").glob("*/*.cnet")
+)
+
+
+def _exact(value: Any) -> Any:
+    """A value with every bit of a quantity's magnitude and its exact units."""
+    if isinstance(value, pint.Quantity):
+        return ("Q", type(value.magnitude), repr(value.magnitude), str(value.units))
+    if isinstance(value, tuple):
+        return tuple(_exact(v) for v in value)
+    return value
+
+
+def _load_branches() -> list:
+    found = []
+    for path in DESIGNS:
+        try:
+            netlist = load_design(path, display_base=path.parent)
+        except Exception:  # noqa: BLE001 - a case of bad input has no loads
+            continue
+        graph = build_graph(netlist)
+        found += [
+            b for d in graph.domains for b in d.branches if b.role in (LOAD, COIL)
+        ]
+    return found
+
+
+def test_load_facts_remembered_equal_load_facts_worked_out():
+    branches = _load_branches()
+    assert len(branches) > 250
+    assert {b.role for b in branches} == {LOAD, COIL}
+    loads._FACTS.clear()
+    first = [loads.load_facts(b) for b in branches]  # fills the memo
+    assert len(loads._FACTS) < len(branches)  # repeated parts do share facts
+    again = [loads.load_facts(b) for b in branches]  # from the memo
+    for branch, one, two in zip(branches, first, again, strict=True):
+        loads._FACTS.clear()
+        fresh = loads.load_facts(branch)
+        names = list(fresh.__dataclass_fields__)
+        want = [_exact(getattr(fresh, n)) for n in names]
+        assert [_exact(getattr(one, n)) for n in names] == want, branch.key
+        assert [_exact(getattr(two, n)) for n in names] == want, branch.key
+        assert one == two == fresh
+
+
+def test_an_edited_copy_of_a_load_gets_its_own_facts():
+    # An edit builds new value objects (a copy with another R): new identities,
+    # so the memo cannot hand back the old facts. 24 V / 1234.5 ohm, Ohm's law.
+    branch = next(
+        b for b in _load_branches() if b.role == LOAD and b.component.value("R")
+    )
+    before = loads.load_facts(branch)
+    values = {**branch.component.values, "R": Q_(1234.5, "ohm"), "L": Q_(2.0, "H")}
+    edited = Branch(
+        dataclasses.replace(branch.component, values=values),
+        branch.role,
+        branch.a,
+        branch.b,
+    )
+    after = loads.load_facts(edited)
+    assert after.resistance.magnitude == 1234.5
+    assert after.time_constant.to("s").magnitude == 2.0 / 1234.5  # tau = L/R
+    assert loads.load_facts(branch) == before
