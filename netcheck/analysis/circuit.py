@@ -253,6 +253,62 @@ def _next_state(d: Diode, state: str, va: float, vb: float) -> str:
     return "off"
 
 
+# Solutions by circuit (``_circuit_key``): unknown potentials, currents and
+# diode states, each in the order ``_solve_fresh`` lists them.
+_SOLVED: dict[tuple, tuple[tuple[float, ...], tuple[float, ...], tuple[str, ...]]] = {}
+_SOLVED_LIMIT = 1 << 16
+
+
+def _exact(value: object) -> object:
+    """A float as a key part that tells -0.0 from 0.0 (== does not)."""
+    if type(value) is not float:
+        raise TypeError  # ints, numpy scalars: solved afresh, not remembered
+    if value:
+        return value
+    return "-0" if math.copysign(1.0, value) < 0 else "+0"
+
+
+def _exact_or_none(value: float | None) -> object:
+    return None if value is None else _exact(value)
+
+
+def _circuit_key(
+    nodes: Sequence[str],
+    fixed: Mapping[str, float],
+    resistors: Sequence[Resistor],
+    diodes: Sequence[Diode],
+) -> tuple | None:
+    """Everything ``_solve_fresh`` reads, with each node named by its position.
+
+    The solve reads the names only to tell nodes apart, to find the fixed
+    ones and their order, and (diode keys) to break ties between equal
+    state changes; the key holds the positions, the fixed potentials in
+    their order, every value (floats exactly) and the diodes' key order.
+    None (solve afresh) where names repeat or a value is not a float.
+    """
+    pos = {n: i for i, n in enumerate(nodes)}
+    keys = [r.key for r in resistors] + [d.key for d in diodes]
+    if len(pos) != len(nodes) or len(set(keys)) != len(keys):
+        return None
+    try:
+        return (
+            len(nodes),
+            tuple([(pos[n], _exact(v)) for n, v in fixed.items()]),
+            tuple([(pos[r.a], pos[r.b], _exact(r.resistance)) for r in resistors]),
+            tuple(
+                [
+                    (pos[d.a], pos[d.b], _exact(d.vf), _exact_or_none(d.vz))
+                    for d in diodes
+                ]
+            ),
+            tuple(sorted(range(len(diodes)), key=lambda i: diodes[i].key))
+            if len(diodes) > 1
+            else (),
+        )
+    except (KeyError, TypeError):
+        return None
+
+
 def solve_dc(
     nodes: Sequence[str],
     fixed: Mapping[str, float],
@@ -264,7 +320,50 @@ def solve_dc(
     Diode states are found by iteration from all-off, one state change at a
     time (the diode most over its threshold first), which converges for the
     monotone networks of control circuits.
+
+    Repeated rungs are one circuit under other names: the solution is
+    remembered by ``_circuit_key`` (a pure function's inputs, names by
+    position) and handed back under the caller's names, the same floats
+    (``tests/analysis/test_circuit_fast.py``).
     """
+    key = _circuit_key(nodes, fixed, resistors, diodes)
+    if key is None:
+        return _solve_fresh(nodes, fixed, resistors, diodes)
+    unknown = [n for n in nodes if n not in fixed]
+    found = _SOLVED.get(key)
+    if found is None:
+        solution = _solve_fresh(nodes, fixed, resistors, diodes)
+        if len(_SOLVED) >= _SOLVED_LIMIT:
+            _SOLVED.clear()
+        potentials, currents, states = (
+            solution.potentials,
+            solution.currents,
+            solution.diode_state,
+        )
+        _SOLVED[key] = (
+            tuple([potentials[n] for n in unknown]),
+            tuple(currents.values()),
+            tuple(states.values()),
+        )
+        return solution
+    values, flows, modes = found
+    potentials = dict(fixed)
+    potentials.update(zip(unknown, values, strict=True))
+    names = [r.key for r in resistors] + [d.key for d in diodes]
+    return Solution(
+        potentials,
+        dict(zip(names, flows, strict=True)),
+        dict(zip([d.key for d in diodes], modes, strict=True)),
+    )
+
+
+def _solve_fresh(
+    nodes: Sequence[str],
+    fixed: Mapping[str, float],
+    resistors: Sequence[Resistor],
+    diodes: Sequence[Diode] = (),
+) -> Solution:
+    """``solve_dc`` itself, nothing remembered."""
     unknown = [n for n in nodes if n not in fixed]
     states = {d.key: "off" for d in diodes}
     system = _System(unknown, fixed, resistors)

@@ -1,9 +1,11 @@
-"""The analysis's fast paths give what the plain code gives, bit for bit.
+"""The nodal solver's fast paths give what the plain code gives, bit for bit.
 
-``solve_dc`` stamps its resistors through a precomputed ``_System``; here it
+``solve_dc`` stamps its resistors through a precomputed ``_System`` and
+remembers solutions by circuit (``_circuit_key``: names by position); here it
 is compared with the straightforward stamping (``_reference_solve``, the
 solver as first written, kept in this file) on every circuit the analysis
-solves for the rule cases and samples, and on random networks with diodes.
+solves for the rule cases and samples, and on random networks with diodes,
+each solved fresh, from the memo, and under other names.
 """
 
 from __future__ import annotations
@@ -136,15 +138,80 @@ def _recorded_calls(monkeypatch: pytest.MonkeyPatch) -> list[tuple]:
     return calls
 
 
+def _renamed(nodes, fixed, resistors, diodes, tag: str) -> tuple:
+    """The same circuit with every node and key renamed (order kept)."""
+    name = {n: f"{n}{tag}" for n in nodes}
+    name.update({n: f"{n}{tag}" for n in fixed})
+    return (
+        [name[n] for n in nodes],
+        {name[n]: v for n, v in fixed.items()},
+        [
+            Resistor(r.key + tag, name.get(r.a, r.a), name.get(r.b, r.b), r.resistance)
+            for r in resistors
+        ],
+        [
+            Diode(d.key + tag, name.get(d.a, d.a), name.get(d.b, d.b), d.vf, d.vz)
+            for d in diodes
+        ],
+    )
+
+
+def _check_all_paths(nodes, fixed, resistors, diodes) -> None:
+    reference = _reference_solve(nodes, fixed, resistors, diodes)
+    circuit._SOLVED.clear()
+    _same(solve_dc(nodes, fixed, resistors, diodes), reference)  # fresh
+    _same(solve_dc(nodes, fixed, resistors, diodes), reference)  # remembered
+    other = _renamed(nodes, fixed, resistors, diodes, "~2")
+    _same(solve_dc(*other), _reference_solve(*other))  # remembered, renamed
+
+
 def test_every_circuit_of_the_cases_solves_as_the_plain_stamping_does(monkeypatch):
     calls = _recorded_calls(monkeypatch)
     assert len(calls) > 200  # the cases do reach the solver
     assert any(diodes for *_rest, diodes in calls)
     for nodes, fixed, resistors, diodes in calls:
-        _same(
-            solve_dc(nodes, fixed, resistors, diodes),
-            _reference_solve(nodes, fixed, resistors, diodes),
+        _check_all_paths(nodes, fixed, resistors, diodes)
+
+
+def test_the_memo_is_hit_by_repeated_rungs():
+    circuit._SOLVED.clear()
+    for tag in ("1", "2", "3"):
+        solve_dc(
+            *_renamed(
+                ["X", "P", "M"],
+                {"P": 24.0, "M": 0.0},
+                [Resistor("R", "P", "X", 48.0), Resistor("Y", "X", "M", 480.0)],
+                [],
+                tag,
+            )
         )
+    assert len(circuit._SOLVED) == 1
+
+
+def test_a_rail_at_minus_zero_is_another_circuit():
+    # 0.0 == -0.0, but the potentials copied from ``fixed`` keep their sign.
+    circuit._SOLVED.clear()
+    args = (["X", "P", "M"], [Resistor("R", "P", "X", 48.0)])
+    plus = solve_dc(args[0], {"P": 24.0, "M": 0.0}, args[1])
+    minus = solve_dc(args[0], {"P": 24.0, "M": -0.0}, args[1])
+    assert repr(plus.potentials["M"]) == "0.0" and repr(minus.potentials["M"]) == "-0.0"
+    assert len(circuit._SOLVED) == 2
+
+
+def test_diode_ties_follow_the_key_order():
+    # Two equal diodes across one source: the first state change taken is the
+    # later key (the sort is reversed); renaming that swaps the order of the
+    # keys must not take the remembered choice.
+    nodes, fixed = ["P", "M"], {"P": 24.0, "M": 0.0}
+    first = [Diode("Da", "P", "M", 0.7, None), Diode("Db", "P", "M", 0.7, None)]
+    swapped = [Diode("Db", "P", "M", 0.7, None), Diode("Da", "P", "M", 0.7, None)]
+    circuit._SOLVED.clear()
+    for diodes in (first, swapped, first):
+        _same(
+            solve_dc(nodes, fixed, [], diodes),
+            _reference_solve(nodes, fixed, [], diodes),
+        )
+    assert len(circuit._SOLVED) == 2
 
 
 def _random_network(rng: random.Random) -> tuple:
@@ -177,11 +244,7 @@ def _random_network(rng: random.Random) -> tuple:
 def test_random_networks_solve_as_the_plain_stamping_does():
     rng = random.Random(5)  # fixed seed: the same networks every run
     for _ in range(3000):
-        nodes, fixed, resistors, diodes = _random_network(rng)
-        _same(
-            solve_dc(nodes, fixed, resistors, diodes),
-            _reference_solve(nodes, fixed, resistors, diodes),
-        )
+        _check_all_paths(*_random_network(rng))
 
 
 def test_an_infinite_conductance_takes_the_plain_stamping():
