@@ -128,7 +128,8 @@ class _System:
         self.index = index = {n: i for i, n in enumerate(nodes)}
         self.stamps = []
         links: dict[str, list[str]] = {n: [] for n in nodes}
-        for r in resistors:
+        # No unknown (a domain's rail-to-rail branches): nothing to stamp.
+        for r in resistors if nodes else ():
             g = 1.0 / r.resistance
             ia, ib = index.get(r.a), index.get(r.b)
             # A fixed end stamps its potential into the right-hand side.
@@ -149,6 +150,10 @@ class _System:
         """The potentials with the diodes in ``states``."""
         nodes, fixed, index = self.nodes, self.fixed, self.index
         size = len(nodes)
+        if not size:
+            # Every node fixed: no equation, no node to leak to (``_floating``
+            # finds none), the potentials are the fixed ones.
+            return dict(fixed)
         matrix = [[0.0] * size for _ in range(size)]
         for node in self._floating(diodes, states):
             matrix[index[node]][index[node]] = G_MIN
@@ -257,6 +262,9 @@ def _next_state(d: Diode, state: str, va: float, vb: float) -> str:
 # diode states, each in the order ``_solve_fresh`` lists them.
 _SOLVED: dict[tuple, tuple[tuple[float, ...], tuple[float, ...], tuple[str, ...]]] = {}
 _SOLVED_LIMIT = 1 << 16
+# Circuits with more branches are solved afresh: a domain's rail-to-rail
+# branches (thousands) make a key as costly as their solve, met once.
+_REMEMBERED_BRANCHES = 64
 
 
 def _exact(value: object) -> object:
@@ -284,8 +292,11 @@ def _circuit_key(
     ones and their order, and (diode keys) to break ties between equal
     state changes; the key holds the positions, the fixed potentials in
     their order, every value (floats exactly) and the diodes' key order.
-    None (solve afresh) where names repeat or a value is not a float.
+    None (solve afresh) where names repeat, a value is not a float, or the
+    circuit has more than ``_REMEMBERED_BRANCHES`` branches.
     """
+    if len(resistors) + len(diodes) > _REMEMBERED_BRANCHES:
+        return None
     pos = {n: i for i, n in enumerate(nodes)}
     keys = [r.key for r in resistors] + [d.key for d in diodes]
     if len(pos) != len(nodes) or len(set(keys)) != len(keys):

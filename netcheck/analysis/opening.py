@@ -7,6 +7,7 @@ part data, and answers peak voltage, release time and suppressor energy.
 
 from __future__ import annotations
 
+import math
 from dataclasses import replace
 from functools import lru_cache
 
@@ -133,13 +134,105 @@ def _release(load: SwitchedLoad) -> float | None:
     return _si(value, "A") if value is not None else None
 
 
+# What ``model_suppression`` reads of each part of a suppressor's chain.
+_PART_KEYS = ("vf", "vz", "vclamp", "vdc_max", "C", "R")
+_ABSENT = object()  # a key not there (None may be a value)
+# Transients by ``_transient_key``: (the objects the key names, the transient).
+_TRANSIENTS: dict[tuple, tuple[tuple, OpeningTransient | None]] = {}
+_TRANSIENTS_LIMIT = 1024  # each holds waveforms of a few hundred samples
+
+
+def _float_key(value: pint.Quantity) -> tuple | None:
+    """A quantity's magnitude, exactly (the sign of zero kept), and its units."""
+    magnitude = value._magnitude
+    if type(magnitude) is not float:
+        return None
+    sign = math.copysign(1.0, magnitude) if magnitude == 0.0 else None
+    return (magnitude, sign, id(value._units))
+
+
+def _transient_key(
+    load: SwitchedLoad,
+    supply: pint.Quantity,
+    suppressor: Suppressor | None,
+    element: Component | None,
+) -> tuple[tuple, tuple] | None:
+    """Everything ``load_transient`` reads, and the objects it names by identity.
+
+    The load's facts (resistance, inductance, release current) and the parts'
+    values are shared parsed objects: they are named by identity and kept
+    alive beside the memo entry, so an identity met again is the same object.
+    The current and the supply voltage are made per element: their float
+    magnitudes (with the sign of zero) and their units' identity. The
+    suppressor: its kind, placement and every chain part's kind and values
+    read (``_PART_KEYS``), in chain order; without one, the element's clamp.
+    None (work it out afresh) where a magnitude is not a float or a part's
+    values are not a plain dict.
+    """
+    facts = load.facts
+    current, volts = _float_key(load.current), _float_key(supply)
+    if current is None or volts is None:
+        return None
+    kept: list = [
+        facts.resistance,
+        facts.inductance,
+        facts.release_current,
+        load.current._units,
+        supply._units,
+    ]
+    if suppressor is None:
+        clamp = element.value("clamp_voltage") if element is not None else None
+        kept.append(clamp)
+        parts: tuple = (None, id(clamp))
+    else:
+        chain = suppressor.chain
+        found = []
+        for branch in chain.branches if chain is not None else ():
+            values = branch.component.values
+            if type(values) is not dict:
+                return None
+            leaves = [values.get(k, _ABSENT) for k in _PART_KEYS]
+            kept += leaves
+            found.append((branch.kind, *map(id, leaves)))
+        parts = (suppressor.kind, suppressor.placement, chain is None, *found)
+    key = (*map(id, kept[:3]), current, volts, parts)
+    return key, tuple(kept)
+
+
 def load_transient(
     load: SwitchedLoad,
     supply: pint.Quantity,
     suppressor: Suppressor | None,
     element: Component | None = None,
 ) -> OpeningTransient | None:
-    """The opening transient of one load with one suppressor (None if not modelled)."""
+    """The opening transient of one load with one suppressor (None if not modelled).
+
+    Remembered by ``_transient_key`` (repeated rungs: the same parts at the
+    same current); ``tests/analysis/test_core_memos.py`` holds the
+    remembered transients to fresh ones.
+    """
+    made = _transient_key(load, supply, suppressor, element)
+    if made is None:
+        return _load_transient(load, supply, suppressor, element)
+    key, kept = made
+    found = _TRANSIENTS.get(key)
+    if found is None:
+        if len(_TRANSIENTS) >= _TRANSIENTS_LIMIT:
+            _TRANSIENTS.clear()
+        found = _TRANSIENTS[key] = (
+            kept,
+            _load_transient(load, supply, suppressor, element),
+        )
+    return found[1]
+
+
+def _load_transient(
+    load: SwitchedLoad,
+    supply: pint.Quantity,
+    suppressor: Suppressor | None,
+    element: Component | None = None,
+) -> OpeningTransient | None:
+    """``load_transient`` worked out, nothing remembered here."""
     model = model_load(load, supply)
     if model is None:
         return None

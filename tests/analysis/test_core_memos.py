@@ -1,19 +1,22 @@
 """The analysis's memos give what a fresh computation gives.
 
-Each memo of ``analysis/loads.py`` (and the others this file grows to) is
-compared, on every load of the rule cases and samples, with the computation
-it stands for, the memo emptied first.
+Each memo (``loads.load_facts``, ``opening.load_transient``) is compared, on
+every load of the rule cases and samples, with the computation it stands
+for, the memo emptied first.
 """
 
 from __future__ import annotations
 
 import dataclasses
+import functools
 from pathlib import Path
 from typing import Any
 
 import pint
+import pytest
 
-from netcheck.analysis import loads
+from netcheck.analysis import loads, opening
+from netcheck.analysis.elements import analyse
 from netcheck.graph import COIL, LOAD, Branch, build_graph
 from netcheck.input import load_design
 from netcheck.units import Q_
@@ -83,3 +86,70 @@ def test_an_edited_copy_of_a_load_gets_its_own_facts():
     assert after.resistance.magnitude == 1234.5
     assert after.time_constant.to("s").magnitude == 2.0 / 1234.5  # tau = L/R
     assert loads.load_facts(branch) == before
+
+
+@functools.cache
+def _analyses() -> list:
+    found = []
+    for path in DESIGNS:
+        try:
+            netlist = load_design(path, display_base=path.parent)
+        except Exception:  # noqa: BLE001 - a case of bad input has no circuit
+            continue
+        found.append(analyse(build_graph(netlist)))
+    return found
+
+
+def _transient_fields(made: Any) -> Any:
+    if made is None:
+        return None
+    out = []
+    for name in made.__dataclass_fields__:
+        value = getattr(made, name)
+        if isinstance(value, pint.Quantity) and hasattr(value.magnitude, "tolist"):
+            value = ("wave", repr(value.magnitude.tolist()), str(value.units))
+        out.append((name, _exact(value)))
+    return out
+
+
+def _calls(analysis: Any) -> list[tuple]:
+    """Every (load, supply, suppressor, element) the suppressor rules model."""
+    calls = []
+    for element in analysis.elements.values():
+        if element.supply != "dc" or element.voltage is None:
+            continue
+        for load in element.loads:
+            for s in (None, *load.suppressors):
+                calls.append((load, element.voltage, s, element.component))
+                calls.append((load, load.voltage, s, None))
+    return calls
+
+
+def test_load_transients_remembered_equal_transients_worked_out():
+    calls = [c for a in _analyses() for c in _calls(a)]
+    assert len(calls) > 500
+    opening._TRANSIENTS.clear()
+    first = [opening.load_transient(*c) for c in calls]
+    assert len(opening._TRANSIENTS) < len(calls) / 2  # repeated rungs share
+    assert sum(t is not None for t in first) > 100
+    for call, one in zip(calls, first, strict=True):
+        opening._opening.cache_clear()
+        fresh = _transient_fields(opening._load_transient(*call))
+        assert _transient_fields(one) == fresh
+        assert _transient_fields(opening.load_transient(*call)) == fresh
+
+
+def test_a_transient_at_another_current_is_worked_out_again():
+    # ½·L·I² grows with I: the same load at twice the current is a new entry.
+    load, supply, s, element = next(
+        c
+        for a in _analyses()
+        for c in _calls(a)
+        if c[2] is not None and opening.load_transient(*c) is not None
+    )
+    doubled = dataclasses.replace(load, current=load.current * 2.0)
+    one = opening.load_transient(load, supply, s, element)
+    two = opening.load_transient(doubled, supply, s, element)
+    assert two.stored_energy.to("J").magnitude == pytest.approx(
+        4.0 * one.stored_energy.to("J").magnitude, rel=1e-9
+    )
