@@ -76,12 +76,14 @@ def _switched_loads(
     state = ctx.state
     assert state is not None
     loads = []
+    # DomainState.net_potential, inlined: a few reads per switched load.
+    potentials, group = state.potentials, state.group
     for key in opening.switched:
         branch = state.branch_by_key[key]
         facts = state.facts[key]
         current = sag * abs(state.currents.get(key, 0.0))
         voltage = sag * abs(
-            state.net_potential(branch.a) - state.net_potential(branch.b)
+            potentials.get(group[branch.a], 0.0) - potentials.get(group[branch.b], 0.0)
         )
         energy = None
         if facts.inductance is not None:
@@ -272,14 +274,18 @@ def _record_loads(
 def _record_dc_loads(analysis: Analysis, ctx: DomainContext) -> None:
     state = ctx.state
     assert state is not None
+    name, currents = ctx.domain.name, state.currents
+    potentials, group = state.potentials, state.group  # net_potential, inlined
     for key, facts in state.facts.items():
         branch = state.branch_by_key[key]
-        current = abs(state.currents.get(key, 0.0)) if key in state.currents else None
-        voltage = abs(state.net_potential(branch.a) - state.net_potential(branch.b))
+        current = abs(currents[key]) if key in currents else None
+        voltage = abs(
+            potentials.get(group[branch.a], 0.0) - potentials.get(group[branch.b], 0.0)
+        )
         analysis.loads[key] = LoadInfo(
             branch,
             facts,
-            ctx.domain.name,
+            name,
             "dc",
             quantity(current, "A") if current is not None else None,
             quantity(voltage, "V"),

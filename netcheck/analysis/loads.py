@@ -285,13 +285,30 @@ def _coil_facts(coil: dict[str, Any]) -> tuple[Any, ...]:
     )
 
 
+# Verdicts by the identity of the ratings read (kept alive beside each).
+_POWER_DEVICE: dict[int, tuple[object, bool]] = {}
+
+
 def rated_as_power_device(component) -> bool:  # type: ignore[no-untyped-def]
     """Whether a pole's ratings are IEC 60947-3 switch-disconnector categories.
 
     DC-21/22/23 and DC-PV rate power switching (IEC 60947-3), so its loads need
     the power categories (a motor DC-3, not the control DC-13).
+
+    Remembered by the identity of the ratings list: the components of a part
+    share its parsed ``contacts`` group, which nothing changes once read; the
+    list is kept beside its verdict, so an identity met again is that list.
     """
     rows = component.value("contacts", "ratings", default=()) or ()
+    found = _POWER_DEVICE.get(id(rows))
+    if found is None or found[0] is not rows:
+        if len(_POWER_DEVICE) >= _FACTS_LIMIT:
+            _POWER_DEVICE.clear()
+        found = _POWER_DEVICE[id(rows)] = (rows, _power_rows(rows))
+    return found[1]
+
+
+def _power_rows(rows) -> bool:  # type: ignore[no-untyped-def]
     return any(
         str(row.get("category", "")).upper().startswith(("DC-2", "DC-PV"))
         for row in rows

@@ -7,6 +7,7 @@ from dataclasses import dataclass
 
 from netcheck.graph import Branch
 from netcheck.kinds import SUPPRESSOR_KINDS, conducts_one_way
+from netcheck.model import once
 
 __all__ = ["Chain", "find_chains", "chain_kind"]
 
@@ -27,7 +28,7 @@ class Chain:
     branches: tuple[Branch, ...]
     polarity: Mapping[str, int]
 
-    @property
+    @once  # read per load and per rule; the fields are frozen
     def refs(self) -> tuple[str, ...]:
         """References of the parts in the chain."""
         return tuple(b.ref for b in self.branches)
