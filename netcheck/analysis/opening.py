@@ -15,6 +15,7 @@ import pint
 
 from netcheck.analysis.constants import SILICON_RECTIFIER_VF, STRAY_CAPACITANCE
 from netcheck.analysis.si import si
+from netcheck.analysis.suppression import Chain
 from netcheck.analysis.switched import ElementAnalysis, Suppressor, SwitchedLoad
 from netcheck.analysis.transients import (
     ACROSS_ELEMENT,
@@ -140,15 +141,37 @@ _ABSENT = object()  # a key not there (None may be a value)
 # Transients by ``_transient_key``: (the objects the key names, the transient).
 _TRANSIENTS: dict[tuple, tuple[tuple, OpeningTransient | None]] = {}
 _TRANSIENTS_LIMIT = 1024  # each holds waveforms of a few hundred samples
+# Chains' parts by the chain's identity: (the chain, its key part and values).
+_CHAINS: dict[int, tuple[Chain, tuple[tuple, tuple]]] = {}
 
 
-def _float_key(value: pint.Quantity) -> tuple | None:
-    """A quantity's magnitude, exactly (the sign of zero kept), and its units."""
-    magnitude = value._magnitude
-    if type(magnitude) is not float:
-        return None
-    sign = math.copysign(1.0, magnitude) if magnitude == 0.0 else None
-    return (magnitude, sign, id(value._units))
+def _chain_parts(chain: Chain | None) -> tuple[tuple, tuple] | None:
+    """A chain's parts as ``_transient_key`` names them, once per chain.
+
+    Each part's kind and the identities of its values read (``_PART_KEYS``),
+    in chain order, and those values themselves (to keep alive). Chains are
+    found once per design and shared by every suppressor of theirs; the
+    chain is kept beside its entry, so an identity met again is that chain.
+    None where a part's values are not a plain dict.
+    """
+    if chain is None:
+        return (), ()
+    found = _CHAINS.get(id(chain))
+    if found is not None and found[0] is chain:
+        return found[1]
+    parts, kept = [], []
+    for branch in chain.branches:
+        values = branch.component.values
+        if type(values) is not dict:
+            return None
+        leaves = [values.get(k, _ABSENT) for k in _PART_KEYS]
+        kept += leaves
+        parts.append((branch.kind, *map(id, leaves)))
+    if len(_CHAINS) >= 4 * _TRANSIENTS_LIMIT:
+        _CHAINS.clear()
+    made = (tuple(parts), tuple(kept))
+    _CHAINS[id(chain)] = (chain, made)
+    return made
 
 
 def _transient_key(
@@ -164,39 +187,47 @@ def _transient_key(
     alive beside the memo entry, so an identity met again is the same object.
     The current and the supply voltage are made per element: their float
     magnitudes (with the sign of zero) and their units' identity. The
-    suppressor: its kind, placement and every chain part's kind and values
-    read (``_PART_KEYS``), in chain order; without one, the element's clamp.
-    None (work it out afresh) where a magnitude is not a float or a part's
-    values are not a plain dict.
+    suppressor: its kind, placement and its chain's parts (``_chain_parts``);
+    without one, the element's clamp. None (work it out afresh) where a
+    magnitude is not a float or a part's values are not a plain dict.
     """
-    facts = load.facts
-    current, volts = _float_key(load.current), _float_key(supply)
-    if current is None or volts is None:
+    facts, current = load.facts, load.current
+    amps, volts = current._magnitude, supply._magnitude
+    if type(amps) is not float or type(volts) is not float:
         return None
-    kept: list = [
+    if suppressor is None:
+        clamp = element.value("clamp_voltage") if element is not None else None
+        parts: tuple = (None, id(clamp))
+        held: tuple = (clamp,)
+    else:
+        chain = suppressor.chain
+        made = _chain_parts(chain)
+        if made is None:
+            return None
+        parts = (suppressor.kind, suppressor.placement, chain is None, made[0])
+        held = made[1]
+    kept = (
         facts.resistance,
         facts.inductance,
         facts.release_current,
-        load.current._units,
+        current._units,
         supply._units,
-    ]
-    if suppressor is None:
-        clamp = element.value("clamp_voltage") if element is not None else None
-        kept.append(clamp)
-        parts: tuple = (None, id(clamp))
-    else:
-        chain = suppressor.chain
-        found = []
-        for branch in chain.branches if chain is not None else ():
-            values = branch.component.values
-            if type(values) is not dict:
-                return None
-            leaves = [values.get(k, _ABSENT) for k in _PART_KEYS]
-            kept += leaves
-            found.append((branch.kind, *map(id, leaves)))
-        parts = (suppressor.kind, suppressor.placement, chain is None, *found)
-    key = (*map(id, kept[:3]), current, volts, parts)
-    return key, tuple(kept)
+        held,
+    )
+    key = (
+        id(kept[0]),
+        id(kept[1]),
+        id(kept[2]),
+        # The sign of a zero magnitude: 0.0 == -0.0, their transients may differ.
+        amps,
+        amps == 0.0 and math.copysign(1.0, amps),
+        id(kept[3]),
+        volts,
+        volts == 0.0 and math.copysign(1.0, volts),
+        id(kept[4]),
+        parts,
+    )
+    return key, kept
 
 
 def load_transient(
