@@ -1,7 +1,7 @@
 """The hand-written ``__init__``s make what the dataclass's own would.
 
 ``model.py``, ``graph.py``, ``input/cnet/statements.py`` and the analysis's
-``circuit.py`` and ``loads.py`` give the classes
+``circuit.py``, ``loads.py`` and ``suppression.py`` give the classes
 built once per token their own ``__init__`` for speed (``findings.Finding``
 too: a heavy report builds thousands); here each is compared
 with the ``__init__`` that ``dataclasses`` generates for the same fields:
@@ -17,6 +17,7 @@ import pytest
 
 from netcheck.analysis.circuit import Diode, Resistor
 from netcheck.analysis.loads import LoadFacts
+from netcheck.analysis.suppression import Chain
 from netcheck.findings import Finding, Severity
 from netcheck.graph import Branch
 from netcheck.input.cnet.statements import ComponentStatement, RawAttribute
@@ -64,6 +65,7 @@ CASES = [
     (Branch, (None, "switch", "P1", "W1", ELEMENT), {}),
     (Branch, (None, "load", "P1", "W1"), {}),
     (Resistor, ("R1", "P1", "W1", 48.0), {}),
+    (Chain, ("diode", "W1", "M1", (), {"V1": 1}), {}),
     (Diode, ("V1", "M1", "W1", 0.7), {}),
     (Diode, ("V1", "M1", "W1", 0.7), {"vz": 33.0}),
     (
@@ -104,7 +106,7 @@ def test_init_matches_the_generated_one(cls, args, kwargs):
     assert [getattr(ours, n) for n in names] == [getattr(theirs, n) for n in names]
     by_name = cls(**dict(zip(names, args, strict=False)), **kwargs)
     assert by_name == ours
-    if cls not in (Component, Finding):  # they hold a dict: unhashable, as before
+    if cls not in (Component, Finding, Chain):  # they hold a dict: unhashable
         assert hash(by_name) == hash(ours) == hash(theirs)
     assert repr(ours) == repr(theirs).replace(
         theirs.__class__.__qualname__, cls.__qualname__, 1

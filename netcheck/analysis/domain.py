@@ -174,9 +174,17 @@ def _internal_components(state: DomainState) -> list[set[str]]:
 
 def _elements(state: DomainState) -> tuple[list[Resistor], list[Diode]]:
     """Every resistive branch and every one-way part, as circuit models."""
-    group = state.group
+    group, facts = state.group, state.facts
     resistors = [
-        Resistor(b.key, group[b.a], group[b.b], _resistance(state, b))
+        Resistor(
+            b.key,
+            group[b.a],
+            group[b.b],
+            # _resistance, inlined (one call per resistive branch).
+            si(facts[b.key].resistance, "ohm")
+            if b.role in _FACTS_ROLES
+            else _resistance(state, b),
+        )
         for b in state.resistive
     ]
     diodes = [
@@ -221,8 +229,11 @@ def _by_internal(
     return found
 
 
+_FACTS_ROLES = frozenset({LOAD, COIL})  # branches whose resistance is a load fact
+
+
 def _resistance(state: DomainState, branch: Branch) -> float:
-    if branch.role in (LOAD, COIL):
+    if branch.role in _FACTS_ROLES:
         value = state.facts[branch.key].resistance
     else:
         value = branch.component.value("R")
@@ -318,9 +329,10 @@ def solve_domain(
         opened=opened,
     )
     state.supplies = [b for b in domain.branches if b.role == SUPPLY]
+    attach = state.attached.setdefault
     for branch in domain.branches:
-        state.attached.setdefault(branch.a, []).append(branch)
-        state.attached.setdefault(branch.b, []).append(branch)
+        attach(branch.a, []).append(branch)
+        attach(branch.b, []).append(branch)
     all_r, all_diodes = _elements(state)
     solutions = [_direct_solve(state, all_r, all_diodes)]
     internal = _internal_components(state)

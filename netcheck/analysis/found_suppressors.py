@@ -57,9 +57,11 @@ def suppressors_between(
     """
     found = []
     for chain in chains.get(frozenset({wire.get(a, a), wire.get(b, b)}), ()):
-        conducts = any(
-            abs(currents.get(br.key, 0.0)) > CONDUCTING for br in chain.branches
-        )
+        conducts = False
+        for br in chain.branches:
+            if abs(currents.get(br.key, 0.0)) > CONDUCTING:
+                conducts = True
+                break
         functional = source is None or _passes(chain, source, wire)
         found.append(
             Suppressor(
@@ -89,10 +91,12 @@ def _find_load_suppressors(
 ) -> tuple[Suppressor, ...]:
     facts = ctx.state.facts[branch.key] if ctx.state else None
     low = branch.b
-    if ctx.state is not None and (
-        ctx.state.net_potential(branch.a) < ctx.state.net_potential(branch.b)
-    ):
-        low = branch.a
+    state = ctx.state
+    if state is not None:
+        # net_potential, inlined: once per load and state.
+        potentials, group = state.potentials, state.group
+        if potentials.get(group[branch.a], 0.0) < potentials.get(group[branch.b], 0.0):
+            low = branch.a
     # At opening the load drives its current on: out of its low side, round
     # through the suppressor, into its high side.
     found = suppressors_between(

@@ -28,6 +28,23 @@ class Chain:
     branches: tuple[Branch, ...]
     polarity: Mapping[str, int]
 
+    def __init__(
+        self,
+        kind: str,
+        a: str,
+        b: str,
+        branches: tuple[Branch, ...],
+        polarity: Mapping[str, int],
+    ) -> None:
+        # One per suppressor of a design: straight into ``__dict__`` as
+        # ``model.Component`` is (tests/test_model_init.py).
+        fields = self.__dict__
+        fields["kind"] = kind
+        fields["a"] = a
+        fields["b"] = b
+        fields["branches"] = branches
+        fields["polarity"] = polarity
+
     @once  # read per load and per rule; the fields are frozen
     def refs(self) -> tuple[str, ...]:
         """References of the parts in the chain."""
@@ -54,6 +71,10 @@ def chain_kind(kinds: Iterable[str]) -> str:
     """Name a chain by its parts: diode, diode-zener, rc, tvs, varistor, ..."""
     found = frozenset(kinds)
     return _CHAIN_NAMES.get(found) or "+".join(sorted(found))
+
+
+# ``chain_kind`` of one part, by its kind (most chains are one part).
+_SINGLE_NAMES = {next(iter(k)): v for k, v in _CHAIN_NAMES.items() if len(k) == 1}
 
 
 def _polarity(branch: Branch, toward_a: str) -> int:
@@ -94,7 +115,9 @@ def find_chains(
                 path.append(nxt)
             if inner(net) or net == origin:
                 continue
-            ident = tuple(sorted(b.key for b in path))
+            ident = (
+                (start.key,) if len(path) == 1 else tuple(sorted(b.key for b in path))
+            )
             if ident in seen:
                 continue
             seen.add(ident)
@@ -107,8 +130,13 @@ def find_chains(
                     {c.terminal for c in b.component.connections},
                 )
             }
+            kind = _SINGLE_NAMES.get(start.kind) if len(path) == 1 else None
             chain = Chain(
-                chain_kind(b.kind for b in path), origin, net, tuple(path), polarity
+                kind or chain_kind(b.kind for b in path),
+                origin,
+                net,
+                tuple(path),
+                polarity,
             )
             pair = frozenset({wire.get(origin, origin), wire.get(net, net)})
             chains.setdefault(pair, []).append(chain)
