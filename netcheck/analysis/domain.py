@@ -17,6 +17,7 @@ import networkx as nx
 
 from netcheck.analysis.circuit import Diode, Resistor, Solution, solve_dc
 from netcheck.analysis.constants import SILICON_DIODE_CONDUCTION_VF
+from netcheck.analysis.least_sets import least_of_sets
 from netcheck.analysis.loads import LoadFacts, load_facts
 from netcheck.analysis.si import si
 from netcheck.analysis.supplies import highest_emfs
@@ -107,19 +108,14 @@ def _vf(branch: Branch) -> float:
 def _groups(
     domain: Domain, open_keys: frozenset[str]
 ) -> tuple[dict[str, str], dict[str, str]]:
-    groups, wires = UnionFind(), UnionFind()
-    for net in domain.nets:
-        groups.find(net)
-        wires.find(net)
+    joined, wired = [], []
     for branch in domain.branches:
-        if branch.role in (SWITCH, CONDUCTOR) and branch.key not in open_keys:
-            groups.union(branch.a, branch.b)
-        if branch.role == CONDUCTOR:
-            wires.union(branch.a, branch.b)
-    return (
-        {n: groups.find(n) for n in domain.nets},
-        {n: wires.find(n) for n in domain.nets},
-    )
+        role = branch.role
+        if role in (SWITCH, CONDUCTOR) and branch.key not in open_keys:
+            joined.append((branch.a, branch.b))
+        if role == CONDUCTOR:
+            wired.append((branch.a, branch.b))
+    return least_of_sets(domain.nets, joined), least_of_sets(domain.nets, wired)
 
 
 def _rails(domain: Domain, group: dict[str, str]) -> tuple[dict, dict, dict, list]:
