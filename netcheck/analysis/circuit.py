@@ -301,21 +301,22 @@ def _circuit_key(
     keys = [r.key for r in resistors] + [d.key for d in diodes]
     if len(pos) != len(nodes) or len(set(keys)) != len(keys):
         return None
+    exact = _exact
     try:
-        return (
-            len(nodes),
-            tuple([(pos[n], _exact(v)) for n, v in fixed.items()]),
-            tuple([(pos[r.a], pos[r.b], _exact(r.resistance)) for r in resistors]),
-            tuple(
-                [
-                    (pos[d.a], pos[d.b], _exact(d.vf), _exact_or_none(d.vz))
-                    for d in diodes
-                ]
-            ),
-            tuple(sorted(range(len(diodes)), key=lambda i: diodes[i].key))
-            if len(diodes) > 1
-            else (),
-        )
+        # One flat tuple (the four counts first make it unambiguous); a
+        # nonzero float is its own exact key part, without a call.
+        key: list = [len(nodes), len(fixed), len(resistors), len(diodes)]
+        add = key.extend
+        for n, v in fixed.items():
+            add((pos[n], v if type(v) is float and v else exact(v)))
+        for r in resistors:
+            v = r.resistance
+            add((pos[r.a], pos[r.b], v if type(v) is float and v else exact(v)))
+        for d in diodes:
+            add((pos[d.a], pos[d.b], exact(d.vf), _exact_or_none(d.vz)))
+        if len(diodes) > 1:
+            add(sorted(range(len(diodes)), key=lambda i: diodes[i].key))
+        return tuple(key)
     except (KeyError, TypeError):
         return None
 

@@ -47,7 +47,7 @@ class Fitted:
 
 def effective(suppressors: tuple[Suppressor, ...]) -> tuple[Suppressor, ...]:
     """Suppressors that act at opening: not conducting in normal operation."""
-    return tuple(s for s in suppressors if not s.conducts and s.functional)
+    return tuple([s for s in suppressors if not s.conducts and s.functional])
 
 
 def unsuppressed_loads(element: ElementAnalysis) -> list[SwitchedLoad]:
