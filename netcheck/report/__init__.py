@@ -40,6 +40,7 @@ __all__ = [
     "value_dicts",
     "fix_dict",
     "fix_note",
+    "fix_names",
     "references",
 ]
 
@@ -115,10 +116,13 @@ def prepare_finding(finding: Finding) -> Finding:
     working directory netcheck runs in.
     """
     file = display_path(finding.span.file) if finding.span.file else ""
-    span = dataclasses.replace(finding.span, file=file)
     mark = finding.fingerprint or fingerprint(
         finding.rule, file, finding.element, finding.key
     )
+    if file == finding.span.file and mark == finding.fingerprint:
+        # Already shown as it is (spans are immutable): nothing to replace.
+        return finding
+    span = dataclasses.replace(finding.span, file=file)
     return dataclasses.replace(finding, span=span, fingerprint=mark)
 
 
@@ -292,7 +296,7 @@ def fix_dict(
     """
     if finding.fix is None:
         return None
-    used = _fix_names(meta)
+    used = fix_names(meta)
     if entries is None:
         values = value_dicts({k: v for k, v in finding.values.items() if k in used})
     else:
@@ -309,7 +313,7 @@ def fix_dict(
 _FIX_NAMES: dict[tuple[str, tuple[str, ...]], frozenset[str]] = {}
 
 
-def _fix_names(meta: RuleMeta | None) -> frozenset[str]:
+def fix_names(meta: RuleMeta | None) -> frozenset[str]:
     """The placeholders of a rule's fix templates, found once per rule."""
     if meta is None:
         return frozenset()
