@@ -110,11 +110,17 @@ class CheckContext:
         The answer depends only on the domains of the component's nets, and a
         design has far fewer of those than components.
         """
+        # By identity, the component kept alive beside its answer.
+        by_component = self._memo("ranged-by-component", dict)
+        known = by_component.get(id(component))
+        if known is not None and known[0] is component:
+            return known[1]  # type: ignore[no-any-return]
         ranged = self._memo("ranged", dict)
         domain_of = self.graph.domain_of
         key = tuple(id(domain_of.get(c.net)) for c in component.connections)
         if key not in ranged:
             ranged[key] = ranged_supply(self.graph, component)
+        by_component[id(component)] = (component, ranged[key])
         return ranged[key]  # type: ignore[no-any-return]
 
     def shared(self, name: str, compute: Callable[[], Any]) -> Any:

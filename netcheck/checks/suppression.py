@@ -5,7 +5,7 @@ from __future__ import annotations
 from collections.abc import Iterator
 
 from netcheck.analysis.fitted import effective, unsuppressed_loads
-from netcheck.analysis.opening import element_transient, load_transient, zener_release
+from netcheck.analysis.opening import load_transient, zener_release
 from netcheck.analysis.si import total
 from netcheck.analysis.switched import ElementAnalysis, Suppressor
 from netcheck.analysis.verdicts import arrangement_lead
@@ -27,7 +27,9 @@ def _clamp_case(ctx: CheckContext, element: ElementAnalysis) -> tuple[str, dict]
     if element.component.kind not in SEMICONDUCTOR_KINDS:
         return None
     rating = element.component.value("clamp_energy")
-    model = element_transient(element, None)
+    # element_transient(element, None): with an unsuppressed load (the caller
+    # has one) that is the element's own peak, memoised for the other rules.
+    model = ctx.element_peak(element)
     needed = element.energy
     if model is not None and model.suppressor_energy.magnitude > 0:
         needed = model.suppressor_energy

@@ -22,6 +22,7 @@ from netcheck.error_records import ErrorRecord
 from netcheck.findings import (
     Finding,
     Severity,
+    evolve,
     fingerprint,
     placeholders,
     quantity_dict,
@@ -123,7 +124,7 @@ def prepare_finding(finding: Finding) -> Finding:
         # Already shown as it is (spans are immutable): nothing to replace.
         return finding
     span = dataclasses.replace(finding.span, file=file)
-    return dataclasses.replace(finding, span=span, fingerprint=mark)
+    return evolve(finding, span=span, fingerprint=mark)
 
 
 @dataclass(frozen=True)
