@@ -93,6 +93,8 @@ def fill_template(
         value = values.get(name, _MISSING)
         if type(value) is str:
             texts.append(value)  # what _text writes of a string: itself
+        elif isinstance(value, pint.Quantity):
+            texts.append(_quantity_text(value))  # what _text writes of one
         elif value is None:
             texts.append(_absent(name, values, absent or {}))
         elif value is _MISSING:

@@ -62,10 +62,12 @@ def _motor_pole_rated(ctx: CheckContext, element: ElementAnalysis) -> bool:
 def inductive_load_unsuppressed(ctx: CheckContext) -> Iterator[Finding]:
     """Flag DC elements that break inductive loads with no suppression anywhere."""
     for element in ctx.switching_elements(supply="dc"):
-        loads = unsuppressed_loads(element)
         # Behind a short (a reversed freewheel diode) the short is the one
         # finding; turning the part round also suppresses the load again.
-        if not loads or element.voltage is None or element.short_circuit:
+        if element.voltage is None or element.short_circuit:
+            continue
+        loads = unsuppressed_loads(element)
+        if not loads:
             continue
         # Series poles break one load together: one finding, at the lead pole.
         if not arrangement_lead(element) or _motor_pole_rated(ctx, element):
@@ -75,7 +77,9 @@ def inductive_load_unsuppressed(ctx: CheckContext) -> Iterator[Finding]:
         # then ``energy_known`` carries the part that is known, if any.
         known = [ld.energy for ld in loads if ld.energy is not None]
         energy = total(known, "J") if len(known) == len(loads) else None
-        current = max(ld.current for ld in loads)
+        current = (
+            loads[0].current if len(loads) == 1 else max(ld.current for ld in loads)
+        )
         values = {
             "loads": ", ".join(ld.facts.ref for ld in loads),
             "energy": energy,

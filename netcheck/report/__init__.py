@@ -13,9 +13,11 @@ import math
 import os
 from collections.abc import Iterable, Iterator, Mapping
 from dataclasses import dataclass, field
+from operator import itemgetter
 from pathlib import Path, PurePath
 from typing import Any
 
+from netcheck.alloc import collector_paused
 from netcheck.catalogue import RuleMeta
 from netcheck.coverage import ElementStatus
 from netcheck.error_records import ErrorRecord
@@ -162,9 +164,35 @@ class Report:
         errors: Iterable[ErrorRecord] = (),
     ) -> Report:
         """Prepare and sort findings, files, elements and errors; drop repeats."""
+        with collector_paused():  # copies and tuples: nothing to collect
+            return cls._build(
+                findings,
+                files,
+                baseline_suppressed,
+                stale_baseline,
+                elements=elements,
+                errors=errors,
+            )
+
+    @classmethod
+    def _build(
+        cls,
+        findings: Iterable[Finding],
+        files: Iterable[str],
+        baseline_suppressed: int,
+        stale_baseline: Iterable[Mapping[str, str]],
+        *,
+        elements: Iterable[ElementStatus],
+        errors: Iterable[ErrorRecord],
+    ) -> Report:
         # Two designs that include one sheet can both report the same finding.
-        unique = {_identity(f): f for f in map(prepare_finding, findings)}
-        prepared = sorted(unique.values(), key=_order)
+        unique = {}
+        for finding in map(prepare_finding, findings):
+            order = _order(finding)
+            # One per identity: its order and its waiver.
+            unique[(*order, finding.waived)] = (order, finding)
+        ordered = sorted(unique.values(), key=itemgetter(0))
+        prepared = [finding for _, finding in ordered]
         shown = sorted({display_path(f) for f in files})
         root = project_root_in_use()
         return cls(
@@ -259,10 +287,6 @@ def _order(finding: Finding) -> tuple[Any, ...]:
         finding.message,
         finding.fingerprint,
     )
-
-
-def _identity(finding: Finding) -> tuple[Any, ...]:
-    return (*_order(finding), finding.waived)
 
 
 def unique_rules(catalogue: Mapping[str, RuleMeta]) -> list[RuleMeta]:

@@ -36,6 +36,7 @@ from collections.abc import Mapping
 from typing import Any
 
 from netcheck import __version__
+from netcheck.alloc import collector_paused
 from netcheck.catalogue import RuleMeta
 from netcheck.coverage import ElementStatus
 from netcheck.error_records import ErrorRecord
@@ -78,6 +79,11 @@ def finding_dict(finding: Finding, meta: RuleMeta | None) -> dict[str, Any]:
 
 def render_json(report: Report, catalogue: Mapping[str, RuleMeta]) -> str:
     """Render the report as ``netcheck-findings/1`` JSON text."""
+    with collector_paused():  # strings and dicts: nothing the collector frees
+        return _render(report, catalogue)
+
+
+def _render(report: Report, catalogue: Mapping[str, RuleMeta]) -> str:
     document = {
         "format": FORMAT,
         "tool": {"name": "netcheck", "version": __version__, "caution": CAUTION},

@@ -62,16 +62,14 @@ def _finding(finding: Finding, meta: RuleMeta | None, pad: str, write: Any) -> s
     """One finding as ``dump`` writes ``finding_dict(finding, meta)`` at ``pad``."""
     p = pad + "  "
     span = finding.span
-    entries = _entries(finding.values, p, write)
     return (
-        f'{{{p}"rule": {_scalar(finding.rule, p, write)}'
-        f',{p}"severity": {_escape(finding.severity.label)}'
+        f"{_head(finding, p, write)}"
         f',{p}"message": {_scalar(finding.message, p, write)}'
         f',{p}"file": {_scalar(span.file, p, write)}'
         f',{p}"line": {_scalar(span.line, p, write)}'
         f',{p}"column": {_scalar(span.column, p, write)}'
         f',{p}"element": {_scalar(finding.element, p, write)}'
-        f',{p}"values": {_object(entries, p)}'
+        f',{p}"values": {_values(finding.values, p, write)}'
         f',{p}"fix": {_fix(finding, meta, p, write)}'
         f',{p}"references": {_references(finding, meta, p, write)}'
         f',{p}"fingerprint": {_scalar(finding.fingerprint, p, write)}'
@@ -80,52 +78,63 @@ def _finding(finding: Finding, meta: RuleMeta | None, pad: str, write: Any) -> s
     )
 
 
-def _object(entries: list[tuple[str, str]], pad: str) -> str:
-    """A dict of already written values, as ``dump`` writes it at ``pad``."""
-    if not entries:
+# The opening of a finding's object by (pad, rule, severity label).
+_HEADS: dict[tuple[str, Any, str], str] = {}
+
+
+def _head(finding: Finding, pad: str, write: Any) -> str:
+    label = finding.severity.label
+    key = (pad, finding.rule, label)
+    text = _HEADS.get(key)
+    if text is None:
+        if len(_HEADS) > 10_000:
+            _HEADS.clear()
+        text = _HEADS[key] = (
+            f'{{{pad}"rule": {_scalar(finding.rule, pad, write)}'
+            f',{pad}"severity": {_scalar(label, pad, write)}'
+        )
+    return text
+
+
+def _values(values: Mapping[str, Any], pad: str, write: Any) -> str:
+    """``value_dicts(values)`` as ``dump`` writes it at ``pad``."""
+    if not values:
         return "{}"
     inner = pad + "  "
-    body = ("," + inner).join(
-        f"{_escape(name if type(name) is str else json.dumps(name))}: {text}"
-        for name, text in entries
-    )
-    return "{" + inner + body + pad + "}"
+    members = [_member(name, values[name], inner, write) for name in sorted(values)]
+    return "{" + inner + ("," + inner).join(members) + pad + "}"
 
 
-def _entries(values: Mapping[str, Any], pad: str, write: Any) -> list[tuple[str, str]]:
-    """(name, written entry) of ``value_dicts(values)`` in its (sorted) order."""
-    entry_pad = pad + "  "
-    return [(name, _entry(values[name], entry_pad, write)) for name in sorted(values)]
+# Written members ("name": entry) by (pad, name, units, magnitude type,
+# magnitude): a heavy report writes the same few quantities thousands of
+# times. These are all a quantity's entry reads (quantity_dict looks at its
+# units and float or int magnitude only). Zero is left out: 0.0 and -0.0 are
+# one key but write differently.
+_WRITTEN: dict[tuple[str, str, Any, type, Any], str] = {}
 
 
-# Written value entries by (pad, units, magnitude type, magnitude): a heavy
-# report writes the same few quantities thousands of times. These are all the
-# entry reads of a quantity with a float or int magnitude (quantity_dict looks
-# at its units and magnitude only). Zero is left out: 0.0 and -0.0 are one key
-# but write differently.
-_WRITTEN: dict[tuple[str, Any, type, Any], str] = {}
-
-
-def _entry(value: Any, pad: str, write: Any) -> str:
-    """``value_dicts``'s entry of ``value`` as ``dump`` writes it at ``pad``."""
-    if type(value) is str:
+def _member(name: Any, value: Any, pad: str, write: Any) -> str:
+    """One member of ``value_dicts``, name and entry, as ``dump`` writes it."""
+    if type(value) is str and type(name) is str:
         # quantity_dict of a string: no value, no unit, the string as text.
         inner = pad + "  "
         return (
-            f'{{{inner}"value": null,{inner}"unit": "",{inner}"text": '
-            f"{_escape(value)}{pad}}}"
+            f'{_escape(name)}: {{{inner}"value": null,{inner}"unit": "",'
+            f'{inner}"text": {_escape(value)}{pad}}}'
         )
-    if isinstance(value, pint.Quantity):
+    if type(name) is str and isinstance(value, pint.Quantity):
         magnitude = value._magnitude
         if type(magnitude) in (float, int) and magnitude:
-            key = (pad, value._units, type(magnitude), magnitude)
+            key = (pad, name, value._units, type(magnitude), magnitude)
             text = _WRITTEN.get(key)
             if text is None:
                 if len(_WRITTEN) > 100_000:
                     _WRITTEN.clear()
-                text = _WRITTEN[key] = _written_entry(value, pad, write)
+                entry = _written_entry(value, pad, write)
+                text = _WRITTEN[key] = f"{_escape(name)}: {entry}"
             return text
-    return _written_entry(value, pad, write)
+    shown = name if isinstance(name, str) else json.dumps(name)
+    return f"{_escape(shown)}: {_written_entry(value, pad, write)}"
 
 
 def _written_entry(value: Any, pad: str, write: Any) -> str:
@@ -145,11 +154,11 @@ def _fix(finding: Finding, meta: RuleMeta | None, pad: str, write: Any) -> str:
     used = fix_names(meta)
     p = pad + "  "
     values = finding.values
-    entries = _entries({k: values[k] for k in values if k in used}, p, write)
+    shown = _values({k: values[k] for k in values if k in used}, p, write)
     edits = [edit_dict(edit) for edit in finding.edits]
     return (
         f'{{{p}"text": {_scalar(finding.fix, p, write)}'
-        f',{p}"values": {_object(entries, p)}'
+        f',{p}"values": {shown}'
         f',{p}"edits": {_scalar(edits, p, write)}'
         f',{p}"verified": {_scalar(finding.verified, p, write)}'
         f"{pad}}}"

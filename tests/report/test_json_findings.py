@@ -124,6 +124,7 @@ def test_awkward_values_write_the_same() -> None:
             {"loads": "Y1"}, rule="no-such-rule", severity=Severity.INFO, verified=True
         ),
         _odd({"current": Q_(-0.0, "A"), "loads": "Y9"}, verified=False),
+        _odd({1: Q_(2.0, "V"), 2: "two", 3: None}),  # names that are not text
     )
     _assert_same(findings)
     _assert_same(())
