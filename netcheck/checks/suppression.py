@@ -156,6 +156,7 @@ def diode_on_ac_load(ctx: CheckContext) -> Iterator[Finding]:
 
 
 FAST = ("fast-release", "safety")
+_FAST = frozenset(FAST)
 
 
 @check("slow-release-suppression")
@@ -167,7 +168,7 @@ def slow_release_suppression(ctx: CheckContext) -> Iterator[Finding]:
             if load.facts.key in seen:
                 continue
             component = ctx.netlist.component(load.facts.ref)
-            if component is None or not (component.tags & set(FAST)):
+            if component is None or not (component.tags & _FAST):
                 continue
             active = effective(load.suppressors)
             if not active or any(s.kind != "diode" for s in active):
@@ -179,7 +180,7 @@ def slow_release_suppression(ctx: CheckContext) -> Iterator[Finding]:
                 continue
             yield ctx.finding(
                 component,
-                tag=", ".join(sorted(component.tags & set(FAST))),
+                tag=", ".join(sorted(component.tags & _FAST)),
                 diode=", ".join(active[0].refs),
                 release_diode=with_diode.release_time,
                 release_zener=faster.release_time,
