@@ -249,10 +249,12 @@ def evolve(finding: Finding, **changes: Any) -> Finding:
     ``replace`` builds; a heavy report evolves every finding once or twice.
     tests/test_model_init.py compares the two.
     """
-    unknown = changes.keys() - _FIELDS
+    kind = type(finding)
+    names = _FIELDS if kind is Finding else kind.__dataclass_fields__.keys()
+    unknown = changes.keys() - names
     if unknown:
-        raise TypeError(f"Finding has no field {sorted(unknown)[0]!r}")
-    made = object.__new__(Finding)
+        raise TypeError(f"{kind.__name__} has no field {sorted(unknown)[0]!r}")
+    made = object.__new__(kind)
     fields = made.__dict__
     fields.update(finding.__dict__)
     fields.update(changes)
