@@ -81,21 +81,37 @@ class RuleMeta:
         the message (the supply voltage a finding was judged at).
         """
         fill = {"element": element, "ref": ref or element, **values}
-        fix_template = self.fix(fix)
+        fix_template = self.fixes.get(fix)
+        template = self.messages[message]
+        if note:
+            template = _joined(template, note)
+        absent = self.absent
+        # Positional, in Finding's field order: rule, severity, message, span,
+        # element, values, fix, references, key, fingerprint, waived, variant.
         return Finding(
-            rule=self.name,
-            severity=severity or self.severity,
-            message=fill_template(self.message(message) + note, fill, self.absent),
-            span=span,
-            element=element,
-            values=dict(values),
-            fix=fill_template(fix_template, fill, self.absent)
-            if fix_template
-            else None,
-            references=self.references,
-            key=key,
-            variant=message,
+            self.name,
+            severity or self.severity,
+            fill_template(template, fill, absent),
+            span,
+            element,
+            dict(values),
+            fill_template(fix_template, fill, absent) if fix_template else None,
+            self.references,
+            key,
+            "",
+            None,
+            message,
         )
+
+
+@lru_cache(maxsize=1024)
+def _joined(template: str, note: str) -> str:
+    """``template + note``, one string object per pair.
+
+    The same object each time: its hash is computed once, and the templates'
+    compiled cache (``findings._compiled``) is keyed by the text.
+    """
+    return template + note
 
 
 def _variants(value: Any) -> dict[str, str]:

@@ -15,7 +15,14 @@ import pint
 from netcheck.source import Span
 from netcheck.units import format_quantity, unit_symbol
 
-__all__ = ["Severity", "Finding", "fill_template", "fingerprint", "quantity_dict"]
+__all__ = [
+    "Severity",
+    "Finding",
+    "evolve",
+    "fill_template",
+    "fingerprint",
+    "quantity_dict",
+]
 
 
 class Severity(enum.IntEnum):
@@ -80,17 +87,40 @@ def fill_template(
     placeholders are all known (the rule's YAML words what is missing), else
     as ``none``. Findings keep None; the wording stays in the templates.
     """
-    absent = absent or {}
-    out = []
-    for literal, name in _parsed(template):
-        out.append(literal)
-        if name is None:
-            continue
-        if name not in values:
+    form, names = _compiled(template)
+    texts = []
+    for name in names:
+        value = values.get(name, _MISSING)
+        if type(value) is str:
+            texts.append(value)  # what _text writes of a string: itself
+        elif isinstance(value, pint.Quantity):
+            texts.append(_quantity_text(value))  # what _text writes of one
+        elif value is None:
+            texts.append(_absent(name, values, absent or {}))
+        elif value is _MISSING:
             raise KeyError(name)
-        value = values[name]
-        out.append(_text(value) if value is not None else _absent(name, values, absent))
-    return "".join(out)
+        else:
+            texts.append(_text(value))
+    return form.format(*texts)
+
+
+_MISSING: Any = object()
+
+
+@lru_cache(maxsize=1024)
+def _compiled(template: str) -> tuple[str, tuple[str, ...]]:
+    """The template as a positional format string and its placeholder names.
+
+    The literal text has its braces doubled again; format specs and
+    conversions are dropped, as the pieces of ``_parsed`` leave them out.
+    """
+    form, names = [], []
+    for literal, name in _parsed(template):
+        form.append(literal.replace("{", "{{").replace("}", "}}"))
+        if name is not None:
+            form.append("{}")
+            names.append(name)
+    return "".join(form), tuple(names)
 
 
 @lru_cache(maxsize=1024)
@@ -206,3 +236,26 @@ class Finding:
             self.rule,
             self.element,
         )
+
+
+_FIELDS = frozenset(Finding.__dataclass_fields__)
+
+
+def evolve(finding: Finding, **changes: Any) -> Finding:
+    """``dataclasses.replace(finding, **changes)``, without a call per field.
+
+    Finding's ``__init__`` stores each argument as it is (values given are
+    kept, not copied), so a copy of its fields with the changes is the finding
+    ``replace`` builds; a heavy report evolves every finding once or twice.
+    tests/test_model_init.py compares the two.
+    """
+    kind = type(finding)
+    names = _FIELDS if kind is Finding else kind.__dataclass_fields__.keys()
+    unknown = changes.keys() - names
+    if unknown:
+        raise TypeError(f"{kind.__name__} has no field {sorted(unknown)[0]!r}")
+    made = object.__new__(kind)
+    fields = made.__dict__
+    fields.update(finding.__dict__)
+    fields.update(changes)
+    return made

@@ -17,7 +17,7 @@ from netcheck.checks.registry import all_checks
 from netcheck.coverage import ElementStatus, element_statuses
 from netcheck.error_records import ErrorRecord, os_error_record, records_of
 from netcheck.errors import InputError
-from netcheck.findings import Finding, fingerprint
+from netcheck.findings import Finding, evolve, fingerprint
 from netcheck.fixes.verify import verify_fixes
 from netcheck.graph import build_graph
 from netcheck.input import load_design
@@ -127,7 +127,7 @@ def run_checks(
     for finding in findings:
         file = _relative(finding.span.file)
         out.append(
-            replace(
+            evolve(
                 finding,
                 fingerprint=fingerprint(
                     finding.rule, file, finding.element, finding.key

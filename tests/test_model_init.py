@@ -137,3 +137,32 @@ def test_names_worked_out_once_follow_the_fields():
     assert (coil.key, coil.ref, coil.kind) == ("K1:coil", "K1", "relay")
     assert Branch(None, "switch", "P1", "W1", element).key == "K1:13-14"
     assert coil == Branch(Component("relay", "K1", SPAN, ()), "coil", "P1", "W1")
+
+
+@pytest.mark.parametrize(
+    "changes",
+    [
+        {"fingerprint": "fedcba9876543210"},
+        {"span": Span("b.cnet", 9, 1), "fingerprint": "00"},
+        {"waived": "accepted", "verified": False, "edits": ()},
+        {"values": {"voltage": 24.0}, "message": "other"},
+        {},
+    ],
+)
+def test_evolve_builds_what_replace_builds(changes):
+    from netcheck.findings import evolve
+
+    for _, args, kwargs in (c for c in CASES if c[0] is Finding):
+        finding = Finding(*args, **kwargs)
+        ours, theirs = (
+            evolve(finding, **changes),
+            dataclasses.replace(finding, **changes),
+        )
+        assert vars(ours) == vars(theirs) and ours == theirs
+        assert type(ours) is Finding and ours is not finding
+        # The same objects as replace keeps (the values dict is not copied).
+        assert all(vars(ours)[k] is vars(theirs)[k] for k in vars(theirs))
+        with pytest.raises(dataclasses.FrozenInstanceError):
+            ours.rule = "changed"
+    with pytest.raises(TypeError):
+        evolve(Finding(*CASES[-1][1]), colour="red")

@@ -30,7 +30,7 @@ from netcheck.catalogue import RuleMeta, all_margins
 from netcheck.findings import Finding, Severity
 from netcheck.graph import Branch, Domain, Graph
 from netcheck.model import Component, Netlist
-from netcheck.ranges import ValueRange
+from netcheck.ranges import ValueRange, supply_range
 
 __all__ = ["CheckContext", "Anchor"]
 
@@ -110,12 +110,18 @@ class CheckContext:
         The answer depends only on the domains of the component's nets, and a
         design has far fewer of those than components.
         """
+        if not self._memo("any-range", self._any_range):
+            return None  # no supply of any domain states a range
         ranged = self._memo("ranged", dict)
         domain_of = self.graph.domain_of
         key = tuple(id(domain_of.get(c.net)) for c in component.connections)
         if key not in ranged:
             ranged[key] = ranged_supply(self.graph, component)
         return ranged[key]  # type: ignore[no-any-return]
+
+    def _any_range(self) -> bool:
+        domains = {id(d): d for d in self.graph.domain_of.values()}.values()
+        return any(supply_range(s) for d in domains for s in d.supplies)
 
     def shared(self, name: str, compute: Callable[[], Any]) -> Any:
         """What ``compute`` returns, computed once per design.

@@ -46,13 +46,16 @@ def _allowed(element: ElementAnalysis, kind: str) -> tuple[object, str, bool] | 
     stated = element.component.value("contacts", "making_current")
     if stated is not None:
         return stated, "making_current of the part", True
+    speaking = _MAKING_CATEGORIES.get(kind, ())
+    if not speaking:
+        return None  # no category speaks for this kind of load
     best = None
     for rating in element.component.value("contacts", "ratings", default=()) or ():
         category = str(rating.get("category"))
+        if category not in speaking:
+            continue
         multiple = MAKING_MULTIPLES.get(category)
         voltage, current = rating.get("voltage"), rating.get("current")
-        if category not in _MAKING_CATEGORIES.get(kind, ()):
-            continue
         if multiple is None or voltage is None or current is None:
             continue
         if element.voltage is not None and voltage < element.voltage:

@@ -5,7 +5,7 @@ from __future__ import annotations
 from collections.abc import Iterator
 
 from netcheck.analysis.fitted import effective, unsuppressed_loads
-from netcheck.analysis.opening import element_transient, load_transient, zener_release
+from netcheck.analysis.opening import load_transient, zener_release
 from netcheck.analysis.si import total
 from netcheck.analysis.switched import ElementAnalysis, Suppressor
 from netcheck.analysis.verdicts import arrangement_lead
@@ -27,7 +27,9 @@ def _clamp_case(ctx: CheckContext, element: ElementAnalysis) -> tuple[str, dict]
     if element.component.kind not in SEMICONDUCTOR_KINDS:
         return None
     rating = element.component.value("clamp_energy")
-    model = element_transient(element, None)
+    # element_transient(element, None): with an unsuppressed load (the caller
+    # has one) that is the element's own peak, memoised for the other rules.
+    model = ctx.element_peak(element)
     needed = element.energy
     if model is not None and model.suppressor_energy.magnitude > 0:
         needed = model.suppressor_energy
@@ -60,10 +62,12 @@ def _motor_pole_rated(ctx: CheckContext, element: ElementAnalysis) -> bool:
 def inductive_load_unsuppressed(ctx: CheckContext) -> Iterator[Finding]:
     """Flag DC elements that break inductive loads with no suppression anywhere."""
     for element in ctx.switching_elements(supply="dc"):
-        loads = unsuppressed_loads(element)
         # Behind a short (a reversed freewheel diode) the short is the one
         # finding; turning the part round also suppresses the load again.
-        if not loads or element.voltage is None or element.short_circuit:
+        if element.voltage is None or element.short_circuit:
+            continue
+        loads = unsuppressed_loads(element)
+        if not loads:
             continue
         # Series poles break one load together: one finding, at the lead pole.
         if not arrangement_lead(element) or _motor_pole_rated(ctx, element):
@@ -73,7 +77,9 @@ def inductive_load_unsuppressed(ctx: CheckContext) -> Iterator[Finding]:
         # then ``energy_known`` carries the part that is known, if any.
         known = [ld.energy for ld in loads if ld.energy is not None]
         energy = total(known, "J") if len(known) == len(loads) else None
-        current = max(ld.current for ld in loads)
+        current = (
+            loads[0].current if len(loads) == 1 else max(ld.current for ld in loads)
+        )
         values = {
             "loads": ", ".join(ld.facts.ref for ld in loads),
             "energy": energy,
@@ -150,6 +156,7 @@ def diode_on_ac_load(ctx: CheckContext) -> Iterator[Finding]:
 
 
 FAST = ("fast-release", "safety")
+_FAST = frozenset(FAST)
 
 
 @check("slow-release-suppression")
@@ -161,7 +168,7 @@ def slow_release_suppression(ctx: CheckContext) -> Iterator[Finding]:
             if load.facts.key in seen:
                 continue
             component = ctx.netlist.component(load.facts.ref)
-            if component is None or not (component.tags & set(FAST)):
+            if component is None or not (component.tags & _FAST):
                 continue
             active = effective(load.suppressors)
             if not active or any(s.kind != "diode" for s in active):
@@ -173,7 +180,7 @@ def slow_release_suppression(ctx: CheckContext) -> Iterator[Finding]:
                 continue
             yield ctx.finding(
                 component,
-                tag=", ".join(sorted(component.tags & set(FAST))),
+                tag=", ".join(sorted(component.tags & _FAST)),
                 diode=", ".join(active[0].refs),
                 release_diode=with_diode.release_time,
                 release_zener=faster.release_time,

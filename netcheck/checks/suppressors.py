@@ -10,7 +10,7 @@ from netcheck.analysis.clamp_order import (
     external_suppressors,
     zener_below,
 )
-from netcheck.analysis.fitted import Fitted
+from netcheck.analysis.fitted import Fitted, unsuppressed_loads
 from netcheck.analysis.si import exceeds, quantity_like
 from netcheck.analysis.switched import ElementAnalysis
 from netcheck.analysis.transients import OpeningTransient
@@ -27,6 +27,7 @@ __all__ = [
     "suppressor_conducts_normally",
     "snubber_without_resistor",
     "peak_voltage_over_rating",
+    "opens_unclamped",
 ]
 
 
@@ -252,6 +253,8 @@ def _contact_peaks(
             continue  # series poles: one finding, on the first
         if element.voltage is None or exceeds(element.voltage, rated):
             continue
+        if opens_unclamped(element):
+            continue  # no transient solve: its kind would be "none"
         opening = ctx.element_peak(element)
         if opening is None or opening.kind == "none":
             continue
@@ -259,6 +262,21 @@ def _contact_peaks(
         peak = quantity_like(peak, peak._magnitude / max(element.series_poles, 1))
         if exceeds(peak, rated):
             yield element, peak, rated
+
+
+def opens_unclamped(element: ElementAnalysis) -> bool:
+    """Whether ``element_peak(element)`` is None or of kind "none", unsolved.
+
+    An inductive load with no effective suppressor rules out one across the
+    element too (``unsuppressed_loads``), so ``element_peak`` takes
+    ``element_transient(element, None)``, whose model is the element's own
+    clamp voltage, else no suppression at all. Tested against the solve on
+    every rule case and bench shape (tests/checks/test_opens_unclamped.py).
+    """
+    return (
+        bool(unsuppressed_loads(element))
+        and element.component.value("clamp_voltage") is None
+    )
 
 
 def _assumed(opening: OpeningTransient | None) -> str:

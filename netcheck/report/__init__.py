@@ -13,15 +13,18 @@ import math
 import os
 from collections.abc import Iterable, Iterator, Mapping
 from dataclasses import dataclass, field
+from operator import itemgetter
 from pathlib import Path, PurePath
 from typing import Any
 
+from netcheck.alloc import collector_paused
 from netcheck.catalogue import RuleMeta
 from netcheck.coverage import ElementStatus
 from netcheck.error_records import ErrorRecord
 from netcheck.findings import (
     Finding,
     Severity,
+    evolve,
     fingerprint,
     placeholders,
     quantity_dict,
@@ -40,6 +43,7 @@ __all__ = [
     "value_dicts",
     "fix_dict",
     "fix_note",
+    "fix_names",
     "references",
 ]
 
@@ -115,11 +119,14 @@ def prepare_finding(finding: Finding) -> Finding:
     working directory netcheck runs in.
     """
     file = display_path(finding.span.file) if finding.span.file else ""
-    span = dataclasses.replace(finding.span, file=file)
     mark = finding.fingerprint or fingerprint(
         finding.rule, file, finding.element, finding.key
     )
-    return dataclasses.replace(finding, span=span, fingerprint=mark)
+    if file == finding.span.file and mark == finding.fingerprint:
+        # Already shown as it is (spans are immutable): nothing to replace.
+        return finding
+    span = dataclasses.replace(finding.span, file=file)
+    return evolve(finding, span=span, fingerprint=mark)
 
 
 @dataclass(frozen=True)
@@ -157,9 +164,35 @@ class Report:
         errors: Iterable[ErrorRecord] = (),
     ) -> Report:
         """Prepare and sort findings, files, elements and errors; drop repeats."""
+        with collector_paused():  # copies and tuples: nothing to collect
+            return cls._build(
+                findings,
+                files,
+                baseline_suppressed,
+                stale_baseline,
+                elements=elements,
+                errors=errors,
+            )
+
+    @classmethod
+    def _build(
+        cls,
+        findings: Iterable[Finding],
+        files: Iterable[str],
+        baseline_suppressed: int,
+        stale_baseline: Iterable[Mapping[str, str]],
+        *,
+        elements: Iterable[ElementStatus],
+        errors: Iterable[ErrorRecord],
+    ) -> Report:
         # Two designs that include one sheet can both report the same finding.
-        unique = {_identity(f): f for f in map(prepare_finding, findings)}
-        prepared = sorted(unique.values(), key=_order)
+        unique = {}
+        for finding in map(prepare_finding, findings):
+            order = _order(finding)
+            # One per identity: its order and its waiver.
+            unique[(*order, finding.waived)] = (order, finding)
+        ordered = sorted(unique.values(), key=itemgetter(0))
+        prepared = [finding for _, finding in ordered]
         shown = sorted({display_path(f) for f in files})
         root = project_root_in_use()
         return cls(
@@ -256,10 +289,6 @@ def _order(finding: Finding) -> tuple[Any, ...]:
     )
 
 
-def _identity(finding: Finding) -> tuple[Any, ...]:
-    return (*_order(finding), finding.waived)
-
-
 def unique_rules(catalogue: Mapping[str, RuleMeta]) -> list[RuleMeta]:
     """Return the catalogue's rules once each (aliases dropped), sorted by name."""
     return sorted(
@@ -292,7 +321,7 @@ def fix_dict(
     """
     if finding.fix is None:
         return None
-    used = _fix_names(meta)
+    used = fix_names(meta)
     if entries is None:
         values = value_dicts({k: v for k, v in finding.values.items() if k in used})
     else:
@@ -309,7 +338,7 @@ def fix_dict(
 _FIX_NAMES: dict[tuple[str, tuple[str, ...]], frozenset[str]] = {}
 
 
-def _fix_names(meta: RuleMeta | None) -> frozenset[str]:
+def fix_names(meta: RuleMeta | None) -> frozenset[str]:
     """The placeholders of a rule's fix templates, found once per rule."""
     if meta is None:
         return frozenset()

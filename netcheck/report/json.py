@@ -36,11 +36,13 @@ from collections.abc import Mapping
 from typing import Any
 
 from netcheck import __version__
+from netcheck.alloc import collector_paused
 from netcheck.catalogue import RuleMeta
 from netcheck.coverage import ElementStatus
 from netcheck.error_records import ErrorRecord
 from netcheck.findings import Finding
 from netcheck.report import CAUTION, Report, fix_dict, references, value_dicts
+from netcheck.report.json_findings import findings_text
 
 __all__ = [
     "FORMAT",
@@ -49,6 +51,8 @@ __all__ = [
     "error_dict",
     "unverified_dict",
     "dump",
+    "write",
+    "Raw",
 ]
 
 FORMAT = "netcheck-findings/1"
@@ -75,11 +79,17 @@ def finding_dict(finding: Finding, meta: RuleMeta | None) -> dict[str, Any]:
 
 def render_json(report: Report, catalogue: Mapping[str, RuleMeta]) -> str:
     """Render the report as ``netcheck-findings/1`` JSON text."""
+    with collector_paused():  # strings and dicts: nothing the collector frees
+        return _render(report, catalogue)
+
+
+def _render(report: Report, catalogue: Mapping[str, RuleMeta]) -> str:
     document = {
         "format": FORMAT,
         "tool": {"name": "netcheck", "version": __version__, "caution": CAUTION},
         "files": list(report.files),
-        "findings": [finding_dict(f, catalogue.get(f.rule)) for f in report.findings],
+        # Written straight to text: the same as the finding_dicts, dumped.
+        "findings": Raw(findings_text(report.findings, catalogue, "\n  ")),
         "errors": [error_dict(e) for e in report.errors],
         "unverified": [unverified_dict(e) for e in report.unverified],
         "summary": report.summary(),
@@ -118,7 +128,7 @@ def dump(document: Any) -> str:
     thousands of findings (strings still go through the C escaper).
     """
     out: list[str] = []
-    _write(document, "\n", out)
+    write(document, "\n", out)
     out.append("\n")
     return "".join(out)
 
@@ -126,8 +136,20 @@ def dump(document: Any) -> str:
 _escape = json.encoder.encode_basestring  # the ensure_ascii=False escaper
 
 
-def _write(value: Any, pad: str, out: list[str]) -> None:
-    if isinstance(value, str):
+class Raw:
+    """JSON text already written at the place it goes (``dump`` copies it)."""
+
+    __slots__ = ("text",)
+
+    def __init__(self, text: str) -> None:
+        self.text = text
+
+
+def write(value: Any, pad: str, out: list[str]) -> None:
+    """Append ``value`` written at indentation ``pad`` (newline and spaces)."""
+    if type(value) is Raw:
+        out.append(value.text)
+    elif isinstance(value, str):
         out.append(_escape(value))
     elif value is None or value is True or value is False:
         out.append("null" if value is None else "true" if value else "false")
@@ -147,7 +169,7 @@ def _write(value: Any, pad: str, out: list[str]) -> None:
         for key, item in value.items():
             name = key if isinstance(key, str) else json.dumps(key)
             out.append(separator + _escape(name) + ": ")
-            _write(item, inner, out)
+            write(item, inner, out)
             separator = "," + inner
         out.append(pad + "}")
     elif isinstance(value, (list, tuple)):
@@ -157,7 +179,7 @@ def _write(value: Any, pad: str, out: list[str]) -> None:
         inner, separator = pad + "  ", "[" + pad + "  "
         for item in value:
             out.append(separator)
-            _write(item, inner, out)
+            write(item, inner, out)
             separator = "," + inner
         out.append(pad + "]")
     else:

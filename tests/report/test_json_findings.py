@@ -1,0 +1,137 @@
+"""The JSON report's direct finding writer against the generic dict writer.
+
+``netcheck.report.json_findings.findings_text`` must write exactly what
+``dump`` makes of the findings' ``finding_dict``s: the report's bytes may not
+depend on which path wrote them. Compared on every rule case, the samples
+(with their verified fixes and edits) and findings with awkward values.
+"""
+
+from __future__ import annotations
+
+import math
+from pathlib import Path
+
+from netcheck.catalogue import load_catalogue
+from netcheck.findings import Finding, Severity
+from netcheck.pipeline import CheckOptions, check_path
+from netcheck.report import Report
+from netcheck.report.json import finding_dict, render_json, write
+from netcheck.report.json_findings import findings_text
+from netcheck.source import Span
+from netcheck.units import Q_
+
+ROOT = Path(__file__).resolve().parents[2]
+CASES = sorted((ROOT / "tests" / "cases").glob("*/*.cnet"))
+SAMPLES = sorted(p.parent for p in (ROOT / "sample_nets").glob("*/expect.yaml"))
+PADS = ("\n  ", "\n", "\n      ")
+
+
+def _generic(findings: tuple[Finding, ...], pad: str) -> str:
+    catalogue = load_catalogue()
+    out: list[str] = []
+    write([finding_dict(f, catalogue.get(f.rule)) for f in findings], pad, out)
+    return "".join(out)
+
+
+def _assert_same(findings: tuple[Finding, ...]) -> None:
+    catalogue = load_catalogue()
+    for pad in PADS:
+        # Twice: the second run is served from the written-entry caches.
+        for _ in range(2):
+            assert findings_text(findings, catalogue, pad) == _generic(findings, pad)
+
+
+def _report(path: Path, verify: bool) -> Report:
+    result = check_path(path, CheckOptions(verify_fixes=verify))
+    return Report.build(result.findings, result.files)
+
+
+def test_every_rule_case_writes_the_same() -> None:
+    findings = []
+    for path in CASES:
+        findings += _report(path, verify=False).findings
+    assert len({f.rule for f in findings}) >= 25  # the cases cover the catalogue
+    _assert_same(tuple(findings))
+
+
+def test_samples_with_fixes_write_the_same() -> None:
+    findings = []
+    for folder in SAMPLES:
+        findings += _report(folder / f"{folder.name}.cnet", verify=True).findings
+    assert any(f.edits for f in findings)  # edits and verified are written too
+    assert {f.verified for f in findings} >= {True}
+    _assert_same(tuple(findings))
+
+
+def _odd(values: dict, **more) -> Finding:
+    fields = {
+        "rule": "inductive-load-unsuppressed",
+        "severity": Severity.WARNING,
+        "message": 'K1 "quoted" \\ back-slash, tab\t, ünïcode Ω µ, \u2028',
+        "span": Span("dir/a b.cnet", 3, 7),
+        "element": "K1",
+        "values": values,
+        "fix": "fit a diode",
+        "fingerprint": "0123456789abcdef",
+    }
+    fields.update(more)
+    return Finding(**fields)
+
+
+def test_awkward_values_write_the_same() -> None:
+    numbers = [
+        0.0,
+        -0.0,
+        1e-300,
+        -1e-300,
+        5e-324,
+        1e300,
+        -2.5,
+        999.95,
+        0.0009995,
+        1 / 3,
+        2**53 + 1.0,
+        math.nan,
+        math.inf,
+        -math.inf,
+        7,
+        0,
+        -3,
+    ]
+    values: dict = {f"v{i}": Q_(n, "V") for i, n in enumerate(numbers)}
+    values.update(
+        {
+            "ms": Q_(1.5, "ms"),
+            "ratio": Q_(0.5, ""),
+            "kwh": Q_(2.0, "kWh"),
+            "none": None,
+            "yes": True,
+            "no": False,
+            "count": 3,
+            "float": 0.1,
+            "nan": math.nan,
+            "text": "a\nb",
+            "refs": ("K1", "K2"),
+            "set": frozenset(),
+            "diode_voltage": Q_(48.0, "V"),
+            "loads": "Y1, Y2",
+        }
+    )
+    findings = (
+        _odd(values),
+        _odd({}, fix=None, waived='accepted: "reason"', references=("own ref",)),
+        _odd(
+            {"loads": "Y1"}, rule="no-such-rule", severity=Severity.INFO, verified=True
+        ),
+        _odd({"current": Q_(-0.0, "A"), "loads": "Y9"}, verified=False),
+        _odd({1: Q_(2.0, "V"), 2: "two", 3: None}),  # names that are not text
+    )
+    _assert_same(findings)
+    _assert_same(())
+
+
+def test_render_json_uses_the_direct_writer_and_agrees() -> None:
+    report = _report(SAMPLES[0] / f"{SAMPLES[0].name}.cnet", verify=True)
+    text = render_json(report, load_catalogue())
+    findings_part = _generic(report.findings, "\n  ")
+    assert f'"findings": {findings_part},' in text
