@@ -5,7 +5,7 @@ from __future__ import annotations
 from collections import deque
 from collections.abc import Iterable, Iterator
 
-from netcheck.analysis.blocks import biconnected_components
+from netcheck.analysis.blocks import BlockTree, block_tree
 from netcheck.graph import SWITCH, Branch
 
 __all__ = ["ZeroOhm"]
@@ -26,36 +26,33 @@ class ZeroOhm:
         self.adjacent: dict[str, list[tuple[str, str]]] = {}
         self.by_key: dict[str, Branch] = {}
         self.shunt_keys: set[str] = set()
-        # Each branch a net - edge - net path (parallel branches make a cycle),
-        # a simple graph: every neighbour once, as networkx's Graph keeps it.
-        subdivided: dict[tuple[str, str], dict[tuple[str, str], None]] = {}
-
-        def link(u: tuple[str, str], v: tuple[str, str]) -> None:
-            if u != v:
-                subdivided.setdefault(u, {})[v] = None
-                subdivided.setdefault(v, {})[u] = None
-
+        # Branches and shunts together: the multigraph whose blocks are the
+        # bypass sets (parallel branches make a cycle).
+        joined: dict[str, list[tuple[str, str]]] = {}
+        self._shunts: dict[str, Branch] = {}
         for branch in shunts:
             self.shunt_keys.add(branch.key)
-            link(("net", branch.a), ("edge", branch.key))
-            link(("edge", branch.key), ("net", branch.b))
+            self._shunts[branch.key] = branch
+            joined.setdefault(branch.a, []).append((branch.key, branch.b))
+            joined.setdefault(branch.b, []).append((branch.key, branch.a))
         for branch in branches:
             self.by_key[branch.key] = branch
             self.adjacent.setdefault(branch.a, []).append((branch.key, branch.b))
             self.adjacent.setdefault(branch.b, []).append((branch.key, branch.a))
-            edge_node = ("edge", branch.key)
-            link(("net", branch.a), edge_node)
-            link(edge_node, ("net", branch.b))
+            joined.setdefault(branch.a, []).append((branch.key, branch.b))
+            joined.setdefault(branch.b, []).append((branch.key, branch.a))
+        self.tree: BlockTree = block_tree(joined)
         self.block_of: dict[str, int] = {}
         self.blocks: list[list[str]] = []
         self._switches: dict[int, list[str]] = {}
-        for nodes in biconnected_components(subdivided):
-            if len(nodes) <= 2:
-                continue  # a bridge: its two halves are blocks of their own
-            edges = sorted(key for kind, key in nodes if kind == "edge")  # type: ignore[misc]
+        for edges in self.tree.edges:
+            if len(edges) < 2:
+                continue  # a bridge: no bypass
             for key in edges:
                 self.block_of[key] = len(self.blocks)
-            self.blocks.append(edges)
+            self.blocks.append(sorted(edges))
+        self._exact = _shunts_inside(self.by_key.values(), self._shunts.values())
+        self._parts: dict[int, tuple[dict[str, int], list[int]]] = {}
 
     def bypass(self, key: str) -> tuple[str, ...]:
         """Switching elements that could carry the current around ``key``."""
@@ -81,16 +78,128 @@ class ZeroOhm:
     def sides(self, key: str, removed: set[str]) -> tuple[set[str], str]:
         """The smaller side of ``key`` once it and ``removed`` are open.
 
-        Returns (nets of that side, "a" or "b": the element terminal it holds);
-        an empty set when the two ends stay joined. Side "b" is returned when
-        the two sides hold equally many nets. The searches from both ends
-        advance one edge at a time, so a call costs about the smaller side even
-        when the other end is a rail net with thousands of branches.
+        Returns (nets of that side, "a" or "b": the element terminal it holds):
+        every net still joined to that terminal by the other zero-ohm branches.
+        Side "b" is returned when the two sides hold equally many nets. When
+        the two ends stay joined the set is empty (and the terminal "b").
+
+        With ``removed`` the element's bypass (what ``open_element`` opens) the
+        sides are read from the block tree: the element's block with its
+        switching elements open, each of its nets carrying the nets that hang
+        below it, so a call costs about the smaller side's nets however long
+        the chain or wide the rail. Any other ``removed`` set is searched.
         """
         branch = self.by_key[key]
         if branch.a == branch.b:
             return {branch.a}, "a"
-        skip = removed | {key}
+        if self._exact and self._is_bypass(key, removed):
+            return self._tree_sides(branch)
+        return self._searched_sides(branch, removed)
+
+    def _is_bypass(self, key: str, removed: set[str]) -> bool:
+        bypass = self.bypass(key)
+        return len(removed) == len(bypass) and removed.issuperset(bypass)
+
+    def _tree_sides(self, branch: Branch) -> tuple[set[str], str]:
+        """``sides`` with the bypass open, from the block tree.
+
+        Opening the block's switching elements (and ``branch``) leaves classes
+        of its nets joined by its other zero-ohm branches; each class holds its
+        nets and what hangs below them (the head's class: the whole search
+        tree less the other classes' subtrees, see ``BlockTree``).
+        """
+        block = self.tree.block_of[branch.key]
+        part, sizes = self._partition(block, branch)
+        end_a, end_b = part[branch.a], part[branch.b]
+        if end_a == end_b:
+            return set(), "b"
+        if sizes[end_a] < sizes[end_b]:
+            return self._class_nets(block, part, end_a), "a"
+        return self._class_nets(block, part, end_b), "b"
+
+    def _partition(
+        self, block: int, branch: Branch
+    ) -> tuple[dict[str, int], list[int]]:
+        """Class of each net of ``block`` with ``branch`` and its switches open.
+
+        With ``branch`` a switching element the classes are the block's own
+        (the same for all its switching elements), kept; with a conductor they
+        are worked out for it alone.
+        """
+        is_switch = branch.role == SWITCH
+        if is_switch and block in self._parts:
+            return self._parts[block]
+        edges = self.tree.edges[block]
+        if len(edges) == 1:
+            part = {branch.a: 0, branch.b: 1}
+        else:
+            kept = []
+            for key in edges:
+                other = self.by_key.get(key)
+                if other is not None and other.role != SWITCH and key != branch.key:
+                    kept.append(other)
+            part = _classes(self._block_nets(block), kept)
+        found = part, self._class_sizes(block, part)
+        if is_switch and len(edges) > 1:
+            self._parts[block] = found
+        return found
+
+    def _block_nets(self, block: int) -> list[str]:
+        nets: dict[str, None] = {}
+        for key in self.tree.edges[block]:
+            ends = self.by_key.get(key) or self._shunts[key]
+            nets[ends.a] = nets[ends.b] = None
+        return list(nets)
+
+    def _class_sizes(self, block: int, part: dict[str, int]) -> list[int]:
+        """Nets on each class's side: its nets and what hangs below them."""
+        tree = self.tree
+        head = tree.heads[block]
+        sizes = [0] * (max(part.values()) + 1)
+        for net, index in part.items():
+            if net != head:
+                sizes[index] += tree.hanging(net)
+        own = part[head]
+        others = sum(sizes) - sizes[own]
+        sizes[own] = tree.size[tree.root[head]] - others
+        return sizes
+
+    def _class_nets(self, block: int, part: dict[str, int], index: int) -> set[str]:
+        """The nets of one class's side, from slices of the search order."""
+        tree = self.tree
+        pre, order, size, below = tree.pre, tree.order, tree.size, tree.below
+        head = tree.heads[block]
+        nets: set[str] = set()
+        if part[head] != index:
+            for net, at in part.items():
+                if at == index:
+                    nets.add(net)
+                    for child in below.get(net, ()):
+                        nets.update(pre[order[child] : order[child] + size[child]])
+            return nets
+        # The head's class: the whole search tree but the other classes' parts.
+        cut = []
+        for net, at in part.items():
+            if at != index:
+                cut.append((order[net], order[net] + 1))
+                cut.extend((order[c], order[c] + size[c]) for c in below.get(net, ()))
+        root = tree.root[head]
+        start, end = order[root], order[root] + size[root]
+        for low, high in sorted(cut):
+            nets.update(pre[start:low])
+            start = high
+        nets.update(pre[start:end])
+        return nets
+
+    def _searched_sides(
+        self, branch: Branch, removed: set[str]
+    ) -> tuple[set[str], str]:
+        """``sides`` by searching: both ends advance one edge at a time.
+
+        A call costs about the smaller side even when the other end is a rail
+        net with thousands of branches.
+        """
+        skip = removed | {branch.key}
         seen = {"a": {branch.a}, "b": {branch.b}}
         steps = {side: self._walk(seen[side], skip) for side in ("a", "b")}
         while True:
@@ -99,7 +208,7 @@ class ZeroOhm:
                 if step is None:
                     return self._settle(seen, steps, side, other_side)
                 if step in seen[other_side]:
-                    return set(), side  # still joined: nothing is switched
+                    return set(), "b"  # still joined: nothing is switched
 
     def _walk(self, seen: set[str], skip: set[str]) -> Iterator[str]:
         """Breadth-first search that yields the far net of every edge it tries."""
@@ -131,3 +240,43 @@ class ZeroOhm:
         if len(seen[other]) >= limit:
             return seen[done], done
         return seen[other], other
+
+
+def _classes(nets: list[str], edges: list[Branch]) -> dict[str, int]:
+    """Number the classes of ``nets`` joined by ``edges`` (in order of first net)."""
+    parent = {net: net for net in nets}
+
+    def find(net: str) -> str:
+        while parent[net] != net:
+            parent[net] = parent[parent[net]]
+            net = parent[net]
+        return net
+
+    for edge in edges:
+        parent[find(edge.a)] = find(edge.b)
+    index: dict[str, int] = {}
+    return {net: index.setdefault(find(net), len(index)) for net in nets}
+
+
+def _shunts_inside(branches: Iterable[Branch], shunts: Iterable[Branch]) -> bool:
+    """Whether each shunt's ends are already joined by the zero-ohm branches.
+
+    ``shunts`` says they are (two ends in one group), and the block tree relies
+    on it: a shunt then closes cycles but joins nothing the branches do not,
+    so the nets hanging below a net are the same with or without shunts.
+    """
+    pairs = [(s.a, s.b) for s in shunts if s.a != s.b]
+    if not pairs:
+        return True
+    parent: dict[str, str] = {}
+
+    def find(net: str) -> str:
+        parent.setdefault(net, net)
+        while parent[net] != net:
+            parent[net] = parent[parent[net]]
+            net = parent[net]
+        return net
+
+    for branch in branches:
+        parent[find(branch.a)] = find(branch.b)
+    return all(find(a) == find(b) for a, b in pairs)
