@@ -2,8 +2,6 @@
 
 from __future__ import annotations
 
-from dataclasses import replace
-
 from netcheck.analysis.switched import ElementAnalysis
 from netcheck.graph import Branch
 
@@ -21,22 +19,74 @@ def mark_series(elements: dict[str, ElementAnalysis]) -> dict[str, ElementAnalys
         groups.setdefault(key, []).append(name)
     out = dict(elements)
     for names in groups.values():
-        if len(names) < 2:
-            continue
-        # Sorted once per group: filtering a sorted list keeps it sorted.
-        ordered = sorted(names)
-        device_of = {n: elements[n].element.device for n in ordered}
-        for name in names:
-            e = elements[name]
-            bypass = set(e.bypass)
-            partners = [n for n in ordered if n not in bypass] if bypass else ordered
-            device = device_of[name]
-            same = tuple(n for n in partners if device_of[n] == device)
-            other = tuple(n for n in partners if device_of[n] != device)
-            out[name] = replace(
-                e, series_poles=len(same), series_elements=same, other_series=other
-            )
+        if len(names) >= 2:
+            _mark_group(elements, names, out)
     return out
+
+
+def _mark_group(
+    elements: dict[str, ElementAnalysis],
+    names: list[str],
+    out: dict[str, ElementAnalysis],
+) -> None:
+    """Mark one group: each element's partners are the group less its bypass.
+
+    An element without a bypass has the whole group for partners, so its two
+    tuples depend on its device alone: cut once per device from the sorted
+    group by slices (a chain of 30 interlocks has 30 devices).
+    """
+    ordered = tuple(sorted(names))
+    device_of = {n: elements[n].element.device for n in ordered}
+    at: dict[str, list[int]] = {}
+    for index, n in enumerate(ordered):
+        at.setdefault(device_of[n], []).append(index)
+    whole: dict[str, tuple[tuple[str, ...], tuple[str, ...]]] = {}
+    for name in names:
+        e = elements[name]
+        device = device_of[name]
+        if e.bypass:
+            bypass = set(e.bypass)
+            partners = [n for n in ordered if n not in bypass]
+            same = tuple([n for n in partners if device_of[n] == device])
+            other = tuple([n for n in partners if device_of[n] != device])
+        else:
+            if device not in whole:
+                whole[device] = _split(ordered, at[device])
+            same, other = whole[device]
+        out[name] = _marked(e, same, other)
+
+
+def _split(
+    ordered: tuple[str, ...], positions: list[int]
+) -> tuple[tuple[str, ...], tuple[str, ...]]:
+    """``ordered`` at ``positions`` (ascending), and the rest in order."""
+    same = tuple(ordered[i] for i in positions)
+    rest: list[str] = []
+    start = 0
+    for i in positions:
+        rest.extend(ordered[start:i])
+        start = i + 1
+    rest.extend(ordered[start:])
+    return same, tuple(rest)
+
+
+def _marked(
+    e: ElementAnalysis, same: tuple[str, ...], other: tuple[str, ...]
+) -> ElementAnalysis:
+    """``dataclasses.replace(e, series_poles=…, …)`` without its per-field cost.
+
+    ``ElementAnalysis`` is a frozen dataclass with no ``__post_init__`` and
+    every field set by ``__init__``, so a copy of its fields with three changed
+    is what ``replace`` builds (``tests/analysis/test_series_marking.py``
+    compares the two).
+    """
+    marked = object.__new__(ElementAnalysis)
+    fields = marked.__dict__
+    fields.update(e.__dict__)
+    fields["series_poles"] = len(same)
+    fields["series_elements"] = same
+    fields["other_series"] = other
+    return marked
 
 
 def changeovers(switches: list[Branch]) -> tuple[set[str], set[str]]:

@@ -158,27 +158,57 @@ def _region(state: DomainState, floating: set[str], group: str) -> set[str]:
     return keys
 
 
+def _attached_nets(state: DomainState) -> set[str]:
+    """Nets with a branch of a circuit model (``state.models``) attached.
+
+    Kept in ``state.cache``; it reads ``state.attached`` and ``state.models``,
+    both fixed once the domain is solved.
+    """
+    nets: set[str] | None = state.cache.get("model-nets")  # type: ignore[assignment]
+    if nets is None:
+        models = state.models
+        nets = state.cache["model-nets"] = {  # type: ignore[assignment]
+            net
+            for net, branches in state.attached.items()
+            if any(b.key in models for b in branches)
+        }
+    return nets  # type: ignore[return-value]
+
+
 def _cut_off(
-    state: DomainState, floating: frozenset[str], group: str
-) -> tuple[set[str], Solution]:
+    state: DomainState, floating: set[str], group: str
+) -> tuple[set[str], Solution, tuple[str, ...]]:
     """The circuit with ``floating`` cut off from ``group``, solved once per cut.
 
-    Contacts in parallel (20 start buttons OR-ed in a rung) open the same cut,
-    so the solve is shared; it depends on nothing but the cut and the state.
+    Returns the region's branch keys, its solution and the loads that lose
+    supply. Nets without a model branch attached change nothing: the region
+    is found through the branches attached to floating nets, and only model
+    branches' ends are renamed. So the cut is keyed on the floating nets that
+    have one, with ``group``: contacts in parallel (20 start buttons OR-ed) and
+    contacts in series (30 interlocks before one coil) share one solve. The
+    memo lives in ``state.cache`` and reads nothing but the state and the key.
     """
     memo = state.cache.setdefault("cut-off", {})
-    key = (floating, group)
+    active = frozenset(floating & _attached_nets(state))
+    key = (active, group)
     if key not in memo:  # type: ignore[operator]
         node = "<open>"
-        rename = {net: node for net in floating}
-        keys = _region(state, set(floating), group)
+        rename = {net: node for net in active}
+        keys = _region(state, set(active), group)
         models = [state.model(k, rename) for k in sorted(keys)]
         resistors = [m for m in models if hasattr(m, "resistance")]
         diodes = [m for m in models if not hasattr(m, "resistance")]
         nodes = sorted({n for m in models for n in (m.a, m.b)} | {node, group})
         fixed = {n: state.rails[n] for n in nodes if n in state.rails and n != node}
         solution = solve_dc(nodes, fixed, resistors, diodes)  # type: ignore[arg-type]
-        memo[key] = (keys, solution)  # type: ignore[index]
+        switched = tuple(
+            k
+            for k in sorted(keys)
+            if k in state.facts
+            and abs(state.currents.get(k, 0.0)) > _TINY
+            and abs(solution.currents.get(k, 0.0)) < LOST_SHARE * abs(state.currents[k])
+        )
+        memo[key] = (keys, solution, switched)  # type: ignore[index]
     return memo[key]  # type: ignore[index,no-any-return]
 
 
@@ -199,16 +229,8 @@ def open_element(
     group = state.group[branch.a]
     floating, searched = _floating_side(state, side, terminals, group)
     floating_end = end if searched else ("a" if end == "b" else "b")
-    keys, solution = _cut_off(state, frozenset(floating), group)
-    node = "<open>"
-    v_float = solution.potentials[node]
+    _, solution, switched = _cut_off(state, floating, group)
+    v_float = solution.potentials["<open>"]
     v_rest = solution.potentials[group]
     voltage_ab = (v_rest - v_float) if floating_end == "b" else (v_float - v_rest)
-    switched = tuple(
-        k
-        for k in sorted(keys)
-        if k in state.facts
-        and abs(state.currents.get(k, 0.0)) > _TINY
-        and abs(solution.currents.get(k, 0.0)) < LOST_SHARE * abs(state.currents[k])
-    )
     return Opening(current_ab, voltage_ab, switched, bypass, frozenset(floating))
