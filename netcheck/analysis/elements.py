@@ -36,6 +36,7 @@ from netcheck.analysis.switched import (
     SwitchedLoad,
     net_injections,
     open_element,
+    with_fields,
 )
 from netcheck.analysis.zero_ohm import ZeroOhm
 from netcheck.graph import COIL, CONDUCTOR, LOAD, SUPPLY, SWITCH, Branch, Domain, Graph
@@ -113,6 +114,51 @@ def _rated_as_power_device(state: DomainState, component: Component) -> bool:
     return rated  # type: ignore[no-any-return]
 
 
+def _is_power(state: DomainState, branch: Branch) -> bool:
+    """Whether the element's loads need the power categories (a main pole)."""
+    assert branch.element is not None
+    return (
+        branch.component.kind == "contactor" and len(branch.element.a) == 1
+    ) or _rated_as_power_device(state, branch.component)
+
+
+def _analyse_parallel(
+    shared: dict[tuple, ElementAnalysis],
+    ctx: DomainContext,
+    branch: Branch,
+    zero: ZeroOhm,
+    injection: Mapping[str, float],
+    terminals: set[str],
+) -> ElementAnalysis:
+    """``_analyse_dc``, once for elements in parallel between the same nets.
+
+    Switching elements of one block between the same two nets (20 start
+    buttons OR-ed, a seal-in beside them) open the same circuit: the sides are
+    taken with all of the block's switching elements open, so everything but
+    the element, its component and its bypass is the same, given the power
+    flag. ``shared`` holds one state's results (``ctx``, ``zero``, the
+    injections and the terminals are that state's), keyed on the block, the
+    two nets and the flag; a bypass through a load re-solves per element and
+    is not shared.
+    """
+    key = branch.key
+    block = zero.block_of.get(key)
+    if block is None or zero.bypass_through_load(key):
+        return _analyse_dc(ctx, branch, zero, injection, terminals)
+    assert ctx.state is not None
+    twin = (block, branch.a, branch.b, _is_power(ctx.state, branch))
+    first = shared.get(twin)
+    if first is None:
+        first = shared[twin] = _analyse_dc(ctx, branch, zero, injection, terminals)
+        return first
+    return with_fields(
+        first,
+        element=branch.element,
+        component=branch.component,
+        bypass=zero.bypass(key),
+    )
+
+
 def _shorted_chains(state: DomainState, floating: frozenset[str]) -> list:
     """The supply shorts that the element feeds (a chain touching its open side)."""
     return [
@@ -158,9 +204,7 @@ def _analyse_dc(
         zero = _zero_ohm(ctx.domain, state)
         injection = net_injections(state)
     opening = open_element(state, zero, injection, terminals, branch)
-    power = (
-        branch.component.kind == "contactor" and len(branch.element.a) == 1
-    ) or _rated_as_power_device(state, branch.component)
+    power = _is_power(state, branch)
     current, supply_ref = _sag(state, opening.current_ab)
     # The loads break at the sagged current too: ½·L·I² with I = E/(R + r_int).
     sag = abs(current / opening.current_ab) if abs(opening.current_ab) > 1e-12 else 1.0
@@ -359,12 +403,13 @@ def _analyse(graph: Graph, only: Container[str] | None = None) -> Analysis:
                 analysis.alternate_states[domain.name] = state
             zero = _zero_ohm(domain, state)
             injection = net_injections(state)
+            shared: dict[tuple, ElementAnalysis] = {}
             for branch in members:
                 assert branch.element is not None
                 if only is not None and branch.ref not in only:
                     continue
-                elements[branch.element.name] = _analyse_dc(
-                    ctx, branch, zero, injection, terminals
+                elements[branch.element.name] = _analyse_parallel(
+                    shared, ctx, branch, zero, injection, terminals
                 )
     for component in graph.netlist.components:
         for element in component.elements:

@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from netcheck.analysis.switched import ElementAnalysis
+from netcheck.analysis.switched import ElementAnalysis, with_fields
 from netcheck.graph import Branch
 
 __all__ = ["mark_series", "changeovers"]
@@ -53,7 +53,9 @@ def _mark_group(
             if device not in whole:
                 whole[device] = _split(ordered, at[device])
             same, other = whole[device]
-        out[name] = _marked(e, same, other)
+        out[name] = with_fields(
+            e, series_poles=len(same), series_elements=same, other_series=other
+        )
 
 
 def _split(
@@ -68,25 +70,6 @@ def _split(
         start = i + 1
     rest.extend(ordered[start:])
     return same, tuple(rest)
-
-
-def _marked(
-    e: ElementAnalysis, same: tuple[str, ...], other: tuple[str, ...]
-) -> ElementAnalysis:
-    """``dataclasses.replace(e, series_poles=…, …)`` without its per-field cost.
-
-    ``ElementAnalysis`` is a frozen dataclass with no ``__post_init__`` and
-    every field set by ``__init__``, so a copy of its fields with three changed
-    is what ``replace`` builds (``tests/analysis/test_series_marking.py``
-    compares the two).
-    """
-    marked = object.__new__(ElementAnalysis)
-    fields = marked.__dict__
-    fields.update(e.__dict__)
-    fields["series_poles"] = len(same)
-    fields["series_elements"] = same
-    fields["other_series"] = other
-    return marked
 
 
 def changeovers(switches: list[Branch]) -> tuple[set[str], set[str]]:

@@ -19,6 +19,7 @@ __all__ = [
     "SwitchedLoad",
     "Suppressor",
     "ElementAnalysis",
+    "with_fields",
     "Opening",
     "open_element",
     "net_injections",
@@ -92,6 +93,24 @@ class ElementAnalysis:
     def inductive_loads(self) -> tuple[SwitchedLoad, ...]:
         """The switched loads that store energy in an inductance."""
         return tuple(load for load in self.loads if load.inductive)
+
+
+def with_fields(e: ElementAnalysis, **changes: object) -> ElementAnalysis:
+    """``dataclasses.replace(e, **changes)`` without its per-field cost.
+
+    ``ElementAnalysis`` is a frozen dataclass with no ``__post_init__``, every
+    field set by ``__init__``, so a copy of its fields with some changed is
+    what ``replace`` builds (``tests/analysis/test_opening_shortcuts.py``
+    compares whole analyses built either way). Unknown names are refused.
+    """
+    copy = object.__new__(ElementAnalysis)
+    fields = copy.__dict__
+    fields.update(e.__dict__)
+    for name, value in changes.items():
+        if name not in fields:
+            raise TypeError(f"ElementAnalysis has no field {name!r}")
+        fields[name] = value
+    return copy
 
 
 @dataclass(frozen=True)

@@ -44,7 +44,9 @@ class ZeroOhm:
         self.tree: BlockTree = block_tree(joined)
         self.block_of: dict[str, int] = {}
         self.blocks: list[list[str]] = []
-        self._switches: dict[int, list[str]] = {}
+        self._switches: dict[int, list[str]] = {}  # each kept once asked for
+        self._bypass: dict[str, tuple[str, ...]] = {}
+        self._through_load: dict[int, bool] = {}
         for edges in self.tree.edges:
             if len(edges) < 2:
                 continue  # a bridge: no bypass
@@ -56,24 +58,32 @@ class ZeroOhm:
 
     def bypass(self, key: str) -> tuple[str, ...]:
         """Switching elements that could carry the current around ``key``."""
-        block = self.block_of.get(key)
-        if block is None:
-            return ()
-        switches = self._switches.get(block)
-        if switches is None:  # the block's switching elements, once per block
-            switches = self._switches[block] = [
-                k
-                for k in self.blocks[block]
-                if k in self.by_key and self.by_key[k].role == SWITCH
-            ]
-        return tuple(k for k in switches if k != key)
+        found = self._bypass.get(key)
+        if found is None:
+            block = self.block_of.get(key)
+            if block is None:
+                return ()
+            switches = self._switches.get(block)
+            if switches is None:  # the block's switching elements, once per block
+                switches = self._switches[block] = [
+                    k
+                    for k in self.blocks[block]
+                    if k in self.by_key and self.by_key[k].role == SWITCH
+                ]
+            found = self._bypass[key] = tuple(k for k in switches if k != key)
+        return found
 
     def bypass_through_load(self, key: str) -> bool:
         """Whether a bypass path of ``key`` runs through a load or resistor."""
         block = self.block_of.get(key)
-        return block is not None and any(
-            k in self.shunt_keys for k in self.blocks[block]
-        )
+        if block is None:
+            return False
+        found = self._through_load.get(block)
+        if found is None:
+            found = self._through_load[block] = any(
+                k in self.shunt_keys for k in self.blocks[block]
+            )
+        return found
 
     def sides(self, key: str, removed: set[str]) -> tuple[set[str], str]:
         """The smaller side of ``key`` once it and ``removed`` are open.

@@ -1,13 +1,14 @@
-"""The shared cut-off solves, block-tree sides and series marking change nothing.
+"""Shared solves and analyses, block-tree sides and series marking change nothing.
 
 No outside source: each whole design is analysed twice, once as shipped and
 once with the former code patched in (verbatim but for its home): sides
 searched edge by edge, every cut-off region and solve worked out afresh for
-the element's whole floating side, and series marking by
-``dataclasses.replace``. Every element's analysis must be equal, field for
-field (floats exactly). Designs: every rule case, the samples, and the bench's
-shapes (series chains, parallel bundles and seal-ins, one rail, PLC cards,
-mixed).
+the element's whole floating side, every element analysed on its own (not
+once per parallel bundle), and series marking by ``dataclasses.replace``.
+Every element's analysis must be equal, field for field (floats exactly).
+Designs: every rule case, the samples, the bench's shapes (series chains,
+parallel bundles and seal-ins, one rail, PLC cards, mixed) and a ring of
+contacts with a main pole among pushbuttons.
 """
 
 from __future__ import annotations
@@ -17,6 +18,7 @@ from dataclasses import replace
 from pathlib import Path
 
 import pytest
+from helpers import write_design
 
 from netcheck.analysis import elements as elements_module
 from netcheck.analysis import switched
@@ -90,12 +92,17 @@ def _searched(self, key, removed):  # type: ignore[no-untyped-def]
     return self._searched_sides(branch, removed)
 
 
+def _each_alone(shared, *args):  # type: ignore[no-untyped-def]
+    return elements_module._analyse_dc(*args)
+
+
 def _both(netlist, monkeypatch):  # type: ignore[no-untyped-def]
     shipped = analyse(build_graph(netlist)).elements
     with monkeypatch.context() as patch:
         patch.setattr(switched, "_cut_off", _former_cut_off)
         patch.setattr(elements_module, "mark_series", _former_mark_series)
         patch.setattr(ZeroOhm, "sides", _searched)
+        patch.setattr(elements_module, "_analyse_parallel", _each_alone)
         former = analyse(build_graph(netlist)).elements
     return shipped, former
 
@@ -130,3 +137,32 @@ def test_bench_shapes(
     marked = any(e.other_series or e.series_poles > 1 for e in shipped.values())
     assert marked or shape not in ("series", "parallel")  # they exercise it
     _assert_same(shipped, former)
+
+
+BUNDLES = """\
+supply  G1  dc=24V  earth=minus  +:L+  -:M
+switch  S5  13:L+  14:P
+switch  S1  13:P  14:X
+switch  S2  13:X  14:Y
+switch  S3  13:P  14:Y
+relay   K1  coil.resistance=240ohm  coil.inductance=1H  A1:X  A2:M
+relay   K2  coil.resistance=480ohm  coil.inductance=2H  A1:Y  A2:M
+contactor Q1  1:P  2:Z
+switch  S4  13:P  14:Z
+switch  S6  13:P  14:Z
+switch  S7  13:Z  14:P
+load    E1  type=motor  R=10ohm  L=10mH  1:Z  2:M
+"""
+
+
+def test_elements_of_one_block_share_only_what_they_can(
+    tmp_path: Path, monkeypatch: pytest.MonkeyPatch
+) -> None:
+    # A ring of three contacts (one block, two of them from P), a contactor's
+    # main pole (power categories) with pushbuttons beside it, one reversed.
+    netlist = load_design(write_design(tmp_path, BUNDLES), display_base=tmp_path)
+    shipped, former = _both(netlist, monkeypatch)
+    _assert_same(shipped, former)
+    assert shipped["S1:13-14"].current != shipped["S3:13-14"].current
+    assert shipped["Q1:1-2"].load_category != shipped["S4:13-14"].load_category
+    assert shipped["S4:13-14"].direction == -shipped["S7:13-14"].direction != 0
