@@ -105,6 +105,26 @@ def _switched_loads(
     return loads
 
 
+def _switched_loads_once(
+    ctx: DomainContext, opening: Opening, power: bool, sag: float
+) -> tuple[SwitchedLoad, ...]:
+    """``_switched_loads``, once per state for the same loads, flag and sag.
+
+    The 30 contacts of an interlock chain switch the same coil at the same
+    current. Kept in ``state.cache``: besides its key it reads only the state
+    (its loads' facts, currents and potentials, and their suppressors, which
+    ``load_suppressors`` keeps there too).
+    """
+    state = ctx.state
+    assert state is not None
+    memo: dict = state.cache.setdefault("switched-loads", {})  # type: ignore[assignment]
+    key = (opening.switched, power, sag)
+    found = memo.get(key)
+    if found is None:
+        found = memo[key] = tuple(_switched_loads(ctx, opening, power, sag))
+    return found  # type: ignore[no-any-return]
+
+
 def _rated_as_power_device(state: DomainState, component: Component) -> bool:
     """``rated_as_power_device``, once per component (one per pole before)."""
     memo: dict = state.cache.setdefault("power-device", {})  # type: ignore[assignment]
@@ -208,7 +228,7 @@ def _analyse_dc(
     current, supply_ref = _sag(state, opening.current_ab)
     # The loads break at the sagged current too: ½·L·I² with I = E/(R + r_int).
     sag = abs(current / opening.current_ab) if abs(opening.current_ab) > 1e-12 else 1.0
-    loads = _switched_loads(ctx, opening, power, sag)
+    loads = _switched_loads_once(ctx, opening, power, sag)
     shorted = _shorted_chains(state, opening.floating_nets)
     if shorted:
         # A short on the switched side: Ohm's law does not apply to the diode;

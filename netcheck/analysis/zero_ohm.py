@@ -119,6 +119,8 @@ class ZeroOhm:
         tree less the other classes' subtrees, see ``BlockTree``).
         """
         block = self.tree.block_of[branch.key]
+        if len(self.tree.edges[block]) == 1:
+            return self._bridge_sides(block, branch)
         part, sizes = self._partition(block, branch)
         end_a, end_b = part[branch.a], part[branch.b]
         if end_a == end_b:
@@ -126,6 +128,28 @@ class ZeroOhm:
         if sizes[end_a] < sizes[end_b]:
             return self._class_nets(block, part, end_a), "a"
         return self._class_nets(block, part, end_b), "b"
+
+    def _bridge_sides(self, block: int, branch: Branch) -> tuple[set[str], str]:
+        """``_tree_sides`` of a bridge: its lower end's search subtree, or the rest.
+
+        Nothing below a bridge reaches back above it, so every child of its
+        lower end hangs below it: the lower side is one slice of ``pre``.
+        """
+        tree = self.tree
+        head = tree.heads[block]
+        lower, end_lower = (branch.b, "b") if head == branch.a else (branch.a, "a")
+        start = tree.order[lower]
+        stop = start + tree.size[lower]
+        root = tree.root[head]
+        first = tree.order[root]
+        last = first + tree.size[root]
+        upper = (last - first) - (stop - start)
+        lower_wins = stop - start < upper if end_lower == "a" else stop - start <= upper
+        if lower_wins:
+            return set(tree.pre[start:stop]), end_lower
+        nets = set(tree.pre[first:start])
+        nets.update(tree.pre[stop:last])
+        return nets, "b" if end_lower == "a" else "a"
 
     def _partition(
         self, block: int, branch: Branch

@@ -4,8 +4,9 @@ No outside source: each whole design is analysed twice, once as shipped and
 once with the former code patched in (verbatim but for its home): sides
 searched edge by edge, every cut-off region and solve worked out afresh for
 the element's whole floating side, every element analysed on its own (not
-once per parallel bundle), and series marking by ``dataclasses.replace``.
-Every element's analysis must be equal, field for field (floats exactly).
+once per parallel bundle, its loads not once per chain), and series marking
+by ``dataclasses.replace``. Every element's analysis must be equal, field for
+field (floats exactly).
 Designs: every rule case, the samples, the bench's shapes (series chains,
 parallel bundles and seal-ins, one rail, PLC cards, mixed) and a ring of
 contacts with a main pole among pushbuttons.
@@ -96,6 +97,10 @@ def _each_alone(shared, *args):  # type: ignore[no-untyped-def]
     return elements_module._analyse_dc(*args)
 
 
+def _loads_alone(ctx, opening, power, sag):  # type: ignore[no-untyped-def]
+    return elements_module._switched_loads(ctx, opening, power, sag)
+
+
 def _both(netlist, monkeypatch):  # type: ignore[no-untyped-def]
     shipped = analyse(build_graph(netlist)).elements
     with monkeypatch.context() as patch:
@@ -103,6 +108,7 @@ def _both(netlist, monkeypatch):  # type: ignore[no-untyped-def]
         patch.setattr(elements_module, "mark_series", _former_mark_series)
         patch.setattr(ZeroOhm, "sides", _searched)
         patch.setattr(elements_module, "_analyse_parallel", _each_alone)
+        patch.setattr(elements_module, "_switched_loads_once", _loads_alone)
         former = analyse(build_graph(netlist)).elements
     return shipped, former
 

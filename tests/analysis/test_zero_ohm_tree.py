@@ -129,14 +129,19 @@ def _chains(rng: random.Random):
 
 
 def _ties(rng: random.Random):
-    """Mirror-image halves, so both sides of the middle contacts hold as many."""
+    """Mirror-image halves, so both sides of the middle contacts hold as many.
+
+    Listed in random order, so the search starts on either side of them.
+    """
     half = rng.randint(1, 8)
-    branches = [_branch("mid", "A0", "B0")]
+    ends = ("A0", "B0") if rng.random() < 0.5 else ("B0", "A0")
+    branches = [_branch("mid", *ends)]
     if rng.random() < 0.5:
-        branches.append(_branch("mid2", "A0", "B0"))
+        branches.append(_branch("mid2", *ends))
     for side in "AB":
         for i in range(half):
             branches.append(_branch(f"{side}{i}", f"{side}{i}", f"{side}{i + 1}"))
+    rng.shuffle(branches)
     return branches, []
 
 
@@ -189,10 +194,13 @@ def test_a_chain_side_is_what_hangs_below_each_contact() -> None:
     assert zero.sides("k1", set()) == ({"P", "L"}, "a")  # 2 nets against 3
 
 
-def test_a_tie_goes_to_b() -> None:
+@pytest.mark.parametrize("first", ["x", "y", "k"])
+def test_a_tie_goes_to_b(first: str) -> None:
+    # Whichever net the search starts from (A's side, B's side).
     branches = [
         _branch("k", "A", "B"),
         _branch("x", "A", "A1"),
         _branch("y", "B", "B1"),
     ]
+    branches.sort(key=lambda b: b.key != first)
     assert ZeroOhm(branches).sides("k", set()) == ({"B", "B1"}, "b")
