@@ -82,9 +82,9 @@ class BlockTree:
     pre: list[str] = field(default_factory=list)
     order: dict[str, int] = field(default_factory=dict)
     size: dict[str, int] = field(default_factory=dict)
-    root: dict[str, str] = field(default_factory=dict)  # net -> its search's root
     below: dict[str, list[str]] = field(default_factory=dict)
     heads: list[str] = field(default_factory=list)  # block -> head net
+    roots: list[str] = field(default_factory=list)  # block -> its search's root
     edges: list[list[str]] = field(default_factory=list)  # block -> edge keys
     block_of: dict[str, int] = field(default_factory=dict)  # edge key -> block
 
@@ -112,7 +112,6 @@ def _search(
     order, pre, low = tree.order, tree.pre, {root: len(tree.pre)}
     order[root] = len(pre)
     pre.append(root)
-    tree.root[root] = root
     edges: list[str] = []
     stack: list[tuple[str, str | None, Iterator[tuple[str, str]]]] = [
         (root, None, iter(adjacency.get(root, ())))
@@ -122,31 +121,36 @@ def _search(
         for edge, other in pairs:
             if edge == via or other == node:
                 continue
-            if other not in order:
+            seen = order.get(other)
+            if seen is None:
                 order[other] = low[other] = len(pre)
                 pre.append(other)
-                tree.root[other] = root
                 edges.append(edge)
                 stack.append((other, edge, iter(adjacency.get(other, ()))))
                 break
-            if order[other] < order[node]:  # back to an ancestor (or a twin edge)
+            if seen < order[node]:  # back to an ancestor (or a twin edge)
                 edges.append(edge)
-                low[node] = min(low[node], order[other])
+                if seen < low[node]:
+                    low[node] = seen
         else:
             stack.pop()
             tree.size[node] = len(pre) - order[node]
             if not stack:
                 continue
             parent = stack[-1][0]
-            low[parent] = min(low[parent], low[node])
+            if low[node] < low[parent]:
+                low[parent] = low[node]
             if low[node] >= order[parent]:  # parent cuts node's subtree off
                 tree.below.setdefault(parent, []).append(node)
-                _close_block(tree, edges, via, parent)
+                _close_block(tree, edges, via, parent, root)
 
 
-def _close_block(tree: BlockTree, edges: list[str], via: object, head: str) -> None:
+def _close_block(
+    tree: BlockTree, edges: list[str], via: object, head: str, root: str
+) -> None:
     index = len(tree.heads)
     tree.heads.append(head)
+    tree.roots.append(root)
     block = []
     while True:
         edge = edges.pop()

@@ -3,6 +3,9 @@
 from __future__ import annotations
 
 from collections.abc import Container, Mapping
+from typing import NamedTuple
+
+import pint
 
 from netcheck.alloc import collector_paused, is_loaded
 from netcheck.analysis.constants import T95_PER_TAU
@@ -105,10 +108,22 @@ def _switched_loads(
     return loads
 
 
-def _switched_loads_once(
+class _Switched(NamedTuple):
+    """The loads an element switches and what its analysis reads of them alone."""
+
+    loads: tuple[SwitchedLoad, ...]
+    category: str | None
+    tau: pint.Quantity | None
+    t95: pint.Quantity | None
+    energy: pint.Quantity
+    suppression: tuple[Suppressor, ...]
+    missing: tuple[str, ...]
+
+
+def _switched_once(
     ctx: DomainContext, opening: Opening, power: bool, sag: float
-) -> tuple[SwitchedLoad, ...]:
-    """``_switched_loads``, once per state for the same loads, flag and sag.
+) -> _Switched:
+    """``_switched``, once per state for the same loads, flag and sag.
 
     The 30 contacts of an interlock chain switch the same coil at the same
     current. Kept in ``state.cache``: besides its key it reads only the state
@@ -121,8 +136,30 @@ def _switched_loads_once(
     key = (opening.switched, power, sag)
     found = memo.get(key)
     if found is None:
-        found = memo[key] = tuple(_switched_loads(ctx, opening, power, sag))
+        found = memo[key] = _switched(ctx, opening, power, sag)
     return found  # type: ignore[no-any-return]
+
+
+def _switched(
+    ctx: DomainContext, opening: Opening, power: bool, sag: float
+) -> _Switched:
+    loads = tuple(_switched_loads(ctx, opening, power, sag))
+    taus = [
+        ld.facts.time_constant for ld in loads if ld.facts.time_constant is not None
+    ]
+    tau = max(taus) if taus else (quantity(0.0, "s") if loads else None)
+    energies = [ld.energy for ld in loads if ld.energy is not None]
+    return _Switched(
+        loads,
+        most_demanding([ld.category for ld in loads]),
+        tau,
+        # Floats, then one quantity each: tau is in s and every energy in J
+        # (load_facts, _switched_loads), so these equal pint's own products.
+        quantity(T95_PER_TAU * si(tau, "s"), "s") if tau is not None else None,
+        quantity(sum((si(e, "J") for e in energies), 0.0), "J"),
+        tuple(s for ld in loads for s in ld.suppressors),
+        tuple(sorted({m for ld in loads for m in ld.facts.missing})),
+    )
 
 
 def _rated_as_power_device(state: DomainState, component: Component) -> bool:
@@ -228,7 +265,7 @@ def _analyse_dc(
     current, supply_ref = _sag(state, opening.current_ab)
     # The loads break at the sagged current too: ½·L·I² with I = E/(R + r_int).
     sag = abs(current / opening.current_ab) if abs(opening.current_ab) > 1e-12 else 1.0
-    loads = _switched_loads_once(ctx, opening, power, sag)
+    switched = _switched_once(ctx, opening, power, sag)
     shorted = _shorted_chains(state, opening.floating_nets)
     if shorted:
         # A short on the switched side: Ohm's law does not apply to the diode;
@@ -236,11 +273,6 @@ def _analyse_dc(
         drop = min(chain_drop(state, chain) for chain in shorted)
         bounded = prospective_current(state, drop)
         current = bounded if bounded is not None else current
-    taus = [
-        ld.facts.time_constant for ld in loads if ld.facts.time_constant is not None
-    ]
-    tau = max(taus) if taus else (quantity(0.0, "s") if loads else None)
-    energies = [ld.energy for ld in loads if ld.energy is not None]
     inlet = branch.a if opening.current_ab >= 0 else branch.b
     across = suppressors_between(
         ctx.chains,
@@ -252,8 +284,6 @@ def _analyse_dc(
         state.currents,
         source=inlet,
     )
-    suppression = tuple(s for ld in loads for s in ld.suppressors) + tuple(across)
-    missing = tuple(sorted({m for ld in loads for m in ld.facts.missing}))
     unknown = _unknown_resistance(state, opening.floating_nets)
     supply = state.domain.supplies[0] if state.domain.supplies else None
     return ElementAnalysis(
@@ -263,21 +293,19 @@ def _analyse_dc(
         supply="dc",
         voltage=quantity(abs(opening.voltage_ab), "V"),
         current=quantity(abs(current), "A"),
-        loads=tuple(loads),
-        load_category=most_demanding([ld.category for ld in loads]),
-        time_constant=tau,
-        # Floats, then one quantity each: tau is in s and every energy in J
-        # (load_facts, _switched_loads), so these equal pint's own products.
-        t95=quantity(T95_PER_TAU * si(tau, "s"), "s") if tau is not None else None,
-        energy=quantity(sum((si(e, "J") for e in energies), 0.0), "J"),
-        suppression=suppression,
+        loads=switched.loads,
+        load_category=switched.category,
+        time_constant=switched.tau,
+        t95=switched.t95,
+        energy=switched.energy,
+        suppression=switched.suppression + tuple(across),
         bypass=opening.bypass,
         direction=(
             1 if opening.current_ab > 1e-9 else -1 if opening.current_ab < -1e-9 else 0
         ),
         bidirectional=bool(supply is not None and supply.value("bidirectional")),
         supply_ref=supply_ref,
-        missing=missing + tuple(f"{r}: resistance" for r in unknown),
+        missing=switched.missing + tuple(f"{r}: resistance" for r in unknown),
         short_circuit=bool(shorted),
     )
 

@@ -25,22 +25,22 @@ class ZeroOhm:
         """
         self.adjacent: dict[str, list[tuple[str, str]]] = {}
         self.by_key: dict[str, Branch] = {}
-        self.shunt_keys: set[str] = set()
+        adjacent = self.adjacent
+        for branch in branches:
+            key, a, b = branch.key, branch.a, branch.b
+            self.by_key[key] = branch
+            adjacent.setdefault(a, []).append((key, b))
+            adjacent.setdefault(b, []).append((key, a))
+        self._shunts: dict[str, Branch] = {s.key: s for s in shunts}
+        self.shunt_keys: set[str] = set(self._shunts)
         # Branches and shunts together: the multigraph whose blocks are the
         # bypass sets (parallel branches make a cycle).
-        joined: dict[str, list[tuple[str, str]]] = {}
-        self._shunts: dict[str, Branch] = {}
-        for branch in shunts:
-            self.shunt_keys.add(branch.key)
-            self._shunts[branch.key] = branch
-            joined.setdefault(branch.a, []).append((branch.key, branch.b))
-            joined.setdefault(branch.b, []).append((branch.key, branch.a))
-        for branch in branches:
-            self.by_key[branch.key] = branch
-            self.adjacent.setdefault(branch.a, []).append((branch.key, branch.b))
-            self.adjacent.setdefault(branch.b, []).append((branch.key, branch.a))
-            joined.setdefault(branch.a, []).append((branch.key, branch.b))
-            joined.setdefault(branch.b, []).append((branch.key, branch.a))
+        joined = adjacent
+        if self._shunts:
+            joined = {net: list(pairs) for net, pairs in adjacent.items()}
+            for key, shunt in self._shunts.items():
+                joined.setdefault(shunt.a, []).append((key, shunt.b))
+                joined.setdefault(shunt.b, []).append((key, shunt.a))
         self.tree: BlockTree = block_tree(joined)
         self.block_of: dict[str, int] = {}
         self.blocks: list[list[str]] = []
@@ -140,7 +140,7 @@ class ZeroOhm:
         lower, end_lower = (branch.b, "b") if head == branch.a else (branch.a, "a")
         start = tree.order[lower]
         stop = start + tree.size[lower]
-        root = tree.root[head]
+        root = tree.roots[block]
         first = tree.order[root]
         last = first + tree.size[root]
         upper = (last - first) - (stop - start)
@@ -195,7 +195,7 @@ class ZeroOhm:
                 sizes[index] += tree.hanging(net)
         own = part[head]
         others = sum(sizes) - sizes[own]
-        sizes[own] = tree.size[tree.root[head]] - others
+        sizes[own] = tree.size[tree.roots[block]] - others
         return sizes
 
     def _class_nets(self, block: int, part: dict[str, int], index: int) -> set[str]:
@@ -217,7 +217,7 @@ class ZeroOhm:
             if at != index:
                 cut.append((order[net], order[net] + 1))
                 cut.extend((order[c], order[c] + size[c]) for c in below.get(net, ()))
-        root = tree.root[head]
+        root = tree.roots[block]
         start, end = order[root], order[root] + size[root]
         for low, high in sorted(cut):
             nets.update(pre[start:low])

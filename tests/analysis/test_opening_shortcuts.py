@@ -98,7 +98,7 @@ def _each_alone(shared, *args):  # type: ignore[no-untyped-def]
 
 
 def _loads_alone(ctx, opening, power, sag):  # type: ignore[no-untyped-def]
-    return elements_module._switched_loads(ctx, opening, power, sag)
+    return elements_module._switched(ctx, opening, power, sag)
 
 
 def _both(netlist, monkeypatch):  # type: ignore[no-untyped-def]
@@ -108,7 +108,7 @@ def _both(netlist, monkeypatch):  # type: ignore[no-untyped-def]
         patch.setattr(elements_module, "mark_series", _former_mark_series)
         patch.setattr(ZeroOhm, "sides", _searched)
         patch.setattr(elements_module, "_analyse_parallel", _each_alone)
-        patch.setattr(elements_module, "_switched_loads_once", _loads_alone)
+        patch.setattr(elements_module, "_switched_once", _loads_alone)
         former = analyse(build_graph(netlist)).elements
     return shipped, former
 
