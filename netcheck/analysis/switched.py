@@ -4,6 +4,7 @@ from __future__ import annotations
 
 from collections.abc import Mapping
 from dataclasses import dataclass, field
+from itertools import repeat
 
 import pint
 
@@ -243,7 +244,8 @@ def open_element(
     side, end = zero.sides(branch.key, set(bypass))
     if not side:
         return Opening(0.0, 0.0, (), bypass, frozenset())
-    flow = sum(injection.get(net, 0.0) for net in side)
+    # Each net's injection in the side's own order, as a generator would.
+    flow = sum(map(injection.get, side, repeat(0.0, len(side))))
     current_ab = flow if end == "b" else -flow
     group = state.group[branch.a]
     floating, searched = _floating_side(state, side, terminals, group)

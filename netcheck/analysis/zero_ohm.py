@@ -70,7 +70,12 @@ class ZeroOhm:
                     for k in self.blocks[block]
                     if k in self.by_key and self.by_key[k].role == SWITCH
                 ]
-            found = self._bypass[key] = tuple(k for k in switches if k != key)
+            if key in switches:  # the others, in order: two slices
+                at = switches.index(key)
+                found = tuple(switches[:at]) + tuple(switches[at + 1 :])
+            else:
+                found = tuple(switches)
+            self._bypass[key] = found
         return found
 
     def bypass_through_load(self, key: str) -> bool:
