@@ -163,12 +163,19 @@ def _switched(
 
 
 def _rated_as_power_device(state: DomainState, component: Component) -> bool:
-    """``rated_as_power_device``, once per component (one per pole before)."""
+    """``rated_as_power_device``, once per merged values (one per pole before).
+
+    It reads nothing but ``component.values``, and components of one part
+    without inline overrides share that dict: 20 pushbuttons of one part are
+    judged once. The memo holds each dict it is keyed on by identity, so no
+    other dict can take its id while the state lives.
+    """
     memo: dict = state.cache.setdefault("power-device", {})  # type: ignore[assignment]
-    rated = memo.get(component.ref)
-    if rated is None:
-        rated = memo[component.ref] = rated_as_power_device(component)
-    return rated  # type: ignore[no-any-return]
+    values = component.values
+    found = memo.get(id(values))
+    if found is None:
+        found = memo[id(values)] = (values, rated_as_power_device(component))
+    return found[1]  # type: ignore[no-any-return]
 
 
 def _is_power(state: DomainState, branch: Branch) -> bool:

@@ -4,12 +4,12 @@ No outside source: each whole design is analysed twice, once as shipped and
 once with the former code patched in (verbatim but for its home): sides
 searched edge by edge, every cut-off region and solve worked out afresh for
 the element's whole floating side, every element analysed on its own (not
-once per parallel bundle, its loads not once per chain), and series marking
-by ``dataclasses.replace``. Every element's analysis must be equal, field for
-field (floats exactly).
-Designs: every rule case, the samples, the bench's shapes (series chains,
-parallel bundles and seal-ins, one rail, PLC cards, mixed) and a ring of
-contacts with a main pole among pushbuttons.
+once per parallel bundle, its loads not once per chain, its power flag not
+once per part), and series marking by ``dataclasses.replace``. Every
+element's analysis must be equal, field for field (floats exactly). Designs:
+every rule case, the samples, the bench's shapes (series chains, parallel
+bundles and seal-ins, one rail, PLC cards, mixed) and a ring of contacts with
+a main pole among pushbuttons.
 """
 
 from __future__ import annotations
@@ -25,6 +25,7 @@ from netcheck.analysis import elements as elements_module
 from netcheck.analysis import switched
 from netcheck.analysis.circuit import solve_dc
 from netcheck.analysis.elements import analyse
+from netcheck.analysis.loads import rated_as_power_device
 from netcheck.analysis.zero_ohm import ZeroOhm
 from netcheck.errors import InputError
 from netcheck.graph import build_graph
@@ -101,6 +102,10 @@ def _loads_alone(ctx, opening, power, sag):  # type: ignore[no-untyped-def]
     return elements_module._switched(ctx, opening, power, sag)
 
 
+def _power_alone(state, component):  # type: ignore[no-untyped-def]
+    return rated_as_power_device(component)
+
+
 def _both(netlist, monkeypatch):  # type: ignore[no-untyped-def]
     shipped = analyse(build_graph(netlist)).elements
     with monkeypatch.context() as patch:
@@ -109,6 +114,7 @@ def _both(netlist, monkeypatch):  # type: ignore[no-untyped-def]
         patch.setattr(ZeroOhm, "sides", _searched)
         patch.setattr(elements_module, "_analyse_parallel", _each_alone)
         patch.setattr(elements_module, "_switched_once", _loads_alone)
+        patch.setattr(elements_module, "_rated_as_power_device", _power_alone)
         former = analyse(build_graph(netlist)).elements
     return shipped, former
 
