@@ -3,12 +3,8 @@
 from __future__ import annotations
 
 from collections.abc import Container, Mapping
-from typing import NamedTuple
-
-import pint
 
 from netcheck.alloc import collector_paused, is_loaded
-from netcheck.analysis.constants import T95_PER_TAU
 from netcheck.analysis.domain import (
     DomainState,
     chain_drop,
@@ -16,34 +12,28 @@ from netcheck.analysis.domain import (
     shunts,
     solve_domain,
 )
+from netcheck.analysis.element_loads import is_power, switched_once
 from netcheck.analysis.found_suppressors import (
     DomainContext,
     load_suppressors,
     suppressors_between,
 )
 from netcheck.analysis.loads import (
-    category_for,
-    is_inductive,
     load_facts,
-    most_demanding,
-    rated_as_power_device,
 )
 from netcheck.analysis.result import Analysis, LoadInfo
 from netcheck.analysis.series import changeovers, mark_series
-from netcheck.analysis.si import quantity, si
+from netcheck.analysis.si import quantity
 from netcheck.analysis.suppression import Chain, find_chains
 from netcheck.analysis.switched import (
     ElementAnalysis,
-    Opening,
     Suppressor,
-    SwitchedLoad,
     net_injections,
     open_element,
     with_fields,
 )
 from netcheck.analysis.zero_ohm import ZeroOhm
 from netcheck.graph import COIL, CONDUCTOR, LOAD, SUPPLY, SWITCH, Branch, Domain, Graph
-from netcheck.model import Component
 
 __all__ = ["Analysis", "LoadInfo", "analyse"]
 
@@ -67,123 +57,6 @@ def _wire_map(domain: Domain) -> dict[str, str]:
 
 def _degrees(graph: Graph) -> dict[str, int]:
     return {net: len(conns) for net, conns in graph.connections.items()}
-
-
-def _switched_loads(
-    ctx: DomainContext, opening: Opening, power: bool, sag: float = 1.0
-) -> list[SwitchedLoad]:
-    """The loads the element switches, at the current it breaks.
-
-    ``sag`` scales the ideal-rail solution for the supply's internal resistance
-    (linear loads: every current and load voltage by the same factor).
-    """
-    state = ctx.state
-    assert state is not None
-    loads = []
-    # DomainState.net_potential, inlined: a few reads per switched load.
-    potentials, group = state.potentials, state.group
-    for key in opening.switched:
-        branch = state.branch_by_key[key]
-        facts = state.facts[key]
-        current = sag * abs(state.currents.get(key, 0.0))
-        voltage = sag * abs(
-            potentials.get(group[branch.a], 0.0) - potentials.get(group[branch.b], 0.0)
-        )
-        energy = None
-        if facts.inductance is not None:
-            # pint's (0.5·L·I²).to("J") in floats: L is in H (load_facts), the
-            # H·A² → J factor is exactly 1.0, so the product is bit-identical.
-            energy = quantity(0.5 * si(facts.inductance, "H") * current**2, "J")
-        loads.append(
-            SwitchedLoad(
-                facts,
-                quantity(current, "A"),
-                quantity(voltage, "V"),
-                category_for(facts.type, power),
-                energy,
-                is_inductive(facts),
-                load_suppressors(ctx, branch),
-            )
-        )
-    return loads
-
-
-class _Switched(NamedTuple):
-    """The loads an element switches and what its analysis reads of them alone."""
-
-    loads: tuple[SwitchedLoad, ...]
-    category: str | None
-    tau: pint.Quantity | None
-    t95: pint.Quantity | None
-    energy: pint.Quantity
-    suppression: tuple[Suppressor, ...]
-    missing: tuple[str, ...]
-
-
-def _switched_once(
-    ctx: DomainContext, opening: Opening, power: bool, sag: float
-) -> _Switched:
-    """``_switched``, once per state for the same loads, flag and sag.
-
-    The 30 contacts of an interlock chain switch the same coil at the same
-    current. Kept in ``state.cache``: besides its key it reads only the state
-    (its loads' facts, currents and potentials, and their suppressors, which
-    ``load_suppressors`` keeps there too).
-    """
-    state = ctx.state
-    assert state is not None
-    memo: dict = state.cache.setdefault("switched-loads", {})  # type: ignore[assignment]
-    key = (opening.switched, power, sag)
-    found = memo.get(key)
-    if found is None:
-        found = memo[key] = _switched(ctx, opening, power, sag)
-    return found  # type: ignore[no-any-return]
-
-
-def _switched(
-    ctx: DomainContext, opening: Opening, power: bool, sag: float
-) -> _Switched:
-    loads = tuple(_switched_loads(ctx, opening, power, sag))
-    taus = [
-        ld.facts.time_constant for ld in loads if ld.facts.time_constant is not None
-    ]
-    tau = max(taus) if taus else (quantity(0.0, "s") if loads else None)
-    energies = [ld.energy for ld in loads if ld.energy is not None]
-    return _Switched(
-        loads,
-        most_demanding([ld.category for ld in loads]),
-        tau,
-        # Floats, then one quantity each: tau is in s and every energy in J
-        # (load_facts, _switched_loads), so these equal pint's own products.
-        quantity(T95_PER_TAU * si(tau, "s"), "s") if tau is not None else None,
-        quantity(sum((si(e, "J") for e in energies), 0.0), "J"),
-        tuple(s for ld in loads for s in ld.suppressors),
-        tuple(sorted({m for ld in loads for m in ld.facts.missing})),
-    )
-
-
-def _rated_as_power_device(state: DomainState, component: Component) -> bool:
-    """``rated_as_power_device``, once per merged values (one per pole before).
-
-    It reads nothing but ``component.values``, and components of one part
-    without inline overrides share that dict: 20 pushbuttons of one part are
-    judged once. The memo holds each dict it is keyed on by identity, so no
-    other dict can take its id while the state lives.
-    """
-    memo: dict = state.cache.setdefault("power-device", {})  # type: ignore[assignment]
-    values = component.values
-    found = memo.get(id(values))
-    if found is None:
-        found = memo[id(values)] = (values, rated_as_power_device(component))
-    return found[1]  # type: ignore[no-any-return]
-
-
-def _is_power(state: DomainState, branch: Branch) -> bool:
-    """Whether the element's loads need the power categories (a main pole)."""
-    assert branch.element is not None
-    return (
-        branch.component.kind == "contactor" and len(branch.element.a) == 1
-    ) or _rated_as_power_device(state, branch.component)
 
 
 def _analyse_parallel(
@@ -210,7 +83,7 @@ def _analyse_parallel(
     if block is None or zero.bypass_through_load(key):
         return _analyse_dc(ctx, branch, zero, injection, terminals)
     assert ctx.state is not None
-    twin = (block, branch.a, branch.b, _is_power(ctx.state, branch))
+    twin = (block, branch.a, branch.b, is_power(ctx.state, branch))
     first = shared.get(twin)
     if first is None:
         first = shared[twin] = _analyse_dc(ctx, branch, zero, injection, terminals)
@@ -268,11 +141,11 @@ def _analyse_dc(
         zero = _zero_ohm(ctx.domain, state)
         injection = net_injections(state)
     opening = open_element(state, zero, injection, terminals, branch)
-    power = _is_power(state, branch)
+    power = is_power(state, branch)
     current, supply_ref = _sag(state, opening.current_ab)
     # The loads break at the sagged current too: ½·L·I² with I = E/(R + r_int).
     sag = abs(current / opening.current_ab) if abs(opening.current_ab) > 1e-12 else 1.0
-    switched = _switched_once(ctx, opening, power, sag)
+    switched = switched_once(ctx, opening, power, sag)
     shorted = _shorted_chains(state, opening.floating_nets)
     if shorted:
         # A short on the switched side: Ohm's law does not apply to the diode;

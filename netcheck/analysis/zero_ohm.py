@@ -161,25 +161,22 @@ class ZeroOhm:
     ) -> tuple[dict[str, int], list[int]]:
         """Class of each net of ``block`` with ``branch`` and its switches open.
 
-        With ``branch`` a switching element the classes are the block's own
-        (the same for all its switching elements), kept; with a conductor they
-        are worked out for it alone.
+        ``block`` has two edges or more (a bridge is ``_bridge_sides``). With
+        ``branch`` a switching element the classes are the block's own (the
+        same for all its switching elements), kept; with a conductor they are
+        worked out for it alone.
         """
         is_switch = branch.role == SWITCH
         if is_switch and block in self._parts:
             return self._parts[block]
-        edges = self.tree.edges[block]
-        if len(edges) == 1:
-            part = {branch.a: 0, branch.b: 1}
-        else:
-            kept = []
-            for key in edges:
-                other = self.by_key.get(key)
-                if other is not None and other.role != SWITCH and key != branch.key:
-                    kept.append(other)
-            part = _classes(self._block_nets(block), kept)
+        kept = []
+        for key in self.tree.edges[block]:
+            other = self.by_key.get(key)
+            if other is not None and other.role != SWITCH and key != branch.key:
+                kept.append(other)
+        part = _classes(self._block_nets(block), kept)
         found = part, self._class_sizes(block, part)
-        if is_switch and len(edges) > 1:
+        if is_switch:
             self._parts[block] = found
         return found
 

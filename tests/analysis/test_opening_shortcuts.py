@@ -21,8 +21,8 @@ from pathlib import Path
 import pytest
 from helpers import write_design
 
+from netcheck.analysis import element_loads, switched
 from netcheck.analysis import elements as elements_module
-from netcheck.analysis import switched
 from netcheck.analysis.circuit import solve_dc
 from netcheck.analysis.elements import analyse
 from netcheck.analysis.loads import rated_as_power_device
@@ -99,7 +99,7 @@ def _each_alone(shared, *args):  # type: ignore[no-untyped-def]
 
 
 def _loads_alone(ctx, opening, power, sag):  # type: ignore[no-untyped-def]
-    return elements_module._switched(ctx, opening, power, sag)
+    return element_loads._switched(ctx, opening, power, sag)
 
 
 def _power_alone(state, component):  # type: ignore[no-untyped-def]
@@ -113,8 +113,8 @@ def _both(netlist, monkeypatch):  # type: ignore[no-untyped-def]
         patch.setattr(elements_module, "mark_series", _former_mark_series)
         patch.setattr(ZeroOhm, "sides", _searched)
         patch.setattr(elements_module, "_analyse_parallel", _each_alone)
-        patch.setattr(elements_module, "_switched_once", _loads_alone)
-        patch.setattr(elements_module, "_rated_as_power_device", _power_alone)
+        patch.setattr(elements_module, "switched_once", _loads_alone)
+        patch.setattr(element_loads, "_rated_as_power_device", _power_alone)
         former = analyse(build_graph(netlist)).elements
     return shipped, former
 
