@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import enum
 import hashlib
+import math
 import string
 from collections.abc import Mapping
 from dataclasses import dataclass, field
@@ -43,23 +44,28 @@ class Severity(enum.IntEnum):
         return cls[text.upper()]
 
 
-# Formatted quantities by (units, magnitude type, magnitude): a heavy report
-# words the same few values thousands of times. Zero is left out (0.0 and
-# -0.0 are one key but print differently).
-_FORMATTED: dict[tuple[Any, type, Any], str] = {}
+# Formatted quantities by (units, magnitude type, magnitude, sign of zero): a
+# heavy report words the same few values thousands of times. 0.0 and -0.0 are
+# one dict key but print differently, so a zero's key holds its sign too.
+_FORMATTED: dict[tuple[Any, type, Any, bool], str] = {}
 
 
 def _quantity_text(value: pint.Quantity) -> str:
     magnitude = value._magnitude
-    if type(magnitude) not in (float, int) or not magnitude:
+    if type(magnitude) not in (float, int):
         return format_quantity(value)
-    key = (value._units, type(magnitude), magnitude)
+    key = (value._units, type(magnitude), magnitude, _negative_zero(magnitude))
     text = _FORMATTED.get(key)
     if text is None:
         if len(_FORMATTED) > 100_000:
             _FORMATTED.clear()
         text = _FORMATTED[key] = format_quantity(value)
     return text
+
+
+def _negative_zero(magnitude: float | int) -> bool:
+    """Whether ``magnitude`` is -0.0 (equal to 0.0 as a key, printed apart)."""
+    return not magnitude and math.copysign(1.0, magnitude) < 0
 
 
 # The default of Finding.values: a fresh dict per finding, as field(default_factory).

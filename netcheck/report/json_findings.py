@@ -108,9 +108,9 @@ def _values(values: Mapping[str, Any], pad: str, write: Any) -> str:
 # Written members ("name": entry) by (pad, name, units, magnitude type,
 # magnitude): a heavy report writes the same few quantities thousands of
 # times. These are all a quantity's entry reads (quantity_dict looks at its
-# units and float or int magnitude only). Zero is left out: 0.0 and -0.0 are
-# one key but write differently.
-_WRITTEN: dict[tuple[str, str, Any, type, Any], str] = {}
+# units and float or int magnitude only). 0.0 and -0.0 are one dict key but
+# write differently, so a zero's key holds its sign too.
+_WRITTEN: dict[tuple[str, str, Any, type, Any, bool], str] = {}
 
 
 def _member(name: Any, value: Any, pad: str, write: Any) -> str:
@@ -124,8 +124,9 @@ def _member(name: Any, value: Any, pad: str, write: Any) -> str:
         )
     if type(name) is str and isinstance(value, pint.Quantity):
         magnitude = value._magnitude
-        if type(magnitude) in (float, int) and magnitude:
-            key = (pad, name, value._units, type(magnitude), magnitude)
+        if type(magnitude) in (float, int):
+            negative_zero = not magnitude and math.copysign(1.0, magnitude) < 0
+            key = (pad, name, value._units, type(magnitude), magnitude, negative_zero)
             text = _WRITTEN.get(key)
             if text is None:
                 if len(_WRITTEN) > 100_000:

@@ -135,3 +135,22 @@ def test_render_json_uses_the_direct_writer_and_agrees() -> None:
     text = render_json(report, load_catalogue())
     findings_part = _generic(report.findings, "\n  ")
     assert f'"findings": {findings_part},' in text
+
+
+def test_zeros_of_either_sign_keep_their_own_entries() -> None:
+    # IEEE 754: 0.0 == -0.0, so a cache keyed by the number alone would serve
+    # one for the other; both are cached now and must still write apart.
+    for order in ((0.0, -0.0, 0), (-0.0, 0.0, 0), (0, -0.0, 0.0)):
+        findings = tuple(_odd({"v": Q_(n, "V")}) for n in order)
+        _assert_same(findings)
+        _assert_same(findings)  # again, from the caches
+
+
+def test_zeros_of_either_sign_are_worded_apart() -> None:
+    from netcheck.findings import _quantity_text
+    from netcheck.units import format_quantity
+
+    for order in ((0.0, -0.0, 0), (-0.0, 0.0, 0)):
+        for n in order * 2:
+            assert _quantity_text(Q_(n, "A")) == format_quantity(Q_(n, "A"))
+    assert _quantity_text(Q_(-0.0, "A")) != _quantity_text(Q_(0.0, "A"))
