@@ -16,6 +16,7 @@ from __future__ import annotations
 
 from collections.abc import Iterator, Mapping, Sequence
 from dataclasses import dataclass, field, replace
+from functools import cached_property
 from typing import Any
 
 from netcheck.analysis.elements import Analysis, analyse
@@ -197,7 +198,7 @@ class Verifier:
         self, after: list[Finding], edits: list[Edit]
     ) -> dict[str, dict[str, str]]:
         added = {e.ref for e in edits if isinstance(e, AddComponent)}
-        before = {identity(f) for f in self.findings}
+        before = self._identities
         needs: dict[str, dict[str, str]] = {}
         for f in after:
             ref = f.element.split(":", 1)[0]
@@ -208,6 +209,16 @@ class Verifier:
                 if rating is not None:
                     needs.setdefault(ref, {})[rating[0]] = rating[1]
         return needs
+
+    @cached_property
+    def _identities(self) -> frozenset[tuple[str, str, str]]:
+        """The design's findings, as identities: worked out once, not per fix."""
+        return frozenset(identity(f) for f in self.findings)
+
+    @cached_property
+    def _standing(self) -> frozenset[tuple[str, str, str]]:
+        """Identities of the design's findings not waived."""
+        return frozenset(identity(f) for f in self.findings if f.waived is None)
 
     def passes(self, finding: Finding, edits: Sequence[Edit]) -> bool:
         """The finding is gone and no new error appears.
@@ -224,7 +235,7 @@ class Verifier:
         after, cut = result
         if self.locality is not None and not cut.decides(finding.element):
             return False
-        before = {identity(f) for f in self.findings if f.waived is None}
+        before = self._standing
         target = identity(finding)
         for other in after:
             if other.waived is not None:
