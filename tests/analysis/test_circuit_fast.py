@@ -120,15 +120,15 @@ def _same(ours: Solution, theirs: Solution) -> None:
     assert dict(ours.diode_state) == dict(theirs.diode_state)
 
 
-def _recorded_calls(monkeypatch: pytest.MonkeyPatch) -> list[tuple]:
+def _logged_calls(monkeypatch: pytest.MonkeyPatch) -> list[tuple]:
     calls: list[tuple] = []
 
-    def recording(nodes, fixed, resistors, diodes=()):  # type: ignore[no-untyped-def]
+    def logging_solve(nodes, fixed, resistors, diodes=()):  # type: ignore[no-untyped-def]
         calls.append((list(nodes), dict(fixed), list(resistors), list(diodes)))
         return solve_dc(nodes, fixed, resistors, diodes)
 
-    monkeypatch.setattr(domain, "solve_dc", recording)
-    monkeypatch.setattr(switched, "solve_dc", recording)
+    monkeypatch.setattr(domain, "solve_dc", logging_solve)
+    monkeypatch.setattr(switched, "solve_dc", logging_solve)
     for path in DESIGNS:
         try:
             netlist = load_design(path, display_base=path.parent)
@@ -166,7 +166,7 @@ def _check_all_paths(nodes, fixed, resistors, diodes) -> None:
 
 
 def test_every_circuit_of_the_cases_solves_as_the_plain_stamping_does(monkeypatch):
-    calls = _recorded_calls(monkeypatch)
+    calls = _logged_calls(monkeypatch)
     assert len(calls) > 200  # the cases do reach the solver
     assert any(diodes for *_rest, diodes in calls)
     for nodes, fixed, resistors, diodes in calls:
