@@ -20,6 +20,7 @@ __all__ = [
     "Severity",
     "Finding",
     "evolve",
+    "negative_zero",
     "fill_template",
     "fingerprint",
     "quantity_dict",
@@ -54,7 +55,7 @@ def _quantity_text(value: pint.Quantity) -> str:
     magnitude = value._magnitude
     if type(magnitude) not in (float, int):
         return format_quantity(value)
-    key = (value._units, type(magnitude), magnitude, _negative_zero(magnitude))
+    key = (value._units, type(magnitude), magnitude, negative_zero(magnitude))
     text = _FORMATTED.get(key)
     if text is None:
         if len(_FORMATTED) > 100_000:
@@ -63,7 +64,7 @@ def _quantity_text(value: pint.Quantity) -> str:
     return text
 
 
-def _negative_zero(magnitude: float | int) -> bool:
+def negative_zero(magnitude: float | int) -> bool:
     """Whether ``magnitude`` is -0.0 (equal to 0.0 as a key, printed apart)."""
     return not magnitude and math.copysign(1.0, magnitude) < 0
 

@@ -20,7 +20,7 @@ from typing import Any
 import pint
 
 from netcheck.catalogue import RuleMeta
-from netcheck.findings import Finding, quantity_dict
+from netcheck.findings import Finding, negative_zero, quantity_dict
 from netcheck.fixes.edits import edit_dict
 from netcheck.report import fix_names, references
 
@@ -125,8 +125,8 @@ def _member(name: Any, value: Any, pad: str, write: Any) -> str:
     if type(name) is str and isinstance(value, pint.Quantity):
         magnitude = value._magnitude
         if type(magnitude) in (float, int):
-            negative_zero = not magnitude and math.copysign(1.0, magnitude) < 0
-            key = (pad, name, value._units, type(magnitude), magnitude, negative_zero)
+            sign = negative_zero(magnitude)
+            key = (pad, name, value._units, type(magnitude), magnitude, sign)
             text = _WRITTEN.get(key)
             if text is None:
                 if len(_WRITTEN) > 100_000:
