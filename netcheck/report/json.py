@@ -32,7 +32,7 @@ from __future__ import annotations
 
 import json
 import math
-from collections.abc import Mapping
+from collections.abc import Callable, Mapping
 from typing import Any
 
 from netcheck import __version__
@@ -42,7 +42,7 @@ from netcheck.coverage import ElementStatus
 from netcheck.error_records import ErrorRecord
 from netcheck.findings import Finding
 from netcheck.report import CAUTION, Report, fix_dict, references, value_dicts
-from netcheck.report.json_findings import findings_text
+from netcheck.report.json_findings import write_findings
 
 __all__ = [
     "FORMAT",
@@ -53,6 +53,7 @@ __all__ = [
     "dump",
     "write",
     "Raw",
+    "Pieces",
 ]
 
 FORMAT = "netcheck-findings/1"
@@ -89,7 +90,9 @@ def _render(report: Report, catalogue: Mapping[str, RuleMeta]) -> str:
         "tool": {"name": "netcheck", "version": __version__, "caution": CAUTION},
         "files": list(report.files),
         # Written straight to text: the same as the finding_dicts, dumped.
-        "findings": Raw(findings_text(report.findings, catalogue, "\n  ")),
+        "findings": Pieces(
+            lambda pad, out: write_findings(report.findings, catalogue, pad, out)
+        ),
         "errors": [error_dict(e) for e in report.errors],
         "unverified": [unverified_dict(e) for e in report.unverified],
         "summary": report.summary(),
@@ -145,10 +148,25 @@ class Raw:
         self.text = text
 
 
+class Pieces:
+    """JSON text that ``write_to(pad, out)`` appends to ``dump``'s pieces.
+
+    For a long part of a document: its pieces go straight into the one list
+    the document is joined from, not into a string of their own first.
+    """
+
+    __slots__ = ("write_to",)
+
+    def __init__(self, write_to: Callable[[str, list[str]], None]) -> None:
+        self.write_to = write_to
+
+
 def write(value: Any, pad: str, out: list[str]) -> None:
     """Append ``value`` written at indentation ``pad`` (newline and spaces)."""
     if type(value) is Raw:
         out.append(value.text)
+    elif type(value) is Pieces:
+        value.write_to(pad, out)
     elif isinstance(value, str):
         out.append(_escape(value))
     elif value is None or value is True or value is False:

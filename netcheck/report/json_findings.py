@@ -1,12 +1,18 @@
 """The findings of the JSON report written straight to text, without dicts.
 
-``findings_text(findings, catalogue, pad)`` returns exactly what the generic
-writer (``netcheck.report.json.dump``) makes of the list
-``[finding_dict(f, catalogue.get(f.rule)) for f in findings]`` written at
-``pad``: the same keys in the same order, the same escaping, the same float
-reprs. A heavy report holds tens of thousands of findings of one shape, and
-building a dict per finding and per value, then walking them generically,
-costs more than the rest of the run's reporting together.
+``write_findings(findings, catalogue, pad, out)`` appends to ``out`` the
+pieces of exactly what the generic writer (``netcheck.report.json.dump``)
+makes of the list ``[finding_dict(f, catalogue.get(f.rule)) for f in
+findings]`` written at ``pad``: the same keys in the same order, the same
+escaping, the same float reprs. A heavy report holds tens of thousands of
+findings of one shape, and building a dict per finding and per value, then
+walking them generically, costs more than the rest of the run's reporting
+together.
+
+The pieces are mostly shared: the constant punctuation and keys, the written
+members of values (cached), and the findings' own strings where JSON needs no
+escape in them. Only the one final join copies the text, so a heavy report
+holds its text about once, not once per level of nesting.
 tests/report/test_json_findings.py compares the two paths on varied designs.
 """
 
@@ -24,7 +30,7 @@ from netcheck.findings import Finding, negative_zero, quantity_dict
 from netcheck.fixes.edits import edit_dict
 from netcheck.report import fix_names, references
 
-__all__ = ["findings_text"]
+__all__ = ["findings_text", "write_findings"]
 
 _escape = json.encoder.encode_basestring  # the ensure_ascii=False escaper
 
@@ -33,13 +39,49 @@ def findings_text(
     findings: Iterable[Finding], catalogue: Mapping[str, RuleMeta], pad: str
 ) -> str:
     """The JSON list of ``findings`` as ``dump`` writes it at ``pad``."""
+    out: list[str] = []
+    write_findings(findings, catalogue, pad, out)
+    return "".join(out)
+
+
+def write_findings(
+    findings: Iterable[Finding],
+    catalogue: Mapping[str, RuleMeta],
+    pad: str,
+    out: list[str],
+) -> None:
+    """Append the pieces of the JSON list of ``findings`` written at ``pad``."""
     from netcheck.report.json import write  # the generic writer, for rare values
 
     inner = pad + "  "
-    parts = [_finding(f, catalogue.get(f.rule), inner, write) for f in findings]
-    if not parts:
-        return "[]"
-    return "[" + inner + ("," + inner).join(parts) + pad + "]"
+    separator = "[" + inner
+    get = catalogue.get
+    for finding in findings:
+        out.append(separator)
+        _finding(finding, get(finding.rule), inner, write, out)
+        separator = "," + inner
+    out.append("[]" if separator[0] == "[" else pad + "]")
+
+
+def _string(text: str, out: list[str]) -> None:
+    """Append ``text`` as a JSON string, the object itself where it needs no escape.
+
+    ``encode_basestring`` escapes only quotes, backslashes and control
+    characters (below U+0020), none of which a printable string holds but
+    the first two.
+    """
+    if text.isprintable() and '"' not in text and "\\" not in text:
+        out += ('"', text, '"')
+    else:
+        out.append(_escape(text))
+
+
+def _nullable(value: Any, pad: str, write: Any, out: list[str]) -> None:
+    """Append ``value`` as ``_scalar`` writes it, a string as ``_string`` does."""
+    if type(value) is str:
+        _string(value, out)
+    else:
+        out.append(_scalar(value, pad, write))
 
 
 def _scalar(value: Any, pad: str, write: Any) -> str:
@@ -58,27 +100,62 @@ def _scalar(value: Any, pad: str, write: Any) -> str:
     return "".join(out)
 
 
-def _finding(finding: Finding, meta: RuleMeta | None, pad: str, write: Any) -> str:
-    """One finding as ``dump`` writes ``finding_dict(finding, meta)`` at ``pad``."""
+# Numbers as text: line and column numbers repeat across a report.
+_NUMBERS: dict[int, str] = {}
+
+
+def _number(value: int, pad: str, write: Any) -> str:
+    if type(value) is not int:
+        return _scalar(value, pad, write)
+    text = _NUMBERS.get(value)
+    if text is None:
+        if len(_NUMBERS) > 100_000:
+            _NUMBERS.clear()
+        text = _NUMBERS[value] = int.__repr__(value)
+    return text
+
+
+# The constant keys between a finding's members, by pad.
+_KEYS: dict[str, tuple[str, ...]] = {}
+
+
+def _keys(pad: str) -> tuple[str, ...]:
+    keys = _KEYS.get(pad)
+    if keys is None:
+        p = pad + "  "
+        names = ("file", "line", "column", "element", "values", "fix")
+        names += ("references", "fingerprint", "waived")
+        keys = tuple(f',{p}"{name}": ' for name in names) + (pad + "}",)
+        keys = _KEYS[pad] = keys
+    return keys
+
+
+def _finding(
+    finding: Finding, meta: RuleMeta | None, pad: str, write: Any, out: list[str]
+) -> None:
+    """Append ``finding_dict(finding, meta)`` as ``dump`` writes it at ``pad``."""
     p = pad + "  "
     span = finding.span
-    return (
-        f"{_head(finding, p, write)}"
-        f',{p}"message": {_scalar(finding.message, p, write)}'
-        f',{p}"file": {_scalar(span.file, p, write)}'
-        f',{p}"line": {_scalar(span.line, p, write)}'
-        f',{p}"column": {_scalar(span.column, p, write)}'
-        f',{p}"element": {_scalar(finding.element, p, write)}'
-        f',{p}"values": {_values(finding.values, p, write)}'
-        f',{p}"fix": {_fix(finding, meta, p, write)}'
-        f',{p}"references": {_references(finding, meta, p, write)}'
-        f',{p}"fingerprint": {_scalar(finding.fingerprint, p, write)}'
-        f',{p}"waived": {_scalar(finding.waived, p, write)}'
-        f"{pad}}}"
-    )
+    (file, line, column, element, values, fix, refs, mark, waived, end) = _keys(pad)
+    out.append(_head(finding, p, write))
+    _nullable(finding.message, p, write, out)
+    out.append(file)
+    _nullable(span.file, p, write, out)
+    out += (line, _number(span.line, p, write), column)
+    out += (_number(span.column, p, write), element)
+    _nullable(finding.element, p, write, out)
+    out.append(values)
+    _values(finding.values, p, write, out)
+    out.append(fix)
+    _fix(finding, meta, p, write, out)
+    out += (refs, _references(finding, meta, p, write), mark)
+    _nullable(finding.fingerprint, p, write, out)
+    out.append(waived)
+    _nullable(finding.waived, p, write, out)
+    out.append(end)
 
 
-# The opening of a finding's object by (pad, rule, severity label).
+# The opening of a finding's object, up to its message, by (pad, rule, severity).
 _HEADS: dict[tuple[str, Any, str], str] = {}
 
 
@@ -92,17 +169,23 @@ def _head(finding: Finding, pad: str, write: Any) -> str:
         text = _HEADS[key] = (
             f'{{{pad}"rule": {_scalar(finding.rule, pad, write)}'
             f',{pad}"severity": {_scalar(label, pad, write)}'
+            f',{pad}"message": '
         )
     return text
 
 
-def _values(values: Mapping[str, Any], pad: str, write: Any) -> str:
-    """``value_dicts(values)`` as ``dump`` writes it at ``pad``."""
+def _values(values: Mapping[str, Any], pad: str, write: Any, out: list[str]) -> None:
+    """Append ``value_dicts(values)`` as ``dump`` writes it at ``pad``."""
     if not values:
-        return "{}"
+        out.append("{}")
+        return
     inner = pad + "  "
-    members = [_member(name, values[name], inner, write) for name in sorted(values)]
-    return "{" + inner + ("," + inner).join(members) + pad + "}"
+    separator = "{" + inner
+    for name in sorted(values):
+        out.append(separator)
+        _member(name, values[name], inner, write, out)
+        separator = "," + inner
+    out.append(pad + "}")
 
 
 # Written members ("name": entry) by (pad, name, units, magnitude type,
@@ -111,17 +194,28 @@ def _values(values: Mapping[str, Any], pad: str, write: Any) -> str:
 # units and float or int magnitude only). 0.0 and -0.0 are one dict key but
 # write differently, so a zero's key holds its sign too.
 _WRITTEN: dict[tuple[str, str, Any, type, Any, bool], str] = {}
+# The text of a string member around its string, by (pad, name).
+_STRING_MEMBERS: dict[tuple[str, str], tuple[str, str]] = {}
 
 
-def _member(name: Any, value: Any, pad: str, write: Any) -> str:
-    """One member of ``value_dicts``, name and entry, as ``dump`` writes it."""
+def _member(name: Any, value: Any, pad: str, write: Any, out: list[str]) -> None:
+    """Append one member of ``value_dicts``, name and entry, as ``dump`` writes it."""
     if type(value) is str and type(name) is str:
         # quantity_dict of a string: no value, no unit, the string as text.
-        inner = pad + "  "
-        return (
-            f'{_escape(name)}: {{{inner}"value": null,{inner}"unit": "",'
-            f'{inner}"text": {_escape(value)}{pad}}}'
-        )
+        around = _STRING_MEMBERS.get((pad, name))
+        if around is None:
+            inner = pad + "  "
+            if len(_STRING_MEMBERS) > 10_000:
+                _STRING_MEMBERS.clear()
+            around = _STRING_MEMBERS[(pad, name)] = (
+                f'{_escape(name)}: {{{inner}"value": null,{inner}"unit": "",'
+                f'{inner}"text": ',
+                pad + "}",
+            )
+        out.append(around[0])
+        _string(value, out)
+        out.append(around[1])
+        return
     if type(name) is str and isinstance(value, pint.Quantity):
         magnitude = value._magnitude
         if type(magnitude) in (float, int):
@@ -133,9 +227,10 @@ def _member(name: Any, value: Any, pad: str, write: Any) -> str:
                     _WRITTEN.clear()
                 entry = _written_entry(value, pad, write)
                 text = _WRITTEN[key] = f"{_escape(name)}: {entry}"
-            return text
+            out.append(text)
+            return
     shown = name if isinstance(name, str) else json.dumps(name)
-    return f"{_escape(shown)}: {_written_entry(value, pad, write)}"
+    out.append(f"{_escape(shown)}: {_written_entry(value, pad, write)}")
 
 
 def _written_entry(value: Any, pad: str, write: Any) -> str:
@@ -148,22 +243,45 @@ def _written_entry(value: Any, pad: str, write: Any) -> str:
     return "".join(out)
 
 
-def _fix(finding: Finding, meta: RuleMeta | None, pad: str, write: Any) -> str:
-    """``fix_dict(finding, meta)`` as ``dump`` writes it at ``pad``."""
+# The constant keys of a fix object, by pad.
+_FIX_KEYS: dict[str, tuple[str, ...]] = {}
+
+
+def _fix(
+    finding: Finding, meta: RuleMeta | None, pad: str, write: Any, out: list[str]
+) -> None:
+    """Append ``fix_dict(finding, meta)`` as ``dump`` writes it at ``pad``."""
     if finding.fix is None:
-        return "null"
+        out.append("null")
+        return
+    keys = _FIX_KEYS.get(pad)
+    if keys is None:
+        p = pad + "  "
+        keys = _FIX_KEYS[pad] = (
+            f'{{{p}"text": ',
+            f',{p}"values": ',
+            f',{p}"edits": ',
+            f',{p}"verified": ',
+            pad + "}",
+        )
     used = fix_names(meta)
     p = pad + "  "
     values = finding.values
-    shown = _values({k: values[k] for k in values if k in used}, p, write)
-    edits = [edit_dict(edit) for edit in finding.edits]
-    return (
-        f'{{{p}"text": {_scalar(finding.fix, p, write)}'
-        f',{p}"values": {shown}'
-        f',{p}"edits": {_scalar(edits, p, write)}'
-        f',{p}"verified": {_scalar(finding.verified, p, write)}'
-        f"{pad}}}"
-    )
+    out.append(keys[0])
+    _nullable(finding.fix, p, write, out)
+    out.append(keys[1])
+    _values({k: values[k] for k in values if k in used}, p, write, out)
+    out.append(keys[2])
+    if finding.edits:
+        write([edit_dict(edit) for edit in finding.edits], p, out)
+    else:
+        out.append("[]")
+    verified = finding.verified
+    shown = _FLAGS.get(verified) if type(verified) is bool or verified is None else None
+    out += (keys[3], shown or _scalar(verified, p, write), keys[4])
+
+
+_FLAGS = {None: "null", True: "true", False: "false"}
 
 
 # Written reference lists by (pad, references): a rule's findings share one.
