@@ -29,6 +29,7 @@ from netcheck.catalogue import RuleMeta
 from netcheck.findings import Finding, negative_zero, quantity_dict
 from netcheck.fixes.edits import edit_dict
 from netcheck.report import fix_names, references
+from netcheck.units import Q_
 
 __all__ = ["findings_text", "write_findings"]
 
@@ -144,10 +145,11 @@ def _finding(
     out += (line, _number(span.line, p, write), column)
     out += (_number(span.column, p, write), element)
     _nullable(finding.element, p, write, out)
+    names = sorted(finding.values)
     out.append(values)
-    _values(finding.values, p, write, out)
+    _values(finding.values, names, p, write, out)
     out.append(fix)
-    _fix(finding, meta, p, write, out)
+    _fix(finding, meta, names, p, write, out)
     out += (refs, _references(finding, meta, p, write), mark)
     _nullable(finding.fingerprint, p, write, out)
     out.append(waived)
@@ -174,17 +176,34 @@ def _head(finding: Finding, pad: str, write: Any) -> str:
     return text
 
 
-def _values(values: Mapping[str, Any], pad: str, write: Any, out: list[str]) -> None:
-    """Append ``value_dicts(values)`` as ``dump`` writes it at ``pad``."""
-    if not values:
+def _values(
+    values: Mapping[str, Any],
+    names: list[str],
+    pad: str,
+    write: Any,
+    out: list[str],
+) -> None:
+    """Append ``value_dicts`` of ``names`` (sorted) of ``values`` written at ``pad``."""
+    if not names:
         out.append("{}")
         return
     inner = pad + "  "
-    separator = "{" + inner
-    for name in sorted(values):
+    separator, comma = "{" + inner, "," + inner
+    written = _WRITTEN
+    for name in names:
         out.append(separator)
-        _member(name, values[name], inner, write, out)
-        separator = "," + inner
+        separator = comma
+        value = values[name]
+        if type(value) is Q_:
+            # The common case, a non-zero float, looked up as _member does.
+            magnitude = value._magnitude
+            if type(magnitude) is float and magnitude:
+                key = (inner, name, value._units, float, magnitude, False)
+                text = written.get(key)
+                if text is not None:
+                    out.append(text)
+                    continue
+        _member(name, value, inner, write, out)
     out.append(pad + "}")
 
 
@@ -248,9 +267,17 @@ _FIX_KEYS: dict[str, tuple[str, ...]] = {}
 
 
 def _fix(
-    finding: Finding, meta: RuleMeta | None, pad: str, write: Any, out: list[str]
+    finding: Finding,
+    meta: RuleMeta | None,
+    names: list[str],
+    pad: str,
+    write: Any,
+    out: list[str],
 ) -> None:
-    """Append ``fix_dict(finding, meta)`` as ``dump`` writes it at ``pad``."""
+    """Append ``fix_dict(finding, meta)`` as ``dump`` writes it at ``pad``.
+
+    ``names`` are the names of the finding's values, sorted.
+    """
     if finding.fix is None:
         out.append("null")
         return
@@ -266,11 +293,11 @@ def _fix(
         )
     used = fix_names(meta)
     p = pad + "  "
-    values = finding.values
     out.append(keys[0])
     _nullable(finding.fix, p, write, out)
     out.append(keys[1])
-    _values({k: values[k] for k in values if k in used}, p, write, out)
+    shown = [name for name in names if name in used]
+    _values(finding.values, shown, p, write, out)
     out.append(keys[2])
     if finding.edits:
         write([edit_dict(edit) for edit in finding.edits], p, out)
