@@ -107,3 +107,20 @@ def test_ranged_supply_memo_answers_what_the_graph_says(
                 ranged += expected is not None
         without += not ctx._any_range()
     assert ranged > 10 and without > 10, (ranged, without)
+
+
+def test_context_unsuppressed_loads_is_the_function(designs: list[Analysis]) -> None:
+    # CheckContext.unsuppressed_loads is keyed by the identities of the
+    # element's suppression and loads tuples; series chains share them.
+    shared = 0
+    for analysis in designs:
+        ctx = CheckContext(
+            NETLISTS[id(analysis)], analysis.graph, analysis, load_catalogue(), {}
+        )
+        seen: set[tuple[int, int]] = set()
+        for element in analysis.sorted_elements():
+            key = (id(element.suppression), id(element.loads))
+            shared += key in seen
+            seen.add(key)
+            assert ctx.unsuppressed_loads(element) == unsuppressed_loads(element)
+    assert shared > 100, shared  # the memo is hit, not only filled

@@ -23,7 +23,7 @@ from netcheck.analysis.ratings import Assessment
 from netcheck.analysis.result import LoadInfo
 from netcheck.analysis.si import quantity_like
 from netcheck.analysis.supplies import SUPPLY_NOTES, ranged_supply
-from netcheck.analysis.switched import ElementAnalysis
+from netcheck.analysis.switched import ElementAnalysis, SwitchedLoad
 from netcheck.analysis.transients import OpeningTransient
 from netcheck.analysis.verdicts import breaks_something
 from netcheck.catalogue import RuleMeta, all_margins
@@ -35,6 +35,8 @@ from netcheck.ranges import ValueRange, supply_range
 __all__ = ["CheckContext", "Anchor"]
 
 Anchor = ElementAnalysis | Component | tuple[Component, str]
+
+_UNSET: Any = object()  # not computed yet (None is a result)
 
 
 @dataclass
@@ -147,11 +149,31 @@ class CheckContext:
         Keyed by identity: the analysis holds every element for as long as the
         context lives.
         """
-        results = self._memo(name, dict)
-        key = id(element)
-        if key not in results:
-            results[key] = compute(element)
-        return results[key]
+        results = self.memo.get(name)
+        if results is None:
+            results = self.memo[name] = {}
+        result = results.get(id(element), _UNSET)
+        if result is _UNSET:
+            result = results[id(element)] = compute(element)
+        return result
+
+    def unsuppressed_loads(self, element: ElementAnalysis) -> list[SwitchedLoad]:
+        """``fitted.unsuppressed_loads(element)``: do not change the list.
+
+        It reads only the element's ``suppression`` and ``loads`` tuples, and
+        the elements of a series chain share theirs (one rung's interlocks
+        switch the one coil), so it is computed once per pair of tuples, keyed
+        by their identities: the analysis holds them while the context lives.
+        tests/checks/test_context_memos.py compares it with the function.
+        """
+        results = self.memo.get("unsuppressed")
+        if results is None:
+            results = self.memo["unsuppressed"] = {}
+        key = (id(element.suppression), id(element.loads))
+        found = results.get(key)
+        if found is None:
+            found = results[key] = fitting.unsuppressed_loads(element)
+        return found  # type: ignore[no-any-return]
 
     def fitted_suppressors(self) -> list[fitting.Fitted]:
         """Every effective suppressor of a DC element's circuit, once each."""

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from collections.abc import Iterator
 
-from netcheck.analysis.fitted import effective, unsuppressed_loads
+from netcheck.analysis.fitted import effective
 from netcheck.analysis.opening import load_transient, zener_release
 from netcheck.analysis.si import total
 from netcheck.analysis.switched import ElementAnalysis, Suppressor
@@ -66,7 +66,7 @@ def inductive_load_unsuppressed(ctx: CheckContext) -> Iterator[Finding]:
         # finding; turning the part round also suppresses the load again.
         if element.voltage is None or element.short_circuit:
             continue
-        loads = unsuppressed_loads(element)
+        loads = ctx.unsuppressed_loads(element)
         if not loads:
             continue
         # Series poles break one load together: one finding, at the lead pole.

@@ -253,8 +253,11 @@ def _contact_peaks(
             continue  # series poles: one finding, on the first
         if element.voltage is None or exceeds(element.voltage, rated):
             continue
-        if opens_unclamped(element):
-            continue  # no transient solve: its kind would be "none"
+        if (
+            ctx.unsuppressed_loads(element)
+            and element.component.value("clamp_voltage") is None
+        ):
+            continue  # opens_unclamped: no transient solve, its kind would be "none"
         opening = ctx.element_peak(element)
         if opening is None or opening.kind == "none":
             continue
