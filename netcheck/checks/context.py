@@ -27,10 +27,11 @@ from netcheck.analysis.switched import ElementAnalysis, SwitchedLoad
 from netcheck.analysis.transients import OpeningTransient
 from netcheck.analysis.verdicts import breaks_something
 from netcheck.catalogue import RuleMeta, all_margins
-from netcheck.findings import Finding, Severity
+from netcheck.findings import Finding, Severity, negative_zero
 from netcheck.graph import Branch, Domain, Graph
 from netcheck.model import Component, Netlist
 from netcheck.ranges import ValueRange, supply_range
+from netcheck.units import Q_
 
 __all__ = ["CheckContext", "Anchor"]
 
@@ -253,6 +254,27 @@ class CheckContext:
         """
         return quantity_like(value, value._magnitude * self.option(margin))
 
+    def _share_quantities(self, values: dict[str, Any]) -> None:
+        """Put one quantity object per float value and units into ``values``.
+
+        A heavy report's tens of thousands of findings hold a few distinct
+        quantities (the same supply, current, energy); quantities are never
+        changed, and one that reads the same (its units, its magnitude and the
+        sign of a zero: all any output reads) stands in for each copy.
+        """
+        shared = self.memo.get("quantities")
+        if shared is None:
+            shared = self.memo["quantities"] = {}
+        for name, value in values.items():
+            if type(value) is not Q_:
+                continue
+            magnitude = value._magnitude
+            if type(magnitude) is float and magnitude == magnitude:  # not NaN
+                key = (value._units, magnitude, negative_zero(magnitude))
+                same = shared.setdefault(key, value)
+                if same is not value:
+                    values[name] = same  # a key already there: no resize
+
     def finding(
         self,
         anchor: Anchor,
@@ -281,6 +303,7 @@ class CheckContext:
             component, element = anchor
         else:
             component, element = anchor, anchor.ref
+        self._share_quantities(values)
         note = ""
         ranged = self.ranged_supply(component)
         if ranged is not None and any(
