@@ -23,6 +23,7 @@ __all__ = [
     "negative_zero",
     "fill_template",
     "fingerprint",
+    "stamp_fingerprint",
     "quantity_dict",
 ]
 
@@ -266,3 +267,16 @@ def evolve(finding: Finding, **changes: Any) -> Finding:
     fields.update(finding.__dict__)
     fields.update(changes)
     return made
+
+
+def stamp_fingerprint(finding: Finding, mark: str) -> None:
+    """Set the fingerprint of a finding that nothing else holds yet.
+
+    ``evolve(finding, fingerprint=mark)`` without the copy, for the pipeline
+    that has just made its findings: a heavy report makes tens of thousands,
+    and a copy of each would be alive beside it until the last is made.
+    Findings are frozen for everyone else; the fingerprint depends only on
+    the finding's own rule, element and key, so stamping a finding a check
+    yielded twice gives it the one fingerprint either copy would have had.
+    """
+    finding.__dict__["fingerprint"] = mark

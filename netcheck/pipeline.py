@@ -17,7 +17,7 @@ from netcheck.checks.registry import all_checks
 from netcheck.coverage import ElementStatus, element_statuses
 from netcheck.error_records import ErrorRecord, os_error_record, records_of
 from netcheck.errors import InputError
-from netcheck.findings import Finding, evolve, fingerprint
+from netcheck.findings import Finding, fingerprint, stamp_fingerprint
 from netcheck.fixes.verify import verify_fixes
 from netcheck.graph import build_graph
 from netcheck.input import load_design
@@ -122,17 +122,12 @@ def run_checks(
         for rule, function in checks.items():
             ctx.rule = rule
             findings.extend(function(ctx))
-    findings = _apply_waivers(netlist, findings, catalogue)
-    out = []
-    for finding in findings:
+    out = _apply_waivers(netlist, findings, catalogue)
+    for finding in out:
         file = _relative(finding.span.file)
-        out.append(
-            evolve(
-                finding,
-                fingerprint=fingerprint(
-                    finding.rule, file, finding.element, finding.key
-                ),
-            )
+        # Made by this run and held nowhere else yet: no copy to fingerprint.
+        stamp_fingerprint(
+            finding, fingerprint(finding.rule, file, finding.element, finding.key)
         )
     out.sort(key=Finding.sort_key)
     return out

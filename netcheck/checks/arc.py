@@ -6,7 +6,6 @@ import math
 from collections.abc import Iterator
 
 from netcheck.analysis.arc import ayrton_margin, estimate
-from netcheck.analysis.fitted import element_peak, unsuppressed_loads
 from netcheck.analysis.ratings_tables import has_dc_data
 from netcheck.analysis.switched import ElementAnalysis
 from netcheck.analysis.verdicts import arrangement_lead, breaks_something
@@ -51,7 +50,9 @@ def _capacitor_values(element: ElementAnalysis, part: Component, um: float) -> d
     }
 
 
-def _seen(element: ElementAnalysis) -> tuple[float, bool, str | None]:
+def _seen(
+    ctx: CheckContext, element: ElementAnalysis
+) -> tuple[float, bool, str | None]:
     """The voltage the opening contact sees, whether a kick drives it, a note.
 
     An unclamped inductive load's kick exceeds any Um, so only Im counts.
@@ -62,7 +63,8 @@ def _seen(element: ElementAnalysis) -> tuple[float, bool, str | None]:
     voltage = float(element.voltage.to("V").magnitude)
     if not element.inductive_loads:
         return voltage, False, None
-    transient = None if unsuppressed_loads(element) else element_peak(element)
+    unsuppressed = ctx.unsuppressed_loads(element)
+    transient = None if unsuppressed else ctx.element_peak(element)
     if transient is None:
         return voltage, True, "an inductive kick exceeds Um, so only Im counts"
     peak = float(transient.peak_voltage.to("V").magnitude)
@@ -70,8 +72,8 @@ def _seen(element: ElementAnalysis) -> tuple[float, bool, str | None]:
     return peak, False, note
 
 
-def _values(element: ElementAnalysis, breaks: int, material) -> dict:  # type: ignore[no-untyped-def]
-    voltage, kick, seen_note = _seen(element)
+def _values(ctx: CheckContext, element: ElementAnalysis, breaks: int, material) -> dict:  # type: ignore[no-untyped-def]
+    voltage, kick, seen_note = _seen(ctx, element)
     result = estimate(
         voltage, float(element.current.to("A").magnitude), breaks, material, kick
     )
@@ -147,7 +149,7 @@ def arc_sustain_risk(ctx: CheckContext) -> Iterator[Finding]:
             continue
         form = component.value("contacts", "form", default="single-break")
         breaks = (2 if form == "double-break" else 1) * max(element.series_poles, 1)
-        values = _values(element, breaks, component.value("contacts", "material"))
+        values = _values(ctx, element, breaks, component.value("contacts", "material"))
         result, kick = values.pop("estimate"), values.pop("kick")
         variant = "likely" if result.sustained else "unlikely"
         fix = "unlikely"
