@@ -111,21 +111,25 @@ def series_poles_assumed(ctx: CheckContext) -> Iterator[Finding]:
 @check("series-poles-not-ganged")
 def series_poles_not_ganged(ctx: CheckContext) -> Iterator[Finding]:
     """Flag series elements of different devices none of which can break alone."""
-    done: set[tuple[str, ...]] = set()
+    done: set[frozenset[str]] = set()
     for element in ctx.switching_elements(supply="dc"):
         if not element.other_series:
             continue
-        group = tuple(
-            sorted({element.name, *element.other_series, *element.series_elements})
+        # A chain of n contacts has n members that name one group: sorted once.
+        members = frozenset(
+            (element.name, *element.other_series, *element.series_elements)
         )
-        if group in done:
+        if members in done:
             continue
-        done.add(group)
+        done.add(members)
+        group = tuple(sorted(members))
         leads = {}
         for name in group:
             member = ctx.analysis.elements[name]
             leads.setdefault(member.element.device, member)
-        verdicts = [_can_break_alone(ctx, m) for m in leads.values()]
+        # One device that can (or may) break alone clears the group: the
+        # rest need no verdict.
+        verdicts = (_can_break_alone(ctx, m) for m in leads.values())
         if any(v is None or v for v in verdicts):
             continue
         yield ctx.finding(

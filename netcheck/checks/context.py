@@ -27,7 +27,7 @@ from netcheck.analysis.switched import ElementAnalysis, SwitchedLoad
 from netcheck.analysis.transients import OpeningTransient
 from netcheck.analysis.verdicts import breaks_something
 from netcheck.catalogue import RuleMeta, all_margins
-from netcheck.findings import Finding, Severity, negative_zero
+from netcheck.findings import Finding, Severity
 from netcheck.graph import Branch, Domain, Graph
 from netcheck.model import Component, Netlist
 from netcheck.ranges import ValueRange, supply_range
@@ -38,6 +38,7 @@ __all__ = ["CheckContext", "Anchor"]
 Anchor = ElementAnalysis | Component | tuple[Component, str]
 
 _UNSET: Any = object()  # not computed yet (None is a result)
+_NONE_YET: dict[int, Any] = {}  # no result of a kind yet (never written)
 
 
 @dataclass
@@ -220,7 +221,10 @@ class CheckContext:
 
     def verdict(self, element: ElementAnalysis) -> Assessment | None:
         """The rating verdict of an element that breaks a current (series poles too)."""
-        return self._per_element("verdicts", element, self._verdict)  # type: ignore[no-any-return]
+        found = self.memo.get("verdicts", _NONE_YET).get(id(element), _UNSET)
+        if found is _UNSET:  # the rules ask several times per element
+            found = self._per_element("verdicts", element, self._verdict)
+        return found  # type: ignore[no-any-return]
 
     def _verdict(self, element: ElementAnalysis) -> Assessment | None:
         if not breaks_something(element):
@@ -229,7 +233,10 @@ class CheckContext:
 
     def element_peak(self, element: ElementAnalysis) -> OpeningTransient | None:
         """The opening transient the element itself sees (``fitted.element_peak``)."""
-        return self._per_element("peaks", element, fitting.element_peak)  # type: ignore[no-any-return]
+        found = self.memo.get("peaks", _NONE_YET).get(id(element), _UNSET)
+        if found is _UNSET:
+            found = self._per_element("peaks", element, fitting.element_peak)
+        return found  # type: ignore[no-any-return]
 
     def internal_clamp(self, element: ElementAnalysis) -> InternalClamp | None:
         """An output's internal clamp where it conducts first (``clamp_order``)."""
@@ -260,7 +267,8 @@ class CheckContext:
         A heavy report's tens of thousands of findings hold a few distinct
         quantities (the same supply, current, energy); quantities are never
         changed, and one that reads the same (its units, its magnitude and the
-        sign of a zero: all any output reads) stands in for each copy.
+        sign of a zero: all any output reads) stands in for each copy. Zeros
+        and units met as different objects are simply not shared.
         """
         shared = self.memo.get("quantities")
         if shared is None:
@@ -269,8 +277,11 @@ class CheckContext:
             if type(value) is not Q_:
                 continue
             magnitude = value._magnitude
-            if type(magnitude) is float and magnitude == magnitude:  # not NaN
-                key = (value._units, magnitude, negative_zero(magnitude))
+            # Non-zero (no sign of zero to keep) and not NaN (never equal).
+            if type(magnitude) is float and magnitude and magnitude == magnitude:
+                # The units by identity: the quantity kept holds them, so the
+                # identity is not reused while the memo lives.
+                key = (magnitude, id(value._units))
                 same = shared.setdefault(key, value)
                 if same is not value:
                     values[name] = same  # a key already there: no resize

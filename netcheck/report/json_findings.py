@@ -54,12 +54,23 @@ def write_findings(
     """Append the pieces of the JSON list of ``findings`` written at ``pad``."""
     from netcheck.report.json import write  # the generic writer, for rare values
 
-    inner = pad + "  "
+    inner, p = pad + "  ", pad + "    "
     separator = "[" + inner
-    get = catalogue.get
+    # Within one call the catalogue is fixed: each rule's entry, the names
+    # its fix templates use and each object's opening are looked up once.
+    rules: dict[str, tuple[RuleMeta | None, frozenset[str]]] = {}
+    heads: dict[tuple[str, Any], str] = {}
     for finding in findings:
         out.append(separator)
-        _finding(finding, get(finding.rule), inner, write, out)
+        rule = finding.rule
+        known = rules.get(rule)
+        if known is None:
+            meta = catalogue.get(rule)
+            known = rules[rule] = (meta, fix_names(meta))
+        head = heads.get((rule, finding.severity))
+        if head is None:
+            head = heads[(rule, finding.severity)] = _head(finding, p, write)
+        _finding(finding, known, head, inner, write, out)
         separator = "," + inner
     out.append("[]" if separator[0] == "[" else pad + "]")
 
@@ -132,13 +143,23 @@ def _keys(pad: str) -> tuple[str, ...]:
 
 
 def _finding(
-    finding: Finding, meta: RuleMeta | None, pad: str, write: Any, out: list[str]
+    finding: Finding,
+    rule: tuple[RuleMeta | None, frozenset[str]],
+    head: str,
+    pad: str,
+    write: Any,
+    out: list[str],
 ) -> None:
-    """Append ``finding_dict(finding, meta)`` as ``dump`` writes it at ``pad``."""
+    """Append ``finding_dict(finding, meta)`` as ``dump`` writes it at ``pad``.
+
+    ``rule`` is the finding's catalogue entry and ``fix_names`` of it;
+    ``head`` its object's opening (``_head``).
+    """
     p = pad + "  "
     span = finding.span
+    meta, used = rule
     (file, line, column, element, values, fix, refs, mark, waived, end) = _keys(pad)
-    out.append(_head(finding, p, write))
+    out.append(head)
     _nullable(finding.message, p, write, out)
     out.append(file)
     _nullable(span.file, p, write, out)
@@ -149,7 +170,7 @@ def _finding(
     out.append(values)
     _values(finding.values, names, p, write, out)
     out.append(fix)
-    _fix(finding, meta, names, p, write, out)
+    _fix(finding, used, names, p, write, out)
     out += (refs, _references(finding, meta, p, write), mark)
     _nullable(finding.fingerprint, p, write, out)
     out.append(waived)
@@ -268,7 +289,7 @@ _FIX_KEYS: dict[str, tuple[str, ...]] = {}
 
 def _fix(
     finding: Finding,
-    meta: RuleMeta | None,
+    used: frozenset[str],
     names: list[str],
     pad: str,
     write: Any,
@@ -276,7 +297,7 @@ def _fix(
 ) -> None:
     """Append ``fix_dict(finding, meta)`` as ``dump`` writes it at ``pad``.
 
-    ``names`` are the names of the finding's values, sorted.
+    ``used`` is ``fix_names(meta)``; ``names`` the finding's value names, sorted.
     """
     if finding.fix is None:
         out.append("null")
@@ -291,7 +312,6 @@ def _fix(
             f',{p}"verified": ',
             pad + "}",
         )
-    used = fix_names(meta)
     p = pad + "  "
     out.append(keys[0])
     _nullable(finding.fix, p, write, out)
