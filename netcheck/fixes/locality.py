@@ -21,6 +21,7 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 from dataclasses import dataclass, replace
+from functools import cached_property
 
 from netcheck.fixes.edits import AddComponent, Edit, Reconnect
 from netcheck.fixes.rungs import Restricted
@@ -54,36 +55,19 @@ class Cut:
 
 
 class Locality:
-    """Clusters of a design's domains, and the cut of the clusters edits touch."""
+    """Clusters of a design's domains, and the cut of the clusters edits touch.
+
+    The clusters are worked out when a cut is first asked for: where every
+    re-check is a slice (:mod:`netcheck.fixes.slices`) none is.
+    """
 
     def __init__(self, netlist: Netlist, graph: Graph) -> None:
         self.netlist = netlist
-        index = {id(d): i for i, d in enumerate(graph.domains)}
-        parent = list(range(len(graph.domains)))
+        self.graph = graph
 
-        def root(i: int) -> int:
-            while parent[i] != i:
-                parent[i] = parent[parent[i]]
-                i = parent[i]
-            return i
-
-        homes: list[list[int]] = []
-        for component in netlist.components:
-            domains = {index[id(graph.domain_of[c.net])] for c in component.connections}
-            homes.append(sorted(domains))
-            for other in homes[-1][1:]:
-                parent[root(other)] = root(homes[-1][0])
-        self._cluster_of_net = {
-            net: root(index[id(d)]) for net, d in graph.domain_of.items()
-        }
-        self._members: dict[int, list[int]] = {}
-        self._nets: dict[int, list[str]] = {}
-        for position, domains in enumerate(homes):
-            if domains:
-                self._members.setdefault(root(domains[0]), []).append(position)
-        for net, cluster in self._cluster_of_net.items():
-            self._nets.setdefault(cluster, []).append(net)
-        self._position = {c.ref: i for i, c in enumerate(netlist.components)}
+    @cached_property
+    def _clusters(self) -> _Clusters:
+        return _clusters(self.netlist, self.graph)
 
     def _touched(self, edits: Sequence[Edit]) -> tuple[set[str], set[str]]:
         """(nets, refs) the edits touch in the original design."""
@@ -103,12 +87,13 @@ class Locality:
     def cut(self, edits: Sequence[Edit]) -> Cut:
         """The sub-design of every cluster the edits touch (edits not applied)."""
         nets, refs = self._touched(edits)
-        clusters = {self._cluster_of_net[n] for n in nets if n in self._cluster_of_net}
-        positions = {self._position[r] for r in refs}
+        known = self._clusters
+        clusters = {known.of_net[n] for n in nets if n in known.of_net}
+        positions = {known.position[r] for r in refs}
         names = set(refs)
         for cluster in clusters:
-            positions.update(self._members.get(cluster, ()))
-            names.update(self._nets[cluster])
+            positions.update(known.members.get(cluster, ()))
+            names.update(known.nets[cluster])
         components = tuple(self.netlist.components[i] for i in sorted(positions))
         names.update(c.ref for c in components)
         names.update(e.ref for e in edits if isinstance(e, AddComponent))
@@ -117,3 +102,48 @@ class Locality:
         )
         sub = replace(self.netlist, components=components, waivers=waivers)
         return Cut(sub, frozenset(names))
+
+
+@dataclass(frozen=True)
+class _Clusters:
+    """Each net's cluster, a cluster's components (positions) and nets."""
+
+    of_net: dict[str, int]
+    members: dict[int, list[int]]
+    nets: dict[int, list[str]]
+    position: dict[str, int]
+
+
+def _clusters(netlist: Netlist, graph: Graph) -> _Clusters:
+    """Domains joined by the components that touch several (union-find)."""
+    index = {id(d): i for i, d in enumerate(graph.domains)}
+    domain_index = {net: index[id(d)] for net, d in graph.domain_of.items()}
+    parent = list(range(len(graph.domains)))
+
+    def root(i: int) -> int:
+        while parent[i] != i:
+            parent[i] = parent[parent[i]]
+            i = parent[i]
+        return i
+
+    homes: list[tuple[int, int]] = []  # (position, a domain) per connected part
+    for position, component in enumerate(netlist.components):
+        connections = component.connections
+        if not connections:
+            continue
+        first = domain_index[connections[0].net]
+        for connection in connections[1:]:
+            other = domain_index[connection.net]
+            if other != first:
+                parent[root(other)] = root(first)
+        homes.append((position, first))
+    roots = [root(i) for i in range(len(parent))]
+    members: dict[int, list[int]] = {}
+    for position, domain in homes:
+        members.setdefault(roots[domain], []).append(position)
+    of_net = {net: roots[i] for net, i in domain_index.items()}
+    nets: dict[int, list[str]] = {}
+    for net, cluster in of_net.items():
+        nets.setdefault(cluster, []).append(net)
+    position = {c.ref: i for i, c in enumerate(netlist.components)}
+    return _Clusters(of_net, members, nets, position)

@@ -16,7 +16,8 @@ from dataclasses import dataclass
 import pint
 
 from netcheck.analysis.result import Analysis
-from netcheck.catalogue import all_margins, load_catalogue
+from netcheck.analysis.si import quantity_like, si
+from netcheck.catalogue import Margin, all_margins, load_catalogue
 from netcheck.findings import Finding
 from netcheck.fixes import propose_making
 from netcheck.fixes.clamp_fixes import lower_clamp
@@ -65,7 +66,7 @@ MAX_PARTS = 8  # library parts tried per finding: enough for any shipped library
 
 def quantity_text(value: pint.Quantity, unit: str) -> str:
     """``value`` in ``unit`` rounded up to two significant digits, as .cnet text."""
-    magnitude = float(value.to(unit).magnitude)
+    magnitude = si(value, unit)  # float(value.to(unit).magnitude), bit for bit
     if magnitude <= 0:
         return f"0{unit}"
     step = 10 ** (math.floor(math.log10(magnitude)) - 1)
@@ -87,7 +88,29 @@ def rating_attribute(what: object, needed: object) -> tuple[str, str] | None:
 def _margin(name: str, margins: dict[str, float]) -> float:
     if name in margins:
         return float(margins[name])
-    return all_margins(load_catalogue())[name].default
+    return _default_margins()[name].default
+
+
+# The catalogue's margins, kept with the catalogue object they were read from:
+# every proposal asks for two, and building the table per ask was a tenth of
+# proposing a fix.
+_DEFAULTS: list[tuple[object, dict[str, Margin]]] = []
+
+
+def _default_margins() -> dict[str, Margin]:
+    """``all_margins(load_catalogue())``, worked out once per catalogue object."""
+    catalogue = load_catalogue()
+    if not _DEFAULTS or _DEFAULTS[0][0] is not catalogue:
+        _DEFAULTS[:] = [(catalogue, all_margins(catalogue))]
+    return _DEFAULTS[0][1]
+
+
+def _times(value: pint.Quantity, factor: float) -> pint.Quantity:
+    """``value * factor`` as pint builds it (the magnitudes multiplied, units kept)."""
+    magnitude = value._magnitude
+    if type(magnitude) is float and type(factor) is float:
+        return quantity_like(value, magnitude * factor)
+    return value * factor
 
 
 @dataclass
@@ -151,13 +174,15 @@ class Proposer:
                 (
                     "voltage_rating",
                     quantity_text(
-                        voltage * _margin("diode-reverse-voltage", self.margins), "V"
+                        _times(voltage, _margin("diode-reverse-voltage", self.margins)),
+                        "V",
                     ),
                 ),
                 (
                     "current_rating",
                     quantity_text(
-                        load.current * _margin("diode-current", self.margins), "A"
+                        _times(load.current, _margin("diode-current", self.margins)),
+                        "A",
                     ),
                 ),
             )

@@ -58,18 +58,28 @@ from __future__ import annotations
 from collections.abc import Iterable, Sequence
 from dataclasses import dataclass, fields
 
-from netcheck.analysis.domain import DomainState, UnionFind, shunts
+from netcheck.analysis.domain import DomainState, shunts
 from netcheck.analysis.elements import Analysis
 from netcheck.analysis.switched import ElementAnalysis, Suppressor, SwitchedLoad
 from netcheck.analysis.zero_ohm import ZeroOhm
 from netcheck.fixes.edits import AddComponent, Edit, Reconnect, Remove
-from netcheck.graph import CONDUCTOR, SUPPLY, SWITCH, Domain
+from netcheck.graph import CONDUCTOR, SUPPLY, SWITCH, Branch, Domain
 from netcheck.kinds import PROTECTIVE_KINDS
-from netcheck.model import Netlist
+from netcheck.model import Component, Netlist
 
 __all__ = ["Rungs", "Restricted"]
 
 _BUS_KINDS = PROTECTIVE_KINDS | {"supply"}
+
+
+class _Unit:
+    """One unit: its nets and the components that touch them (by identity)."""
+
+    __slots__ = ("nets", "refs")
+
+    def __init__(self, nets: frozenset[str], refs: frozenset[str]) -> None:
+        self.nets = nets
+        self.refs = refs
 
 
 @dataclass(frozen=True)
@@ -88,7 +98,14 @@ class Restricted:
 
 
 class Rungs:
-    """Bus, units, global elements and rail-group slack of an analysed design."""
+    """Bus, units, global elements and rail-group slack of an analysed design.
+
+    The bus is worked out for every solved domain at once; a unit, and the
+    global elements and slack of a domain, when a plan first reaches them
+    (what each reads is its own: a unit's nets and components, a domain's
+    branches and state), so the re-checks of a few rungs do not pay for
+    every rung of the design.
+    """
 
     def __init__(self, netlist: Netlist, analysis: Analysis) -> None:
         self.netlist = netlist
@@ -100,13 +117,12 @@ class Rungs:
             state = analysis.states.get(domain.name)
             if domain.kind == "dc" and state is not None and state.domain is not None:
                 self._add_bus(domain, state)
-        self._units(netlist)
+        self._connections = graph.connections
+        self._unit_of: dict[str, _Unit] = {}
+        self._domain = {d.name: d for d in graph.domains}
         self.globals: dict[str, list[str]] = {}  # domain -> element names
         self.group: dict[str, str] = {}  # net -> rail group (solved domains)
         self.slack: dict[str, int] = {}  # rail group -> slack
-        for domain in graph.domains:
-            if domain.name in self.solved:
-                self._classify(domain, analysis.states[domain.name])
 
     def _add_bus(self, domain: Domain, state: DomainState) -> None:
         terminals = {n for b in domain.branches if b.role == SUPPLY for n in (b.a, b.b)}
@@ -114,27 +130,51 @@ class Rungs:
         self.bus.update(n for n in domain.nets if state.wire[n] in reps)
         self.solved.add(domain.name)
 
-    def _units(self, netlist: Netlist) -> None:
-        sets = UnionFind()
-        self.bus_refs: set[str] = set()
-        for component in netlist.components:
-            nets = [c.net for c in component.connections if c.net not in self.bus]
-            for net in nets:
-                sets.union(nets[0], net)
-            if not nets:
-                self.bus_refs.add(component.ref)
-        self.unit_of: dict[str, str] = {n: sets.find(n) for n in sets.parent}
-        self.unit_refs: dict[str, set[str]] = {}
-        self.unit_nets: dict[str, set[str]] = {}
-        for net, unit in self.unit_of.items():
-            self.unit_nets.setdefault(unit, set()).add(net)
-        for component in netlist.components:
-            for c in component.connections:
-                if c.net in self.unit_of:
-                    self.unit_refs.setdefault(self.unit_of[c.net], set()).add(
-                        component.ref
-                    )
-                    break
+    def on_bus(self, component: Component) -> bool:
+        """Whether every net of ``component`` is a bus net (a bus component)."""
+        bus = self.bus
+        return all(c.net in bus for c in component.connections)
+
+    def _bus_branch(self, branch: Branch) -> bool:
+        """Whether ``branch`` belongs to a bus component (its own ends first)."""
+        bus = self.bus
+        return branch.a in bus and branch.b in bus and self.on_bus(branch.component)
+
+    def is_bus_ref(self, ref: str) -> bool:
+        """Whether ``ref`` names a bus component of the design."""
+        component = self.netlist.component(ref)
+        return component is not None and self.on_bus(component)
+
+    def unit(self, net: str) -> _Unit | None:
+        """The unit of ``net``: None for a bus net or a net no component has.
+
+        Nets joined through components, the bus left out (every net of one
+        component in one unit); found by a search from ``net``, once per unit.
+        """
+        known = self._unit_of.get(net)
+        if known is not None or net in self.bus or net not in self._connections:
+            return known
+        bus, connections = self.bus, self._connections
+        nets, refs, todo = {net}, set(), [net]
+        while todo:
+            for component, _ in connections[todo.pop()]:
+                if component.ref in refs:
+                    continue
+                refs.add(component.ref)
+                for c in component.connections:
+                    if c.net not in bus and c.net not in nets:
+                        nets.add(c.net)
+                        todo.append(c.net)
+        unit = _Unit(frozenset(nets), frozenset(refs))
+        for member in nets:
+            self._unit_of[member] = unit
+        return unit
+
+    def _classified(self, names: Iterable[str]) -> None:
+        """Classify the elements of the solved domains ``names`` not yet done."""
+        for name in names:
+            if name not in self.globals and name in self.solved:
+                self._classify(self._domain[name], self.analysis.states[name])
 
     def _classify(self, domain: Domain, state: DomainState) -> None:
         closed = [
@@ -155,7 +195,7 @@ class Rungs:
 
     def _local(self, branch, zero: ZeroOhm, state: DomainState) -> bool:  # type: ignore[no-untyped-def]
         key = branch.key
-        if branch.ref in self.bus_refs or key in state.opened:
+        if key in state.opened or self._bus_branch(branch):
             return False
         if key not in zero.by_key or zero.bypass(key) or zero.bypass_through_load(key):
             return False
@@ -184,17 +224,20 @@ class Rungs:
             nets |= final | self._old_nets(edit)
             if isinstance(edit, AddComponent):
                 added.add(edit.ref)
-        units = {self.unit_of[n] for n in nets if n in self.unit_of}
-        x_nets = set().union(*(self.unit_nets[u] for u in units)) if units else set()
+        units = {u for n in nets if (u := self.unit(n)) is not None}
+        x_nets = set().union(*(u.nets for u in units)) if units else set()
         domains = self._domains(x_nets | (nets & self.bus))
-        if domains is None or not self._slack_covers(x_nets):
+        if domains is None:
             return None
-        x_refs = set(added).union(*(self.unit_refs.get(u, ()) for u in units))
+        self._classified(domains)
+        if not self._slack_covers(x_nets):
+            return None
+        x_refs = set(added).union(*(u.refs for u in units))
         only = set(x_refs)
         for name in domains:
             only.update(n.split(":", 1)[0] for n in self.globals.get(name, ()))
         decided = only - self._global_refs(domains) | x_refs | x_nets
-        decided |= {n for n in nets if n not in self.unit_of} | (nets & self.bus)
+        decided |= {n for n in nets if self.unit(n) is None} | (nets & self.bus)
         decided |= {s.ref for name in domains for s in self._supplies(name)}
         decided |= self._bus_switching_x(domains, x_refs)
         return Restricted(
@@ -211,7 +254,7 @@ class Rungs:
                 return None
             return {net for _, net in edit.connections}
         component = self.netlist.component(edit.ref)
-        if component is None or edit.ref in self.bus_refs:
+        if component is None or self.on_bus(component):
             return None
         if component.kind in _BUS_KINDS:
             return None
@@ -219,7 +262,7 @@ class Rungs:
         if isinstance(edit, Reconnect):
             wiring.update(dict(edit.connections))
         if isinstance(edit, Remove):
-            return {net for net in wiring.values() if net in self.unit_of}
+            return {net for net in wiring.values() if self.unit(net) is not None}
         return set(wiring.values())
 
     def _old_nets(self, edit: Edit) -> set[str]:
@@ -264,7 +307,7 @@ class Rungs:
             for element in self.globals.get(name, ()):
                 ref = element.split(":", 1)[0]
                 original = self.analysis.elements.get(element)
-                if ref in self.bus_refs and original is not None:
+                if original is not None and self.is_bus_ref(ref):
                     if any(ld.facts.ref in x_refs for ld in original.loads):
                         out.add(ref)
         return out

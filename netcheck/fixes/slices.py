@@ -51,6 +51,7 @@ from __future__ import annotations
 from bisect import bisect_left, bisect_right
 from collections.abc import Callable, Iterable, Mapping, Sequence
 from dataclasses import dataclass, replace
+from functools import cached_property
 
 from netcheck.analysis.domain import shunts
 from netcheck.analysis.elements import Analysis, analyse
@@ -77,20 +78,50 @@ class Slices:
 
     def __init__(self, rungs: Rungs) -> None:
         self.rungs = rungs
-        netlist = rungs.netlist
-        graph = rungs.analysis.graph
-        self.position = {c.ref: i for i, c in enumerate(netlist.components)}
-        self.bus_by_domain: dict[str, list[str]] = {}
-        for component in netlist.components:
-            if component.ref in rungs.bus_refs and component.connections:
-                domain = graph.domain_of[component.connections[0].net]
-                self.bus_by_domain.setdefault(domain.name, []).append(component.ref)
-        self.bus_nets: dict[str, list[str]] = {}
-        for net in sorted(rungs.bus):
-            self.bus_nets.setdefault(graph.domain_of[net].name, []).append(net)
-        self.folded: dict[str, list[str]] = {}
-        for net in graph.connections:
-            self.folded.setdefault(net.lower(), []).append(net)
+        self._bus_of: dict[str, list[str]] = {}
+
+    @cached_property
+    def position(self) -> dict[str, int]:
+        """Each component's place in the design."""
+        return {c.ref: i for i, c in enumerate(self.rungs.netlist.components)}
+
+    @cached_property
+    def bus_nets(self) -> dict[str, list[str]]:
+        """The bus nets of each solved domain, sorted."""
+        domain_of = self.rungs.analysis.graph.domain_of
+        out: dict[str, list[str]] = {}
+        for net in sorted(self.rungs.bus):
+            out.setdefault(domain_of[net].name, []).append(net)
+        return out
+
+    @cached_property
+    def folded(self) -> dict[str, list[str]]:
+        """The design's nets by their names in lower case."""
+        out: dict[str, list[str]] = {}
+        for net in self.rungs.analysis.graph.connections:
+            out.setdefault(net.lower(), []).append(net)
+        return out
+
+    def bus_components(self, name: str) -> list[str]:
+        """The bus components of domain ``name``: those whose first net is in it.
+
+        Found from the domain's bus nets (a bus component has no other), each
+        component met at its first connection; once per domain.
+        """
+        found = self._bus_of.get(name)
+        if found is None:
+            connections = self.rungs.analysis.graph.connections
+            on_bus = self.rungs.on_bus
+            seen: set[str] = set()
+            found = []
+            for net in self.bus_nets.get(name, ()):
+                for component, _ in connections[net]:
+                    first = component.connections[0].net
+                    if first == net and component.ref not in seen and on_bus(component):
+                        seen.add(component.ref)
+                        found.append(component.ref)
+            self._bus_of[name] = found
+        return found
 
     def allows(self, plan: Restricted, edits: Sequence[Edit]) -> bool:
         """Whether ``plan`` can be re-checked by slice: see the module's docstring.
@@ -117,7 +148,7 @@ class Slices:
         """The slice's components of the original design (edits not applied)."""
         refs = {r for r in plan.x_refs if r in self.position}
         for name in plan.domains:
-            refs.update(self.bus_by_domain.get(name, ()))
+            refs.update(self.bus_components(name))
         return refs
 
     def build(self, edited: Netlist, plan: Restricted) -> Slice:
