@@ -13,7 +13,10 @@ domains too). A *bus component* has bus nets only (a fuse, a lamp across the
 rails, the supply itself).
 
 *Rung-local elements.* An element whose searched side (``ZeroOhm.sides``, the
-smaller side) holds no bus net, with no bypass, in the domain's main state,
+smaller side, its bypass open) holds no bus net, with no bypass or a bypass
+block of off-bus nets only (parallel contacts inside a rung: every zero-ohm
+path out of such a block meets the bus, so the block and its bypass are its
+unit's own, the same in the edited design), in the domain's main state,
 reads only its own unit: its side and the injections into it (branch currents
 of its unit: the closed-state solve fixes rails at the supply EMF and solves
 each internal component alone, and currents between fixed nodes are per
@@ -26,7 +29,8 @@ the edited design when its other side stays at least one net larger: the
 *slack* of each rail group (``|group| - 2·|side| - 1``, least over its
 rung-local elements) must cover the nets of the touched units in the group.
 Every other element is *global* (bus elements, low-side contacts whose side is
-the negative rail, bypassed or changeover elements).
+the negative rail, elements bypassed through a load or by a block that holds a
+bus net, changeover elements).
 
 *The cut.* Let X be the units the edits touch (nets of the edited components,
 before and after). Re-analysed (``analyse(only=...)``): X's components, the
@@ -55,7 +59,7 @@ build the cluster at all: :mod:`netcheck.fixes.slices` analyses X and the bus.
 
 from __future__ import annotations
 
-from collections.abc import Iterable, Sequence
+from collections.abc import Container, Iterable, Sequence
 from dataclasses import dataclass, fields
 
 from netcheck.analysis.domain import DomainState, shunts
@@ -197,13 +201,11 @@ class Rungs:
         key = branch.key
         if key in state.opened or self._bus_branch(branch):
             return False
-        if key not in zero.by_key or zero.bypass(key) or zero.bypass_through_load(key):
+        side = opened_side(zero, key, self.bus)
+        if side is None or any(net in self.bus for net in side):
             return False
-        side, _ = zero.sides(key, set())
         if not side:
             return True
-        if any(net in self.bus for net in side):
-            return False
         group = state.group[branch.a]
         if group not in state.rails:
             return True
@@ -339,6 +341,27 @@ class Rungs:
                 ):
                     return False
         return True
+
+
+def opened_side(zero: ZeroOhm, key: str, bus: Container[str]) -> set[str] | None:
+    """The side ``open_element`` finds for ``key``, if it can be rung-local.
+
+    That is the smaller side with the element and its bypass open
+    (``ZeroOhm.sides``). None where the element is not closed, a bypass runs
+    through a load, or its bypass block holds a bus net: a block of off-bus
+    nets has only its unit's branches (every zero-ohm path out of it meets
+    the bus), so its bypass is the same in the edited design.
+    """
+    if key not in zero.by_key or zero.bypass_through_load(key):
+        return None
+    bypass = zero.bypass(key)
+    if bypass:
+        block = zero.blocks[zero.block_of[key]]
+        ends = (zero.by_key[k] for k in block)
+        if any(b.a in bus or b.b in bus for b in ends):
+            return None
+    side, _ = zero.sides(key, set(bypass))
+    return side
 
 
 def _suppressors(suppressors: Iterable[Suppressor]) -> tuple:  # type: ignore[type-arg]

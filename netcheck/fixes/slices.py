@@ -22,9 +22,11 @@ states, the shorts that touch X (conducting paths through X's groups, or one
 diode of X from rail to rail) and the injections into X's nets (sums over X's
 branches, in their order) are the edited design's.
 
-*Elements of X.* Each must have, in the slice, a side (``ZeroOhm.sides``) that
-holds no bus net and no bypass: then that side is closed in the whole design
-too (its nets' branches are X's), the other side only larger, so the side, the
+*Elements of X.* Each must have, in the slice, a side (``ZeroOhm.sides``, its
+bypass open) that holds no bus net, and no bypass or a bypass block of off-bus
+nets only (``rungs.opened_side``: X's own branches): then that side is closed
+in the whole design too (its nets' branches are X's), the bypass the same,
+the other side only larger, so the side, the
 cut-off region and its solve are the same; a changeover (a second solved
 state) falls back. The making current at closing solves the whole domain's
 network: an element with a stated making current, or switching a lamp or a
@@ -57,7 +59,7 @@ from netcheck.analysis.domain import shunts
 from netcheck.analysis.elements import Analysis, analyse
 from netcheck.analysis.zero_ohm import ZeroOhm
 from netcheck.fixes.edits import AddComponent, Edit, apply_edits
-from netcheck.fixes.rungs import Restricted, Rungs
+from netcheck.fixes.rungs import Restricted, Rungs, opened_side
 from netcheck.graph import CONDUCTOR, SWITCH, Graph, build_graph
 from netcheck.model import Component, Netlist
 
@@ -255,9 +257,7 @@ class Slices:
         return True
 
     def _side_local(self, zero: ZeroOhm, key: str) -> bool:
-        if key not in zero.by_key or zero.bypass(key) or zero.bypass_through_load(key):
-            return False
-        side, _ = zero.sides(key, set())
+        side = opened_side(zero, key, self.rungs.bus)
         return bool(side) and not any(net in self.rungs.bus for net in side)
 
 
