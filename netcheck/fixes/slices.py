@@ -40,6 +40,16 @@ decided element or load reads are found in the slice. The degree of a bus net
 is given, the edit applied, in design order; nets of the same name but case
 are given too (the hint of a single-connection net names them).
 
+*Loads across the bus.* A load whose nets are bus nets of different zero-ohm
+groups (a pilot lamp across the rails) is left out of the slice where the
+domain's bus components are only its supply, fuses, breakers and such loads
+and its solved state has no short: with the rails at their potentials (the
+check above) such a load draws its own current and nothing else reads it. It
+is no chain's part, no shunt, no short's; no suppressor sits across it; the
+decided findings (X's, the touched bus nets' by their whole connection
+lists, the supply's: its group ends and prospective current) never read it.
+Its own findings are not decided.
+
 *Checks.* The suppressors fitted (each by the first element by name switching
 its load: one of X, the domain having no global one), series partners (same
 loads), service and standing voltages (potentials above), reversed diodes and
@@ -55,7 +65,7 @@ from collections.abc import Callable, Iterable, Mapping, Sequence
 from dataclasses import dataclass, replace
 from functools import cached_property
 
-from netcheck.analysis.domain import shunts
+from netcheck.analysis.domain import DomainState, shunts
 from netcheck.analysis.elements import Analysis, analyse
 from netcheck.analysis.zero_ohm import ZeroOhm
 from netcheck.fixes.edits import AddComponent, Edit, apply_edits
@@ -80,7 +90,7 @@ class Slices:
 
     def __init__(self, rungs: Rungs) -> None:
         self.rungs = rungs
-        self._bus_of: dict[str, list[str]] = {}
+        self._bus_of: dict[str, tuple[list[str], list[str]]] = {}
 
     @cached_property
     def position(self) -> dict[str, int]:
@@ -104,25 +114,31 @@ class Slices:
             out.setdefault(net.lower(), []).append(net)
         return out
 
-    def bus_components(self, name: str) -> list[str]:
-        """The bus components of domain ``name``: those whose first net is in it.
+    def bus_components(self, name: str) -> tuple[list[str], list[str]]:
+        """Domain ``name``'s bus components: (held in a slice, left out).
 
-        Found from the domain's bus nets (a bus component has no other), each
-        component met at its first connection; once per domain.
+        Those whose first net is in the domain, found from its bus nets (a bus
+        component has no other), each met at its first connection; the loads
+        across the bus are left out where the domain allows (module
+        docstring). Once per domain.
         """
         found = self._bus_of.get(name)
         if found is None:
             connections = self.rungs.analysis.graph.connections
             on_bus = self.rungs.on_bus
             seen: set[str] = set()
-            found = []
+            parts: list[Component] = []
             for net in self.bus_nets.get(name, ()):
                 for component, _ in connections[net]:
                     first = component.connections[0].net
                     if first == net and component.ref not in seen and on_bus(component):
                         seen.add(component.ref)
-                        found.append(component.ref)
-            self._bus_of[name] = found
+                        parts.append(component)
+            held, apart = parts, []
+            if _loads_apart(parts, self.rungs.analysis.states[name]):
+                held = [c for c in parts if c.kind != "load"]
+                apart = [c for c in parts if c.kind == "load"]
+            found = self._bus_of[name] = ([c.ref for c in held], [c.ref for c in apart])
         return found
 
     def allows(self, plan: Restricted, edits: Sequence[Edit]) -> bool:
@@ -143,14 +159,25 @@ class Slices:
         )
 
     def cost(self, plan: Restricted) -> int:
-        """Components charged for the slice's re-check: the slice itself."""
-        return len(self.refs(plan))
+        """Components charged for the slice's re-check: the slice itself.
 
-    def refs(self, plan: Restricted) -> set[str]:
-        """The slice's components of the original design (edits not applied)."""
+        The loads across the bus it leaves out are charged all the same: a
+        re-check has fixed costs that a few components would not cover, and
+        the fixes verified within the budget stay those of the full slice.
+        """
+        return len(self.refs(plan, charged=True))
+
+    def refs(self, plan: Restricted, charged: bool = False) -> set[str]:
+        """The slice's components of the original design (edits not applied).
+
+        ``charged``: with the bus loads left out of it (:meth:`cost`).
+        """
         refs = {r for r in plan.x_refs if r in self.position}
         for name in plan.domains:
-            refs.update(self.bus_components(name))
+            held, apart = self.bus_components(name)
+            refs.update(held)
+            if charged:
+                refs.update(apart)
         return refs
 
     def build(self, edited: Netlist, plan: Restricted) -> Slice:
@@ -285,6 +312,29 @@ def _merged(
         if entry[0].ref in x:
             kept.insert(bisect_right(kept, place(entry), key=place), entry)
     return kept
+
+
+_WIRING_KINDS = frozenset({"supply", "fuse", "breaker"})
+
+
+def _loads_apart(parts: Sequence[Component], state: DomainState) -> bool:
+    """Whether the bus loads among ``parts`` can be left out of the slices.
+
+    Every part is the supply, a fuse, a breaker or a two-terminal load across
+    two zero-ohm groups, and the solved state has no short.
+    """
+    if state.shorts or state.supply_shorts:
+        return False
+    group = state.group
+    for part in parts:
+        if part.kind in _WIRING_KINDS:
+            continue
+        nets = [c.net for c in part.connections]
+        if part.kind != "load" or len(nets) != 2 or part.elements:
+            return False
+        if group.get(nets[0]) is None or group.get(nets[0]) == group.get(nets[1]):
+            return False
+    return True
 
 
 def _same_rails(before, after, nets: Iterable[str]) -> bool:  # type: ignore[no-untyped-def]

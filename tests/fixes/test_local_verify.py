@@ -365,3 +365,22 @@ def test_chosen_slice_edits_agree_with_whole_design(
     assert cut.restricted is not None and taken == (way == "slice")
     for finding in findings:
         assert local.passes(finding, edits) == whole.passes(finding, edits), finding
+
+
+def test_slices_leave_out_the_loads_across_the_bus(tmp_path: Path) -> None:
+    """The sliced tests above cover slices without their pilot lamps.
+
+    The mixed shape's domains have only a supply, fuses and lamps on the bus:
+    the lamps stay out of the slices (but are charged). A suppressor across
+    the rails keeps every bus part in.
+    """
+    top = _gen_design().generate(2000, tmp_path, shape="mixed")
+    netlist, analysis = analyse_path(top)
+    pieces = Slices(Rungs(netlist, analysis))
+    apart = [pieces.bus_components(name)[1] for name in sorted(pieces.rungs.solved)]
+    assert any(apart)
+    for refs in apart:
+        assert all(netlist.component(r).kind == "load" for r in refs)  # type: ignore[union-attr]
+    netlist, analysis = analyse_path(CUT_DESIGNS / "rails-suppressor.cnet")
+    pieces = Slices(Rungs(netlist, analysis))
+    assert all(not pieces.bus_components(n)[1] for n in pieces.rungs.solved)
