@@ -47,12 +47,11 @@ def element_statuses(
     lacking = {f.element for f in findings if f.rule == MISSING_DATA}
     out = []
     for element in analysis.sorted_elements():
-        group = {element.name, *element.series_elements}
         if element.supply is None:
             status, reason = "unverified", NOT_ANALYSED
         elif element.supply == "ac":
             status, reason = "ac", ""
-        elif group & lacking:
+        elif lacking and _lacks(element.name, element.series_elements, lacking):
             status, reason = "unverified", MISSING_DATA
         else:
             status, reason = "verified", ""
@@ -63,3 +62,8 @@ def element_statuses(
             )
         )
     return tuple(out)
+
+
+def _lacks(name: str, series: Iterable[str], lacking: set[str]) -> bool:
+    """Whether the element or one of its series group has data missing."""
+    return name in lacking or any(other in lacking for other in series)
