@@ -14,9 +14,9 @@ rails, the supply itself).
 
 *Rung-local elements.* An element whose searched side (``ZeroOhm.sides``, the
 smaller side, its bypass open) holds no bus net, with no bypass or a bypass
-block of off-bus nets only (parallel contacts inside a rung: every zero-ohm
-path out of such a block meets the bus, so the block and its bypass are its
-unit's own, the same in the edited design), in the domain's main state,
+block of off-bus nets only (parallel contacts inside a rung: the block and
+its bypass are its unit's own, the same in the edited design, see
+``opened_side``), in the domain's main state,
 reads only its own unit: its side and the injections into it (branch currents
 of its unit: the closed-state solve fixes rails at the supply EMF and solves
 each internal component alone, and currents between fixed nodes are per
@@ -349,8 +349,11 @@ def opened_side(zero: ZeroOhm, key: str, bus: Container[str]) -> set[str] | None
     That is the smaller side with the element and its bypass open
     (``ZeroOhm.sides``). None where the element is not closed, a bypass runs
     through a load, or its bypass block holds a bus net: a block of off-bus
-    nets has only its unit's branches (every zero-ohm path out of it meets
-    the bus), so its bypass is the same in the edited design.
+    nets has only its unit's branches (a zero-ohm path out of it stays in
+    the unit until it meets the bus), and an edit elsewhere could join it to
+    a larger cycle only through two rails its unit already joins, which puts
+    a bus net on both sides of the element (global), so its bypass is the
+    same in the edited design.
     """
     if key not in zero.by_key or zero.bypass_through_load(key):
         return None
