@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from collections.abc import Iterable, Iterator
+from collections.abc import Iterable
 from dataclasses import dataclass, field
 
 import networkx as nx
@@ -108,35 +108,83 @@ def supply_kind(component: Component) -> str:
     return "ac" if component.value("ac") is not None else "dc"
 
 
-def _component_branches(component: Component) -> Iterator[Branch]:
+# Where a two-terminal part's terminals go: the first (a) end, the second (b).
+_END = {"1": 0, "+": 0, "A": 0, "2": 1, "-": 1, "K": 1}.get
+
+
+_NEW = object.__new__
+
+
+def _branch(
+    component: Component,
+    role: str,
+    a: str,
+    b: str,
+    element: SwitchingElement | None,
+    key: str,
+) -> Branch:
+    """``Branch(component, role, a, b, element)``, its ``ref``, ``kind``, ``key`` set.
+
+    ``key`` is what ``Branch.key`` works out (the caller knows which case it
+    is); ``tests/test_graph_build.py`` holds all three equal to the properties.
+    """
+    branch = _NEW(Branch)
+    fields = branch.__dict__
+    fields["component"] = component
+    fields["role"] = role
+    fields["a"] = a
+    fields["b"] = b
+    fields["element"] = element
+    fields["ref"] = component.ref
+    fields["kind"] = component.kind
+    fields["key"] = key
+    return branch
+
+
+def _component_branches(component: Component) -> list[Branch]:
+    """The branches of one component, in order (coil, elements, poles, body)."""
+    out: list[Branch] = []
+    _add_branches(component, out)
+    return out
+
+
+def _add_branches(component: Component, out: list[Branch]) -> None:
+    """Append the branches of ``component`` to ``out``: coil, elements, poles, body.
+
+    Called once a component of a large design, so it appends instead of
+    yielding (a generator resumes once a branch) and orders a two-terminal
+    part's ends by comparison instead of a keyed sort.
+    """
+    connections = component.connections
     # Component.net_of as one dict (the first connection of a terminal wins).
-    net = {c.terminal: c.net for c in reversed(component.connections)}.get
+    net = {c.terminal: c.net for c in reversed(connections)}.get
     kind = component.kind
     if kind == "supply":
         a, b = ("+", "-") if net("+") or net("-") else ("L", "N")
         if net(a) and net(b):
-            yield Branch(component, SUPPLY, net(a), net(b))  # type: ignore[arg-type]
+            out.append(_branch(component, SUPPLY, net(a), net(b), None, component.ref))  # type: ignore[arg-type]
         return
     if kind in COIL_KINDS and net("A1") and net("A2"):
-        yield Branch(component, COIL, net("A1"), net("A2"))  # type: ignore[arg-type]
+        key = f"{component.ref}:coil"
+        out.append(_branch(component, COIL, net("A1"), net("A2"), None, key))  # type: ignore[arg-type]
     for element in component.elements:
         a, b = net(element.a), net(element.b)
         if a and b:
-            yield Branch(component, SWITCH, a, b, element)
+            out.append(_branch(component, SWITCH, a, b, element, element.name))
     if kind in PROTECTIVE_KINDS:
         for pole in component.poles:
             a, b = net(pole.common), net(pole.no or "")
             if a and b:
-                yield Branch(component, CONDUCTOR, a, b)
+                out.append(_branch(component, CONDUCTOR, a, b, None, component.ref))
         return
-    if kind in SWITCHING_KINDS:
+    if kind in SWITCHING_KINDS or len(connections) != 2:
         return
-    terminals = [c.terminal for c in component.connections]
-    if len(terminals) == 2:
-        order = {"1": 0, "+": 0, "A": 0, "2": 1, "-": 1, "K": 1}
-        first, second = sorted(terminals, key=lambda t: order.get(t, 2))
-        role = LOAD if kind == "load" else kind
-        yield Branch(component, role, net(first), net(second))  # type: ignore[arg-type]
+    first, second = connections[0].terminal, connections[1].terminal
+    if _END(second, 2) < _END(first, 2):  # the stable sort by end: ties keep order
+        first, second = second, first
+    role = LOAD if kind == "load" else kind
+    ends = net(first), net(second)
+    out.append(_branch(component, role, *ends, None, component.ref))  # type: ignore[arg-type]
 
 
 @dataclass
@@ -166,10 +214,14 @@ def _build_graph(netlist: Netlist) -> Graph:
     connections: dict[str, list[tuple[Component, str]]] = {}
     for component in netlist.components:
         for connection in component.connections:
-            connections.setdefault(connection.net, []).append(
-                (component, connection.terminal)
-            )
-    branches = [b for c in netlist.components for b in _component_branches(c)]
+            at = connections.get(connection.net)
+            if at is None:
+                connections[connection.net] = [(component, connection.terminal)]
+            else:
+                at.append((component, connection.terminal))
+    branches: list[Branch] = []
+    for component in netlist.components:
+        _add_branches(component, branches)
     graph = net_graph(connections, branches)
     domains, domain_of = [], {}
     supplies_at: dict[str, list[Component]] = {}
@@ -212,7 +264,10 @@ def net_graph(nets: Iterable[str], branches: Iterable[Branch]) -> nx.MultiGraph:
         if keys is None:
             keys = adjacency[a][b] = {}
             adjacency[b][a] = keys
-        data = keys.setdefault(branch.key, {})
+        key = branch.key
+        data = keys.get(key)
+        if data is None:
+            data = keys[key] = {}
         data[ROLE] = branch.role
         data[BRANCH] = branch
     return graph

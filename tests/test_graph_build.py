@@ -14,7 +14,7 @@ from pathlib import Path
 import networkx as nx
 import pytest
 
-from netcheck.graph import BRANCH, ROLE, build_graph
+from netcheck.graph import BRANCH, ROLE, Branch, build_graph
 from netcheck.input import load_design, read_design_text
 
 ROOT = Path(__file__).resolve().parent.parent
@@ -70,3 +70,20 @@ def test_self_loops_parallel_edges_and_a_repeated_key():
     _same(graph.graph, _public(graph.connections, graph.branches))
     assert graph.graph.number_of_edges("P", "Q") == 1
     assert graph.graph.number_of_edges("Q", "Q") == 1
+
+
+@pytest.mark.parametrize("shape", ["mixed", "one-rail", "parallel", "plc"])
+def test_built_branches_carry_what_their_properties_work_out(tmp_path, shape):
+    # build_graph writes each branch's ref, kind and key as it makes it; a
+    # branch made by Branch(...) works them out on first read: they must agree.
+    gen_design.generate(400, tmp_path, shape=shape)
+    paths = [tmp_path / "design.cnet", *SAMPLES]
+    for path in paths:
+        for built in build_graph(load_design(path)).branches:
+            fresh = Branch(built.component, built.role, built.a, built.b, built.element)
+            assert fresh == built
+            assert (fresh.ref, fresh.kind, fresh.key) == (
+                built.ref,
+                built.kind,
+                built.key,
+            )
