@@ -59,6 +59,13 @@ _TOKEN = re.compile(
     rf")(?=[ \t]|#|\Z)|(#.*)|(.))"
 )
 _TOKEN_FIELD, _NAME_FIELD, _COMMENT_FIELD = 1, 2, 7
+# A plain line: blank-separated names, key=value (unquoted) and terminal:net,
+# no string and no comment, which most lines of a design are. Such a line
+# holds only these characters and blanks, so ``str.split`` gives its tokens
+# and ``str.find`` their columns, without a tuple of groups a token.
+_PLAIN = re.compile(
+    rf"(?:[ \t]*+{_NAME}+(?:={_VALUE}+|:{_NAME}+)?+(?![^ \t]))*+[ \t]*+"
+)
 # A token as keyword statements use it: (text, second text, shape, line,
 # column, end column); shapes NAME, LINK (terminal:net) and STRING.
 NAME, LINK, STRING = range(3)
@@ -122,6 +129,103 @@ def _items(
     return end
 
 
+def _plain_items(
+    file: str,
+    number: int,
+    line: str,
+    words: list[str],
+    at: int,
+    attributes: list[RawAttribute],
+    connections: list[Connection],
+) -> int | None:
+    """``_items`` for ``words`` of a plain line, the first at or after ``at``.
+
+    The same checks, spans and objects as ``_items`` (a plain line's token is
+    a bare name, ``key=value`` or ``terminal:net``; neither a name nor a value
+    holds ``=`` or ``:``).
+    """
+    keywords = KEYWORDS
+    intern = sys.intern
+    find = line.find
+    end = 0
+    for word in words:
+        start = find(word, at)  # only blanks lie between ``at`` and the word
+        at = start + len(word)
+        end = at + 1
+        name, equals, value = word.partition("=")
+        if not equals:
+            name, colon, value = word.partition(":")
+            if not colon:
+                return None  # a bare name
+        if name in keywords or value in keywords:
+            return None  # how the grammar lexes a keyword there is its business
+        span = _NEW(Span)  # new_span(...), written out (a call per token)
+        fields = span.__dict__
+        fields["file"] = file
+        fields["line"] = number
+        fields["column"] = start + 1
+        fields["end_line"] = number
+        fields["end_column"] = end
+        if equals:
+            item = _NEW(RawAttribute)  # RawAttribute(...), written out
+            fields = item.__dict__
+            fields["key"] = intern(name)
+            fields["text"] = intern(value)
+            fields["quoted"] = False
+            fields["span"] = span
+            attributes.append(item)
+        else:
+            item = _NEW(Connection)  # Connection(...), written out
+            fields = item.__dict__
+            fields["terminal"] = intern(name)
+            fields["net"] = intern(value)
+            fields["span"] = span
+            connections.append(item)
+    return end
+
+
+def _plain_statement(file: str, group: Group) -> Statement | None:
+    """``_statement`` for a statement of plain lines (``_PLAIN``), or None."""
+    first, line, _ = group[0]
+    words = line.split()
+    if len(words) < 2:
+        return None
+    kind, ref = words[0], words[1]
+    if (
+        kind in KEYWORDS
+        or ref in KEYWORDS
+        or "=" in kind
+        or ":" in kind
+        or "=" in ref
+        or ":" in ref
+    ):
+        return None  # a keyword statement (which needs a string) or no name
+    ref_at = line.find(ref, len(kind))  # a statement starts in column 1
+    attributes: list[RawAttribute] = []
+    connections: list[Connection] = []
+    at = ref_at + len(ref)
+    last = _plain_items(file, first, line, words[2:], at, attributes, connections)
+    if last is None:
+        return None
+    end = (first, last or at + 1)
+    for number, line, _ in group[1:]:
+        last = _plain_items(
+            file, number, line, line.split(), 0, attributes, connections
+        )
+        if last is None:
+            return None
+        end = (number, last)
+    statement = _NEW(ComponentStatement)  # its __init__, written out
+    fields = statement.__dict__
+    fields["kind"] = sys.intern(kind)
+    fields["ref"] = ref
+    fields["attributes"] = tuple(attributes)
+    fields["connections"] = tuple(connections)
+    fields["span"] = new_span(file, first, 1, *end)
+    fields["ref_span"] = new_span(file, first, ref_at + 1, first, at + 1)
+    return statement
+
+
 def _bare(token: tuple[str, ...]) -> str:
     """The name of a bare-name token, else ''."""
     name = token[_NAME_FIELD]
@@ -151,6 +255,9 @@ def _keyword_tokens(tokens: list[tuple[str, ...]], number: int) -> list[Token]:
 
 # The lines of one statement: (line number, its findall tuples) each.
 Lines = list[tuple[int, list[tuple[str, ...]]]]
+# The lines of one statement as the reader collects them: (number, text, its
+# findall tuples, or None for a plain line, which ``_plain_statement`` reads).
+Group = list[tuple[int, str, "list[tuple[str, ...]] | None"]]
 
 
 def _statement(file: str, group: Lines) -> Statement | None:
@@ -261,33 +368,60 @@ def fast_statements(
     except _GiveUp:
         return None
     out: list[Statement] = []
-    group: Lines = []  # the lines of the statement being read
+    group: Group = []  # the lines of the statement being read
     tokens_of = _TOKEN.findall
+    plain = _PLAIN.fullmatch
     for number, line in enumerate(lines, start=1):
-        tokens = tokens_of(line)
-        if not tokens or tokens[0][_COMMENT_FIELD]:
-            continue
+        if plain(line) is not None:
+            if not line or line.isspace():
+                continue  # a blank line belongs to no statement
+            tokens = None
+        else:
+            tokens = tokens_of(line)
+            if not tokens or tokens[0][_COMMENT_FIELD]:
+                continue
         if line[0] in " \t":
             if not group:
                 return None  # an indented first statement: the grammar words it
-            group.append((number, tokens))
+            group.append((number, line, tokens))
             continue
         if group and not _add(file, group, lines, grammar, out):
             return None
-        group = [(number, tokens)]
+        group = [(number, line, tokens)]
     if group and not _add(file, group, lines, grammar, out):
         return None
     return out
 
 
+def _read(file: str, group: Group) -> Statement | None:
+    """The statement of ``group``'s lines, or None if the line reader is unsure."""
+    for _, _, tokens in group:
+        if tokens is not None:
+            break
+    else:
+        return _plain_statement(file, group)
+    findall = _TOKEN.findall
+    return _statement(
+        file,
+        [
+            (number, findall(line) if tokens is None else tokens)
+            for number, line, tokens in group
+        ],
+    )
+
+
 def _add(
-    file: str, group: Lines, lines: list[str], grammar: Grammar | None, out: list
+    file: str,
+    group: Group,
+    lines: list[str],
+    grammar: Grammar | None,
+    out: list,
 ) -> bool:
     """Add the statement of ``group`` to ``out`` (by the grammar if unsure).
 
     False if the line reader is unsure and the grammar (if any) finds an error.
     """
-    read = _statement(file, group)
+    read = _read(file, group)
     if read is not None:
         out.append(read)
         return True
