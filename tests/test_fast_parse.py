@@ -296,3 +296,60 @@ def test_worked_out_spans_are_the_tokens_spans(path):
     assert [s.kind_span for s in components] == kinds
     if "sample_nets" in path.parts:
         assert values  # the samples at least have attributes to compare
+
+
+# Plain lines (no string, no comment) are read by str.split and str.find after
+# one validating match: what it must take, and what it must leave to the
+# token-by-token reader or the grammar (odd blanks, separators, keywords).
+_PLAIN_TAKEN = [
+    "load H1 1:a 2:b",
+    "load\tH1\t\t1:a  2:b   ",  # tabs, runs of blanks, trailing blanks
+    "load H1",  # no items
+    "relay K1 part=r\n    A1:a A2:b\n\t13:c 14:d\n",
+    "relay K1\n  A1:a\n   \n  A2:b",  # a blank line inside a statement
+    "load H1 v=24V note=a,b r_int=4,7k x~y=85% 1:W1.2",
+    "load H1 v=47Ω\r\nload H2 1:a\r\n",
+    "load 1 1:1 2:1\nload 11 1:11 2:1",  # a reference inside the kind's text
+]
+_PLAIN_REFUSED = [
+    "load H1 a=b=c",
+    "load H1 1:a:b",
+    "load H1 k= 1:a",
+    "load H1 =v",
+    "load H1 1:",
+    "load H1 x",  # a bare name as an item
+    "load H1=3 1:a",
+    "lo:ad H1 1:a",
+    "load H1 v=24V\u00a01:a",  # a no-break space
+    "load H1 1:a\v2:b",
+    "load H1 1:a\x1c2:b",  # a separator str.split would take for a blank
+    "load H1 v=24V k=title",
+    "title H1 1:a",
+    "load waive 1:a",
+    "load H1 include:a",
+    "load H1 1:parts",
+    "load H1 1:a\n  load H2 1:b",
+    "load",
+    "load H1 1:a\n  2:b=c=d",
+]
+
+
+@pytest.mark.parametrize("text", _PLAIN_TAKEN + _PLAIN_REFUSED)
+def test_plain_lines_read_the_same(text):
+    _agree(text)
+
+
+@pytest.mark.parametrize("text", _PLAIN_TAKEN)
+def test_plain_lines_take_the_plain_path(text, monkeypatch):
+    import netcheck.input.cnet.fast as fast
+
+    calls = []
+    plain = fast._plain_statement
+
+    def counted(file, group):
+        calls.append(group)
+        return plain(file, group)
+
+    monkeypatch.setattr(fast, "_plain_statement", counted)
+    assert fast_statements(text, "t.cnet") is not None
+    assert calls
