@@ -59,29 +59,47 @@ class Template:
         )
 
     def component(self, statement: ComponentStatement) -> Component:
-        """The component of ``statement``, a statement of this template's shape."""
+        """The component of ``statement``, a statement of this template's shape.
+
+        The same objects as ``Component(kind, ref, span, connections,
+        (Attribute(...), ...), part, merged, tags, poles, (SwitchingElement(...),
+        ...))``, their fields written out (``tests/test_model_init.py`` holds
+        the model's own ``__init__`` to the same): three constructor calls a
+        component were a third of the build of a large design.
+        """
         ref, span = statement.ref, statement.span
-        return Component(
-            statement.kind,
-            ref,
-            span,
-            statement.connections,
-            tuple(
-                [
-                    Attribute(raw.key, value, raw.text, raw.span)
-                    for raw, value in zip(
-                        statement.attributes, self.values, strict=True
-                    )
-                ]
-            ),
-            self.part,
-            self.merged,
-            self.tags,
-            self.poles,
-            tuple(
-                [
-                    SwitchingElement(ref, a, b, form, span)
-                    for a, b, form in self.elements
-                ]
-            ),
-        )
+        attributes = []
+        for raw, value in zip(statement.attributes, self.values, strict=True):
+            attribute = _NEW(Attribute)
+            fields = attribute.__dict__
+            fields["key"] = raw.key
+            fields["value"] = value
+            fields["text"] = raw.text
+            fields["span"] = raw.span
+            attributes.append(attribute)
+        elements = []
+        for a, b, form in self.elements:
+            element = _NEW(SwitchingElement)
+            fields = element.__dict__
+            fields["device"] = ref
+            fields["a"] = a
+            fields["b"] = b
+            fields["form"] = form
+            fields["span"] = span
+            elements.append(element)
+        component = _NEW(Component)
+        fields = component.__dict__
+        fields["kind"] = statement.kind
+        fields["ref"] = ref
+        fields["span"] = span
+        fields["connections"] = statement.connections
+        fields["attributes"] = tuple(attributes)
+        fields["part"] = self.part
+        fields["values"] = self.merged
+        fields["tags"] = self.tags
+        fields["poles"] = self.poles
+        fields["elements"] = tuple(elements)
+        return component
+
+
+_NEW = object.__new__
