@@ -378,17 +378,23 @@ class _Builder:
 def _components(reader: Reader, builder: _Builder) -> list[Component]:
     components: list[Component] = []
     seen: dict[str, Span] = {}
+    templates = builder.templates.get
     for statement in reader.statements:
-        if statement.ref in seen:
+        ref = statement.ref
+        if ref in seen:
             reader.errors.append(
                 InputError(
-                    f"reference {statement.ref!r} is defined twice (first at "
-                    f"{seen[statement.ref]})",
+                    f"reference {ref!r} is defined twice (first at {seen[ref]})",
                     statement.ref_span,
                 )
             )
             continue
-        seen[statement.ref] = statement.span
+        seen[ref] = statement.span
+        # builder.component(statement), its usual case (a known shape) inline
+        template = templates(shape_of(statement))
+        if template is not None:
+            components.append(template.component(statement))
+            continue
         component = builder.component(statement)
         if component is not None:
             components.append(component)
