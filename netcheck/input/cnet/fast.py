@@ -3,9 +3,11 @@
 Almost every file of a design is well formed and made of a few statement shapes
 (``kind ref key=value ... terminal:net ...``, ``title``/``parts``/``include``
 with a string, ``waive``). Lexing them token by token through lark costs
-several microseconds a token; this splits each line into its tokens with one
-regular expression (``findall``, no match objects) and builds a component's
-attributes and connections as it goes. It reads only what it is sure of: a
+several microseconds a token; this checks a plain line (names, ``key=value``
+and ``terminal:net``, no string or comment: most lines) with one validating
+match and splits it with ``str.split``, and splits any other line into its
+tokens with one regular expression (``findall``, no match objects), building a
+component's attributes and connections as it goes. It reads only what it is sure of: a
 statement with anything else (a syntax error, a space around ``=`` or ``:``, a
 keyword used as a name) is handed alone to the grammar, its lines and
 positions kept; if the grammar finds an error there, or the file's lines
