@@ -8,7 +8,7 @@ from itertools import repeat
 
 import pint
 
-from netcheck.analysis.circuit import Solution, solve_dc
+from netcheck.analysis.circuit import Resistor, Solution, solve_dc
 from netcheck.analysis.domain import DomainState
 from netcheck.analysis.loads import LoadFacts
 from netcheck.analysis.suppression import Chain
@@ -84,6 +84,59 @@ class ElementAnalysis:
     missing: tuple[str, ...] = ()
     short_circuit: bool = False
     notes: tuple[str, ...] = field(default=())
+
+    def __init__(
+        self,
+        element: SwitchingElement,
+        component: Component,
+        domain: str | None,
+        supply: str | None,
+        voltage: pint.Quantity | None = None,
+        current: pint.Quantity | None = None,
+        loads: tuple[SwitchedLoad, ...] = (),
+        load_category: str | None = None,
+        time_constant: pint.Quantity | None = None,
+        t95: pint.Quantity | None = None,
+        energy: pint.Quantity | None = None,
+        suppression: tuple[Suppressor, ...] = (),
+        series_poles: int = 1,
+        series_elements: tuple[str, ...] = (),
+        other_series: tuple[str, ...] = (),
+        bypass: tuple[str, ...] = (),
+        direction: int = 0,
+        bidirectional: bool = False,
+        supply_ref: str | None = None,
+        missing: tuple[str, ...] = (),
+        short_circuit: bool = False,
+        notes: tuple[str, ...] = (),
+    ) -> None:
+        # The frozen dataclass's __init__ (one object.__setattr__ per field,
+        # 22 of them, per switching element), written straight into
+        # ``__dict__`` in the fields' order, as model.py's classes do.
+        self.__dict__.update(
+            element=element,
+            component=component,
+            domain=domain,
+            supply=supply,
+            voltage=voltage,
+            current=current,
+            loads=loads,
+            load_category=load_category,
+            time_constant=time_constant,
+            t95=t95,
+            energy=energy,
+            suppression=suppression,
+            series_poles=series_poles,
+            series_elements=series_elements,
+            other_series=other_series,
+            bypass=bypass,
+            direction=direction,
+            bidirectional=bidirectional,
+            supply_ref=supply_ref,
+            missing=missing,
+            short_circuit=short_circuit,
+            notes=notes,
+        )
 
     @property
     def name(self) -> str:
@@ -215,18 +268,25 @@ def _cut_off(
         node = "<open>"
         rename = {net: node for net in active}
         keys = _region(state, set(active), group)
-        models = [state.model(k, rename) for k in sorted(keys)]
-        resistors = [m for m in models if hasattr(m, "resistance")]
-        diodes = [m for m in models if not hasattr(m, "resistance")]
-        nodes = sorted({n for m in models for n in (m.a, m.b)} | {node, group})
-        fixed = {n: state.rails[n] for n in nodes if n in state.rails and n != node}
+        ordered = sorted(keys)
+        models = [state.model(k, rename) for k in ordered]
+        resistors = [m for m in models if type(m) is Resistor]
+        diodes = [m for m in models if type(m) is not Resistor]
+        ends = {node, group}
+        for m in models:
+            ends.add(m.a)
+            ends.add(m.b)
+        nodes = sorted(ends)
+        rails = state.rails
+        fixed = {n: rails[n] for n in nodes if n in rails and n != node}
         solution = solve_dc(nodes, fixed, resistors, diodes)  # type: ignore[arg-type]
+        facts, before, after = state.facts, state.currents, solution.currents
         switched = tuple(
             k
-            for k in sorted(keys)
-            if k in state.facts
-            and abs(state.currents.get(k, 0.0)) > _TINY
-            and abs(solution.currents.get(k, 0.0)) < LOST_SHARE * abs(state.currents[k])
+            for k in ordered
+            if k in facts
+            and abs(before.get(k, 0.0)) > _TINY
+            and abs(after.get(k, 0.0)) < LOST_SHARE * abs(before[k])
         )
         memo[key] = (keys, solution, switched)  # type: ignore[index]
     return memo[key]  # type: ignore[index,no-any-return]
