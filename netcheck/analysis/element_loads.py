@@ -36,10 +36,11 @@ def switched_loads(
     loads = []
     # DomainState.net_potential, inlined: a few reads per switched load.
     potentials, group = state.potentials, state.group
+    by_key, all_facts, currents = state.branch_by_key, state.facts, state.currents
     for key in opening.switched:
-        branch = state.branch_by_key[key]
-        facts = state.facts[key]
-        current = sag * abs(state.currents.get(key, 0.0))
+        branch = by_key[key]
+        facts = all_facts[key]
+        current = sag * abs(currents.get(key, 0.0))
         voltage = sag * abs(
             potentials.get(group[branch.a], 0.0) - potentials.get(group[branch.b], 0.0)
         )
@@ -98,10 +99,12 @@ def _switched(
     ctx: DomainContext, opening: Opening, power: bool, sag: float
 ) -> Switched:
     loads = tuple(switched_loads(ctx, opening, power, sag))
+    if not loads:
+        return Switched((), None, None, None, quantity(0.0, "J"), (), ())
     taus = [
         ld.facts.time_constant for ld in loads if ld.facts.time_constant is not None
     ]
-    tau = max(taus) if taus else (quantity(0.0, "s") if loads else None)
+    tau = max(taus) if taus else quantity(0.0, "s")
     energies = [ld.energy for ld in loads if ld.energy is not None]
     return Switched(
         loads,

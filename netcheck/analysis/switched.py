@@ -8,7 +8,7 @@ from itertools import repeat
 
 import pint
 
-from netcheck.analysis.circuit import Resistor, Solution, solve_dc
+from netcheck.analysis.circuit import Diode, Resistor, Solution, solve_dc
 from netcheck.analysis.domain import DomainState
 from netcheck.analysis.loads import LoadFacts
 from netcheck.analysis.suppression import Chain
@@ -44,6 +44,26 @@ class Suppressor:
     conducts: bool = False  # conducts in normal operation (e.g. a reversed diode)
     functional: bool = True  # can carry the load's current at opening
 
+    def __init__(
+        self,
+        kind: str,
+        placement: str,
+        refs: tuple[str, ...],
+        load: str | None,
+        chain: Chain | None = None,
+        conducts: bool = False,
+        functional: bool = True,
+    ) -> None:
+        # The frozen dataclass's __init__ without its object.__setattr__ calls.
+        fields = self.__dict__
+        fields["kind"] = kind
+        fields["placement"] = placement
+        fields["refs"] = refs
+        fields["load"] = load
+        fields["chain"] = chain
+        fields["conducts"] = conducts
+        fields["functional"] = functional
+
 
 @dataclass(frozen=True)
 class SwitchedLoad:
@@ -56,6 +76,26 @@ class SwitchedLoad:
     energy: pint.Quantity | None
     inductive: bool
     suppressors: tuple[Suppressor, ...]
+
+    def __init__(
+        self,
+        facts: LoadFacts,
+        current: pint.Quantity,
+        voltage: pint.Quantity,
+        category: str,
+        energy: pint.Quantity | None,
+        inductive: bool,
+        suppressors: tuple[Suppressor, ...],
+    ) -> None:
+        # The frozen dataclass's __init__ without its object.__setattr__ calls.
+        fields = self.__dict__
+        fields["facts"] = facts
+        fields["current"] = current
+        fields["voltage"] = voltage
+        fields["category"] = category
+        fields["energy"] = energy
+        fields["inductive"] = inductive
+        fields["suppressors"] = suppressors
 
 
 @dataclass(frozen=True)
@@ -177,6 +217,22 @@ class Opening:
     bypass: tuple[str, ...]
     floating_nets: frozenset[str]
 
+    def __init__(
+        self,
+        current_ab: float,
+        voltage_ab: float,
+        switched: tuple[str, ...],
+        bypass: tuple[str, ...],
+        floating_nets: frozenset[str],
+    ) -> None:
+        # The frozen dataclass's __init__ without its object.__setattr__ calls.
+        fields = self.__dict__
+        fields["current_ab"] = current_ab
+        fields["voltage_ab"] = voltage_ab
+        fields["switched"] = switched
+        fields["bypass"] = bypass
+        fields["floating_nets"] = floating_nets
+
 
 def net_injections(state: DomainState) -> dict[str, float]:
     """Current leaving each net into non-zero-ohm branches (supplies included)."""
@@ -248,6 +304,24 @@ def _attached_nets(state: DomainState) -> set[str]:
     return nets  # type: ignore[return-value]
 
 
+def _models(
+    state: DomainState, keys: list[str], rename: Mapping[str, str]
+) -> tuple[list[Resistor], list[Diode]]:
+    """``state.model`` of each key, resistors and diodes apart, in key order."""
+    by_key, group, models = state.branch_by_key, state.group, state.models
+    resistors, diodes = [], []
+    for key in keys:
+        branch = by_key[key]
+        a = rename.get(branch.a) or group[branch.a]
+        b = rename.get(branch.b) or group[branch.b]
+        model = models[key]
+        if isinstance(model, Resistor):
+            resistors.append(Resistor(key, a, b, model.resistance))
+        else:
+            diodes.append(Diode(key, a, b, model.vf, model.vz))
+    return resistors, diodes
+
+
 def _cut_off(
     state: DomainState, floating: set[str], group: str
 ) -> tuple[set[str], Solution, tuple[str, ...]]:
@@ -269,11 +343,12 @@ def _cut_off(
         rename = {net: node for net in active}
         keys = _region(state, set(active), group)
         ordered = sorted(keys)
-        models = [state.model(k, rename) for k in ordered]
-        resistors = [m for m in models if type(m) is Resistor]
-        diodes = [m for m in models if type(m) is not Resistor]
+        resistors, diodes = _models(state, ordered, rename)
         ends = {node, group}
-        for m in models:
+        for m in resistors:
+            ends.add(m.a)
+            ends.add(m.b)
+        for m in diodes:
             ends.add(m.a)
             ends.add(m.b)
         nodes = sorted(ends)
