@@ -8,7 +8,8 @@ from itertools import repeat
 
 import pint
 
-from netcheck.analysis.circuit import Diode, Resistor, Solution, solve_dc
+from netcheck.analysis.circuit import Solution
+from netcheck.analysis.cut_solve import Row, solve_shape
 from netcheck.analysis.domain import DomainState
 from netcheck.analysis.loads import LoadFacts
 from netcheck.analysis.suppression import Chain
@@ -153,30 +154,29 @@ class ElementAnalysis:
         # The frozen dataclass's __init__ (one object.__setattr__ per field,
         # 22 of them, per switching element), written straight into
         # ``__dict__`` in the fields' order, as model.py's classes do.
-        self.__dict__.update(
-            element=element,
-            component=component,
-            domain=domain,
-            supply=supply,
-            voltage=voltage,
-            current=current,
-            loads=loads,
-            load_category=load_category,
-            time_constant=time_constant,
-            t95=t95,
-            energy=energy,
-            suppression=suppression,
-            series_poles=series_poles,
-            series_elements=series_elements,
-            other_series=other_series,
-            bypass=bypass,
-            direction=direction,
-            bidirectional=bidirectional,
-            supply_ref=supply_ref,
-            missing=missing,
-            short_circuit=short_circuit,
-            notes=notes,
-        )
+        fields = self.__dict__
+        fields["element"] = element
+        fields["component"] = component
+        fields["domain"] = domain
+        fields["supply"] = supply
+        fields["voltage"] = voltage
+        fields["current"] = current
+        fields["loads"] = loads
+        fields["load_category"] = load_category
+        fields["time_constant"] = time_constant
+        fields["t95"] = t95
+        fields["energy"] = energy
+        fields["suppression"] = suppression
+        fields["series_poles"] = series_poles
+        fields["series_elements"] = series_elements
+        fields["other_series"] = other_series
+        fields["bypass"] = bypass
+        fields["direction"] = direction
+        fields["bidirectional"] = bidirectional
+        fields["supply_ref"] = supply_ref
+        fields["missing"] = missing
+        fields["short_circuit"] = short_circuit
+        fields["notes"] = notes
 
     @property
     def name(self) -> str:
@@ -304,22 +304,24 @@ def _attached_nets(state: DomainState) -> set[str]:
     return nets  # type: ignore[return-value]
 
 
-def _models(
-    state: DomainState, keys: list[str], rename: Mapping[str, str]
-) -> tuple[list[Resistor], list[Diode]]:
-    """``state.model`` of each key, resistors and diodes apart, in key order."""
+def _rows(
+    state: DomainState, keys: list[str], active: frozenset[str], node: str
+) -> tuple[list[Row], set[str]]:
+    """Each key's branch with its ends as nodes (``active`` nets are ``node``).
+
+    ``state.model``'s renaming, with the nodes met; the model is the state's.
+    """
     by_key, group, models = state.branch_by_key, state.group, state.models
-    resistors, diodes = [], []
+    rows: list[Row] = []
+    ends: set[str] = set()
     for key in keys:
         branch = by_key[key]
-        a = rename.get(branch.a) or group[branch.a]
-        b = rename.get(branch.b) or group[branch.b]
-        model = models[key]
-        if isinstance(model, Resistor):
-            resistors.append(Resistor(key, a, b, model.resistance))
-        else:
-            diodes.append(Diode(key, a, b, model.vf, model.vz))
-    return resistors, diodes
+        a = node if branch.a in active else group[branch.a]
+        b = node if branch.b in active else group[branch.b]
+        rows.append((key, a, b, models[key]))
+        ends.add(a)
+        ends.add(b)
+    return rows, ends
 
 
 def _cut_off(
@@ -327,44 +329,46 @@ def _cut_off(
 ) -> tuple[set[str], Solution, tuple[str, ...]]:
     """The circuit with ``floating`` cut off from ``group``, solved once per cut.
 
-    Returns the region's branch keys, its solution and the loads that lose
-    supply. Nets without a model branch attached change nothing: the region
-    is found through the branches attached to floating nets, and only model
-    branches' ends are renamed. So the cut is keyed on the floating nets that
-    have one, with ``group``: contacts in parallel (20 start buttons OR-ed) and
-    contacts in series (30 interlocks before one coil) share one solve. The
-    memo lives in ``state.cache`` and reads nothing but the state and the key.
+    Returns the region's branch keys, its solution (the potentials of
+    ``<open>`` and ``group`` and the region's currents: what is read of it)
+    and the loads that lose supply. Nets without a model branch attached
+    change nothing: the region is found through the branches attached to
+    floating nets, and only model branches' ends are renamed. So the cut is
+    keyed on the floating nets that have one, with ``group``: contacts in
+    parallel (20 start buttons OR-ed) and contacts in series (30 interlocks
+    before one coil) share one solve. The memo lives in ``state.cache`` and
+    reads nothing but the state and the key; cuts of one shape under other
+    names share a solve too (``cut_solve.solve_shape``, memo in the state).
     """
     memo = state.cache.setdefault("cut-off", {})
     active = frozenset(floating & _attached_nets(state))
     key = (active, group)
-    if key not in memo:  # type: ignore[operator]
+    found = memo.get(key)  # type: ignore[attr-defined]
+    if found is None:
         node = "<open>"
-        rename = {net: node for net in active}
         keys = _region(state, set(active), group)
         ordered = sorted(keys)
-        resistors, diodes = _models(state, ordered, rename)
-        ends = {node, group}
-        for m in resistors:
-            ends.add(m.a)
-            ends.add(m.b)
-        for m in diodes:
-            ends.add(m.a)
-            ends.add(m.b)
+        rows, ends = _rows(state, ordered, active, node)
+        ends.add(node)
+        ends.add(group)
         nodes = sorted(ends)
         rails = state.rails
         fixed = {n: rails[n] for n in nodes if n in rails and n != node}
-        solution = solve_dc(nodes, fixed, resistors, diodes)  # type: ignore[arg-type]
-        facts, before, after = state.facts, state.currents, solution.currents
+        shapes: dict = state.cache.setdefault("cut-shapes", {})  # type: ignore[assignment]
+        v_open, v_group, flows = solve_shape(nodes, fixed, rows, node, group, shapes)
+        facts, before = state.facts, state.currents
         switched = tuple(
             k
-            for k in ordered
+            for k, flow in zip(ordered, flows, strict=True)
             if k in facts
             and abs(before.get(k, 0.0)) > _TINY
-            and abs(after.get(k, 0.0)) < LOST_SHARE * abs(before[k])
+            and abs(flow) < LOST_SHARE * abs(before[k])
         )
-        memo[key] = (keys, solution, switched)  # type: ignore[index]
-    return memo[key]  # type: ignore[index,no-any-return]
+        solution = Solution(
+            {node: v_open, group: v_group}, dict(zip(ordered, flows, strict=True)), {}
+        )
+        found = memo[key] = (keys, solution, switched)  # type: ignore[index]
+    return found  # type: ignore[no-any-return]
 
 
 def open_element(
