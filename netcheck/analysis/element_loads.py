@@ -101,6 +101,8 @@ def _switched(
     loads = tuple(switched_loads(ctx, opening, power, sag))
     if not loads:
         return Switched((), None, None, None, quantity(0.0, "J"), (), ())
+    if len(loads) == 1:
+        return _one_switched(loads[0])
     taus = [
         ld.facts.time_constant for ld in loads if ld.facts.time_constant is not None
     ]
@@ -116,6 +118,26 @@ def _switched(
         quantity(sum((si(e, "J") for e in energies), 0.0), "J"),
         tuple(s for ld in loads for s in ld.suppressors),
         tuple(sorted({m for ld in loads for m in ld.facts.missing})),
+    )
+
+
+def _one_switched(load: SwitchedLoad) -> Switched:
+    """``_switched`` of one load (most elements): its own values, no aggregates.
+
+    The same operations on the one value: ``max`` of one time constant is
+    itself, the energy sum is ``0.0 + E`` as ``sum`` adds from its start.
+    """
+    facts = load.facts
+    tau = facts.time_constant if facts.time_constant is not None else quantity(0.0, "s")
+    energy = 0.0 + si(load.energy, "J") if load.energy is not None else 0.0
+    return Switched(
+        (load,),
+        most_demanding([load.category]),
+        tau,
+        quantity(T95_PER_TAU * si(tau, "s"), "s"),
+        quantity(energy, "J"),
+        load.suppressors,
+        tuple(sorted(set(facts.missing))),
     )
 
 
