@@ -73,6 +73,18 @@ class Solution:
     currents: Mapping[str, float]
     diode_state: Mapping[str, str]  # "off", "forward" or "reverse"
 
+    def __init__(
+        self,
+        potentials: Mapping[str, float],
+        currents: Mapping[str, float],
+        diode_state: Mapping[str, str],
+    ) -> None:
+        # One per cut solved: straight into ``__dict__``, as Resistor's is.
+        fields = self.__dict__
+        fields["potentials"] = potentials
+        fields["currents"] = currents
+        fields["diode_state"] = diode_state
+
 
 def _diode_current(d: Diode, state: str, va: float, vb: float) -> float:
     if state == "forward":
@@ -295,12 +307,17 @@ def _circuit_key(
     None (solve afresh) where names repeat, a value is not a float, or the
     circuit has more than ``_REMEMBERED_BRANCHES`` branches.
     """
-    if len(resistors) + len(diodes) > _REMEMBERED_BRANCHES:
+    count = len(resistors) + len(diodes)
+    if count > _REMEMBERED_BRANCHES:
         return None
-    pos = {n: i for i, n in enumerate(nodes)}
-    keys = [r.key for r in resistors] + [d.key for d in diodes]
-    if len(pos) != len(nodes) or len(set(keys)) != len(keys):
+    pos = dict(zip(nodes, range(len(nodes)), strict=True))
+    if len(pos) != len(nodes):
         return None
+    if count > 1:
+        keys = {r.key for r in resistors}
+        keys.update([d.key for d in diodes])
+        if len(keys) != count:
+            return None
     exact = _exact
     try:
         # One flat tuple (the four counts first make it unambiguous); a
@@ -361,12 +378,14 @@ def solve_dc(
     values, flows, modes = found
     potentials = dict(fixed)
     potentials.update(zip(unknown, values, strict=True))
-    names = [r.key for r in resistors] + [d.key for d in diodes]
-    return Solution(
-        potentials,
-        dict(zip(names, flows, strict=True)),
-        dict(zip([d.key for d in diodes], modes, strict=True)),
-    )
+    names = [r.key for r in resistors]
+    if diodes:
+        diode_keys = [d.key for d in diodes]
+        names += diode_keys
+        states = dict(zip(diode_keys, modes, strict=True))
+    else:
+        states = {}
+    return Solution(potentials, dict(zip(names, flows, strict=True)), states)
 
 
 def _solve_fresh(

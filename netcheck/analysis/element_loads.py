@@ -36,10 +36,11 @@ def switched_loads(
     loads = []
     # DomainState.net_potential, inlined: a few reads per switched load.
     potentials, group = state.potentials, state.group
+    by_key, all_facts, currents = state.branch_by_key, state.facts, state.currents
     for key in opening.switched:
-        branch = state.branch_by_key[key]
-        facts = state.facts[key]
-        current = sag * abs(state.currents.get(key, 0.0))
+        branch = by_key[key]
+        facts = all_facts[key]
+        current = sag * abs(currents.get(key, 0.0))
         voltage = sag * abs(
             potentials.get(group[branch.a], 0.0) - potentials.get(group[branch.b], 0.0)
         )
@@ -98,10 +99,14 @@ def _switched(
     ctx: DomainContext, opening: Opening, power: bool, sag: float
 ) -> Switched:
     loads = tuple(switched_loads(ctx, opening, power, sag))
+    if not loads:
+        return Switched((), None, None, None, quantity(0.0, "J"), (), ())
+    if len(loads) == 1:
+        return _one_switched(loads[0])
     taus = [
         ld.facts.time_constant for ld in loads if ld.facts.time_constant is not None
     ]
-    tau = max(taus) if taus else (quantity(0.0, "s") if loads else None)
+    tau = max(taus) if taus else quantity(0.0, "s")
     energies = [ld.energy for ld in loads if ld.energy is not None]
     return Switched(
         loads,
@@ -113,6 +118,26 @@ def _switched(
         quantity(sum((si(e, "J") for e in energies), 0.0), "J"),
         tuple(s for ld in loads for s in ld.suppressors),
         tuple(sorted({m for ld in loads for m in ld.facts.missing})),
+    )
+
+
+def _one_switched(load: SwitchedLoad) -> Switched:
+    """``_switched`` of one load (most elements): its own values, no aggregates.
+
+    The same operations on the one value: ``max`` of one time constant is
+    itself, the energy sum is ``0.0 + E`` as ``sum`` adds from its start.
+    """
+    facts = load.facts
+    tau = facts.time_constant if facts.time_constant is not None else quantity(0.0, "s")
+    energy = 0.0 + si(load.energy, "J") if load.energy is not None else 0.0
+    return Switched(
+        (load,),
+        most_demanding([load.category]),
+        tau,
+        quantity(T95_PER_TAU * si(tau, "s"), "s"),
+        quantity(energy, "J"),
+        load.suppressors,
+        tuple(sorted(set(facts.missing))),
     )
 
 

@@ -146,7 +146,7 @@ def _analyse_dc(
     # The loads break at the sagged current too: ½·L·I² with I = E/(R + r_int).
     sag = abs(current / opening.current_ab) if abs(opening.current_ab) > 1e-12 else 1.0
     switched = switched_once(ctx, opening, power, sag)
-    shorted = _shorted_chains(state, opening.floating_nets)
+    shorted = _shorted_chains(state, opening.floating_nets) if state.shorts else []
     if shorted:
         # A short on the switched side: Ohm's law does not apply to the diode;
         # KVL round the loop gives (E - its forward drops) / r_int.
@@ -164,7 +164,11 @@ def _analyse_dc(
         state.currents,
         source=inlet,
     )
-    unknown = _unknown_resistance(state, opening.floating_nets)
+    unknown = (
+        _unknown_resistance(state, opening.floating_nets)
+        if state.unknown_resistance
+        else ()
+    )
     supply = state.domain.supplies[0] if state.domain.supplies else None
     return ElementAnalysis(
         element=branch.element,

@@ -116,6 +116,8 @@ def covers(rated: str, needed: str) -> bool:
 
 def most_demanding(categories: list[str]) -> str | None:
     """The most demanding of several categories."""
+    if len(categories) == 1:  # most elements switch one load
+        return categories[0] if categories[0] in _DEMAND else None
     known = [c for c in categories if c in _DEMAND]
     return max(known, key=_DEMAND.index) if known else None
 

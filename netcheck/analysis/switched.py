@@ -8,7 +8,8 @@ from itertools import repeat
 
 import pint
 
-from netcheck.analysis.circuit import Solution, solve_dc
+from netcheck.analysis.circuit import Solution
+from netcheck.analysis.cut_solve import Row, solve_shape
 from netcheck.analysis.domain import DomainState
 from netcheck.analysis.loads import LoadFacts
 from netcheck.analysis.suppression import Chain
@@ -44,6 +45,26 @@ class Suppressor:
     conducts: bool = False  # conducts in normal operation (e.g. a reversed diode)
     functional: bool = True  # can carry the load's current at opening
 
+    def __init__(
+        self,
+        kind: str,
+        placement: str,
+        refs: tuple[str, ...],
+        load: str | None,
+        chain: Chain | None = None,
+        conducts: bool = False,
+        functional: bool = True,
+    ) -> None:
+        # The frozen dataclass's __init__ without its object.__setattr__ calls.
+        fields = self.__dict__
+        fields["kind"] = kind
+        fields["placement"] = placement
+        fields["refs"] = refs
+        fields["load"] = load
+        fields["chain"] = chain
+        fields["conducts"] = conducts
+        fields["functional"] = functional
+
 
 @dataclass(frozen=True)
 class SwitchedLoad:
@@ -56,6 +77,26 @@ class SwitchedLoad:
     energy: pint.Quantity | None
     inductive: bool
     suppressors: tuple[Suppressor, ...]
+
+    def __init__(
+        self,
+        facts: LoadFacts,
+        current: pint.Quantity,
+        voltage: pint.Quantity,
+        category: str,
+        energy: pint.Quantity | None,
+        inductive: bool,
+        suppressors: tuple[Suppressor, ...],
+    ) -> None:
+        # The frozen dataclass's __init__ without its object.__setattr__ calls.
+        fields = self.__dict__
+        fields["facts"] = facts
+        fields["current"] = current
+        fields["voltage"] = voltage
+        fields["category"] = category
+        fields["energy"] = energy
+        fields["inductive"] = inductive
+        fields["suppressors"] = suppressors
 
 
 @dataclass(frozen=True)
@@ -84,6 +125,58 @@ class ElementAnalysis:
     missing: tuple[str, ...] = ()
     short_circuit: bool = False
     notes: tuple[str, ...] = field(default=())
+
+    def __init__(
+        self,
+        element: SwitchingElement,
+        component: Component,
+        domain: str | None,
+        supply: str | None,
+        voltage: pint.Quantity | None = None,
+        current: pint.Quantity | None = None,
+        loads: tuple[SwitchedLoad, ...] = (),
+        load_category: str | None = None,
+        time_constant: pint.Quantity | None = None,
+        t95: pint.Quantity | None = None,
+        energy: pint.Quantity | None = None,
+        suppression: tuple[Suppressor, ...] = (),
+        series_poles: int = 1,
+        series_elements: tuple[str, ...] = (),
+        other_series: tuple[str, ...] = (),
+        bypass: tuple[str, ...] = (),
+        direction: int = 0,
+        bidirectional: bool = False,
+        supply_ref: str | None = None,
+        missing: tuple[str, ...] = (),
+        short_circuit: bool = False,
+        notes: tuple[str, ...] = (),
+    ) -> None:
+        # The frozen dataclass's __init__ (one object.__setattr__ per field,
+        # 22 of them, per switching element), written straight into
+        # ``__dict__`` in the fields' order, as model.py's classes do.
+        fields = self.__dict__
+        fields["element"] = element
+        fields["component"] = component
+        fields["domain"] = domain
+        fields["supply"] = supply
+        fields["voltage"] = voltage
+        fields["current"] = current
+        fields["loads"] = loads
+        fields["load_category"] = load_category
+        fields["time_constant"] = time_constant
+        fields["t95"] = t95
+        fields["energy"] = energy
+        fields["suppression"] = suppression
+        fields["series_poles"] = series_poles
+        fields["series_elements"] = series_elements
+        fields["other_series"] = other_series
+        fields["bypass"] = bypass
+        fields["direction"] = direction
+        fields["bidirectional"] = bidirectional
+        fields["supply_ref"] = supply_ref
+        fields["missing"] = missing
+        fields["short_circuit"] = short_circuit
+        fields["notes"] = notes
 
     @property
     def name(self) -> str:
@@ -123,6 +216,22 @@ class Opening:
     switched: tuple[str, ...]  # keys of load branches that lose supply
     bypass: tuple[str, ...]
     floating_nets: frozenset[str]
+
+    def __init__(
+        self,
+        current_ab: float,
+        voltage_ab: float,
+        switched: tuple[str, ...],
+        bypass: tuple[str, ...],
+        floating_nets: frozenset[str],
+    ) -> None:
+        # The frozen dataclass's __init__ without its object.__setattr__ calls.
+        fields = self.__dict__
+        fields["current_ab"] = current_ab
+        fields["voltage_ab"] = voltage_ab
+        fields["switched"] = switched
+        fields["bypass"] = bypass
+        fields["floating_nets"] = floating_nets
 
 
 def net_injections(state: DomainState) -> dict[str, float]:
@@ -195,41 +304,71 @@ def _attached_nets(state: DomainState) -> set[str]:
     return nets  # type: ignore[return-value]
 
 
+def _rows(
+    state: DomainState, keys: list[str], active: frozenset[str], node: str
+) -> tuple[list[Row], set[str]]:
+    """Each key's branch with its ends as nodes (``active`` nets are ``node``).
+
+    ``state.model``'s renaming, with the nodes met; the model is the state's.
+    """
+    by_key, group, models = state.branch_by_key, state.group, state.models
+    rows: list[Row] = []
+    ends: set[str] = set()
+    for key in keys:
+        branch = by_key[key]
+        a = node if branch.a in active else group[branch.a]
+        b = node if branch.b in active else group[branch.b]
+        rows.append((key, a, b, models[key]))
+        ends.add(a)
+        ends.add(b)
+    return rows, ends
+
+
 def _cut_off(
     state: DomainState, floating: set[str], group: str
 ) -> tuple[set[str], Solution, tuple[str, ...]]:
     """The circuit with ``floating`` cut off from ``group``, solved once per cut.
 
-    Returns the region's branch keys, its solution and the loads that lose
-    supply. Nets without a model branch attached change nothing: the region
-    is found through the branches attached to floating nets, and only model
-    branches' ends are renamed. So the cut is keyed on the floating nets that
-    have one, with ``group``: contacts in parallel (20 start buttons OR-ed) and
-    contacts in series (30 interlocks before one coil) share one solve. The
-    memo lives in ``state.cache`` and reads nothing but the state and the key.
+    Returns the region's branch keys, its solution (the potentials of
+    ``<open>`` and ``group`` and the region's currents: what is read of it)
+    and the loads that lose supply. Nets without a model branch attached
+    change nothing: the region is found through the branches attached to
+    floating nets, and only model branches' ends are renamed. So the cut is
+    keyed on the floating nets that have one, with ``group``: contacts in
+    parallel (20 start buttons OR-ed) and contacts in series (30 interlocks
+    before one coil) share one solve. The memo lives in ``state.cache`` and
+    reads nothing but the state and the key; cuts of one shape under other
+    names share a solve too (``cut_solve.solve_shape``, memo in the state).
     """
     memo = state.cache.setdefault("cut-off", {})
     active = frozenset(floating & _attached_nets(state))
     key = (active, group)
-    if key not in memo:  # type: ignore[operator]
+    found = memo.get(key)  # type: ignore[attr-defined]
+    if found is None:
         node = "<open>"
-        rename = {net: node for net in active}
         keys = _region(state, set(active), group)
-        models = [state.model(k, rename) for k in sorted(keys)]
-        resistors = [m for m in models if hasattr(m, "resistance")]
-        diodes = [m for m in models if not hasattr(m, "resistance")]
-        nodes = sorted({n for m in models for n in (m.a, m.b)} | {node, group})
-        fixed = {n: state.rails[n] for n in nodes if n in state.rails and n != node}
-        solution = solve_dc(nodes, fixed, resistors, diodes)  # type: ignore[arg-type]
+        ordered = sorted(keys)
+        rows, ends = _rows(state, ordered, active, node)
+        ends.add(node)
+        ends.add(group)
+        nodes = sorted(ends)
+        rails = state.rails
+        fixed = {n: rails[n] for n in nodes if n in rails and n != node}
+        shapes: dict = state.cache.setdefault("cut-shapes", {})  # type: ignore[assignment]
+        v_open, v_group, flows = solve_shape(nodes, fixed, rows, node, group, shapes)
+        facts, before = state.facts, state.currents
         switched = tuple(
             k
-            for k in sorted(keys)
-            if k in state.facts
-            and abs(state.currents.get(k, 0.0)) > _TINY
-            and abs(solution.currents.get(k, 0.0)) < LOST_SHARE * abs(state.currents[k])
+            for k, flow in zip(ordered, flows, strict=True)
+            if k in facts
+            and abs(before.get(k, 0.0)) > _TINY
+            and abs(flow) < LOST_SHARE * abs(before[k])
         )
-        memo[key] = (keys, solution, switched)  # type: ignore[index]
-    return memo[key]  # type: ignore[index,no-any-return]
+        solution = Solution(
+            {node: v_open, group: v_group}, dict(zip(ordered, flows, strict=True)), {}
+        )
+        found = memo[key] = (keys, solution, switched)  # type: ignore[index]
+    return found  # type: ignore[no-any-return]
 
 
 def open_element(

@@ -17,7 +17,7 @@ from pathlib import Path
 import numpy as np
 import pytest
 
-from netcheck.analysis import circuit, domain, switched
+from netcheck.analysis import circuit, cut_solve, domain
 from netcheck.analysis.circuit import (
     G_MIN,
     R_ON,
@@ -128,7 +128,7 @@ def _logged_calls(monkeypatch: pytest.MonkeyPatch) -> list[tuple]:
         return solve_dc(nodes, fixed, resistors, diodes)
 
     monkeypatch.setattr(domain, "solve_dc", logging_solve)
-    monkeypatch.setattr(switched, "solve_dc", logging_solve)
+    monkeypatch.setattr(cut_solve, "solve_dc", logging_solve)
     for path in DESIGNS:
         try:
             netlist = load_design(path, display_base=path.parent)

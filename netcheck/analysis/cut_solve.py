@@ -1,0 +1,102 @@
+"""The solve of a cut-off region, remembered by the region's shape.
+
+One rail pair with thousands of rungs: every rung's coil (and its diode) is
+cut off by its own contact, under its own net names, and each is the same
+small circuit. ``solve_dc`` remembers such circuits too, but only after its
+caller has built every branch's model and it has built its key and the whole
+named solution again. A cut needs two potentials and its branches' currents:
+``solve_shape`` keys the region on its shape and hands back just those.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping, Sequence
+
+from netcheck.analysis.circuit import (
+    _REMEMBERED_BRANCHES,
+    Diode,
+    Resistor,
+    _exact,
+    _exact_or_none,
+    solve_dc,
+)
+
+__all__ = ["solve_shape"]
+
+# (branch key, node of end a, node of end b, the branch's model in the state)
+Row = tuple[str, str, str, Resistor | Diode]
+
+
+def _shape(
+    nodes: Sequence[str],
+    fixed: Mapping[str, float],
+    rows: Sequence[Row],
+    node: str,
+    group: str,
+) -> tuple | None:
+    """Everything the solve of ``rows`` reads, nodes named by position.
+
+    What ``circuit._circuit_key`` holds (the node count, the fixed potentials
+    in their order, each branch's ends and values, floats exactly) and the
+    positions of the two nodes read back, with each branch's kind in the rows'
+    order. The rows come in key order, so the diodes' key order (the solve's
+    tie-break) is their order here. None (solve as given) where a value is
+    not a float or the region is larger than ``solve_dc`` remembers.
+    """
+    if len(rows) > _REMEMBERED_BRANCHES:
+        return None
+    pos = dict(zip(nodes, range(len(nodes)), strict=True))
+    key: list = [len(nodes), pos[node], pos[group], len(fixed)]
+    add = key.extend
+    try:
+        for n, v in fixed.items():
+            add((pos[n], _exact(v)))
+        for _, a, b, model in rows:
+            if type(model) is Resistor:
+                add(("r", pos[a], pos[b], _exact(model.resistance)))
+            else:
+                add(("d", pos[a], pos[b], _exact(model.vf), _exact_or_none(model.vz)))
+    except TypeError:
+        return None
+    return tuple(key)
+
+
+def solve_shape(
+    nodes: Sequence[str],
+    fixed: Mapping[str, float],
+    rows: Sequence[Row],
+    node: str,
+    group: str,
+    memo: dict,
+) -> tuple[float, float, tuple[float, ...]]:
+    """The potentials of ``node`` and ``group`` and each row's current.
+
+    ``solve_dc`` of the rows' models (resistors and diodes apart, each in the
+    rows' order), remembered in ``memo`` by ``_shape``: the solve is a pure
+    function of what the shape holds, so a remembered result is the same
+    floats (``tests/analysis/test_cut_solve.py`` compares the two on varied
+    designs). ``memo`` lives as long as the caller likes (a domain state's).
+    """
+    shape = _shape(nodes, fixed, rows, node, group)
+    found = memo.get(shape) if shape is not None else None
+    if found is None:
+        resistors = [
+            Resistor(k, a, b, m.resistance)
+            for k, a, b, m in rows
+            if type(m) is Resistor
+        ]
+        diodes = [
+            Diode(k, a, b, m.vf, m.vz)  # type: ignore[union-attr]
+            for k, a, b, m in rows
+            if type(m) is not Resistor
+        ]
+        solution = solve_dc(nodes, fixed, resistors, diodes)
+        currents = solution.currents
+        found = (
+            solution.potentials[node],
+            solution.potentials[group],
+            tuple(currents[k] for k, _, _, _ in rows),
+        )
+        if shape is not None:
+            memo[shape] = found
+    return found  # type: ignore[no-any-return]
