@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import dataclasses
+import sys
 import textwrap
 from pathlib import Path
 
@@ -13,6 +15,32 @@ from netcheck.graph import build_graph
 from netcheck.input import load_design
 from netcheck.model import Netlist
 from netcheck.pipeline import run_checks
+
+BENCH = Path(__file__).resolve().parent.parent / "bench"
+
+
+def bench_design(size: int, tmp: Path, shape: str, hazard_rate: float = 0.2) -> Path:
+    """Generate a bench design (``bench/gen_design.py``) into ``tmp``; its top file."""
+    sys.path.insert(0, str(BENCH))
+    try:
+        import gen_design
+    finally:
+        sys.path.remove(str(BENCH))
+    return gen_design.generate(size, tmp, shape=shape, hazard_rate=hazard_rate)  # type: ignore[no-any-return]
+
+
+def generated_dataclass(cls: type) -> type:
+    """The same fields as ``cls``, with the ``__init__`` dataclasses writes."""
+    fields = [
+        (
+            f.name,
+            f.type,
+            dataclasses.field(default=f.default, default_factory=f.default_factory),
+        )
+        for f in dataclasses.fields(cls)
+    ]
+    return dataclasses.make_dataclass(cls.__name__, fields, frozen=True)
+
 
 PARTS_HEADER = """\
 format: netcheck-parts/1

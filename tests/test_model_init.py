@@ -14,6 +14,7 @@ from __future__ import annotations
 import dataclasses
 
 import pytest
+from helpers import generated_dataclass
 
 from netcheck.analysis.circuit import Diode, Resistor
 from netcheck.analysis.loads import LoadFacts
@@ -25,23 +26,6 @@ from netcheck.model import Attribute, Component, Connection, Pole, SwitchingElem
 from netcheck.source import Span
 
 SPAN = Span("a.cnet", 3, 5, 3, 9)
-
-
-def _generated(cls: type) -> type:
-    """The same fields as ``cls``, with the ``__init__`` dataclasses writes."""
-    fields = [
-        (
-            f.name,
-            f.type,
-            dataclasses.field(default=f.default, default_factory=f.default_factory),
-        )
-        for f in dataclasses.fields(cls)
-    ]
-    return dataclasses.make_dataclass(
-        cls.__name__,
-        fields,
-        frozen=True,
-    )
 
 
 CONNECTION = Connection("13", "W1", SPAN)
@@ -102,7 +86,7 @@ CASES = [
 def test_init_matches_the_generated_one(cls, args, kwargs):
     ours = cls(*args, **kwargs)
     names = [f.name for f in dataclasses.fields(cls)]
-    theirs = _generated(cls)(*args, **kwargs)
+    theirs = generated_dataclass(cls)(*args, **kwargs)
     assert [getattr(ours, n) for n in names] == [getattr(theirs, n) for n in names]
     by_name = cls(**dict(zip(names, args, strict=False)), **kwargs)
     assert by_name == ours

@@ -10,10 +10,10 @@ cards, mixed, unsuppressed).
 
 from __future__ import annotations
 
-import sys
 from pathlib import Path
 
 import pytest
+from helpers import bench_design
 
 from netcheck.analysis import cut_solve
 from netcheck.analysis.circuit import Diode, Resistor
@@ -23,7 +23,6 @@ from netcheck.graph import build_graph
 from netcheck.input import load_design
 
 ROOT = Path(__file__).parents[2]
-BENCH = ROOT / "bench"
 DESIGNS = sorted((ROOT / "tests" / "cases").rglob("*.cnet")) + sorted(
     (ROOT / "sample_nets").rglob("*.cnet")
 )
@@ -65,12 +64,7 @@ def test_repository_designs(path: Path, monkeypatch: pytest.MonkeyPatch) -> None
 def test_bench_shapes(
     shape: str, tmp_path: Path, monkeypatch: pytest.MonkeyPatch
 ) -> None:
-    sys.path.insert(0, str(BENCH))
-    try:
-        import gen_design
-    finally:
-        sys.path.remove(str(BENCH))
-    top = gen_design.generate(600, tmp_path, shape=shape, hazard_rate=0.2)
+    top = bench_design(600, tmp_path, shape)
     shared, alone = _both(load_design(top, display_base=tmp_path), monkeypatch)
     assert shared < alone  # repeated rungs: fewer solves
 

@@ -14,12 +14,11 @@ a main pole among pushbuttons.
 
 from __future__ import annotations
 
-import sys
 from dataclasses import replace
 from pathlib import Path
 
 import pytest
-from helpers import write_design
+from helpers import bench_design, write_design
 
 from netcheck.analysis import element_loads, switched
 from netcheck.analysis import elements as elements_module
@@ -32,7 +31,6 @@ from netcheck.graph import build_graph
 from netcheck.input import load_design
 
 ROOT = Path(__file__).parents[2]
-BENCH = ROOT / "bench"
 DESIGNS = sorted((ROOT / "tests" / "cases").rglob("*.cnet")) + sorted(
     (ROOT / "sample_nets").rglob("*.cnet")
 )
@@ -139,12 +137,7 @@ def test_repository_designs(path: Path, monkeypatch: pytest.MonkeyPatch) -> None
 def test_bench_shapes(
     shape: str, tmp_path: Path, monkeypatch: pytest.MonkeyPatch
 ) -> None:
-    sys.path.insert(0, str(BENCH))
-    try:
-        import gen_design
-    finally:
-        sys.path.remove(str(BENCH))
-    top = gen_design.generate(600, tmp_path, shape=shape, hazard_rate=0.2)
+    top = bench_design(600, tmp_path, shape)
     shipped, former = _both(load_design(top, display_base=tmp_path), monkeypatch)
     marked = any(e.other_series or e.series_poles > 1 for e in shipped.values())
     assert marked or shape not in ("series", "parallel")  # they exercise it

@@ -13,6 +13,7 @@ from __future__ import annotations
 import dataclasses
 
 import pytest
+from helpers import generated_dataclass
 
 from netcheck.analysis.circuit import Solution
 from netcheck.analysis.switched import (
@@ -22,19 +23,6 @@ from netcheck.analysis.switched import (
     SwitchedLoad,
 )
 from netcheck.units import Q_
-
-
-def _generated(cls: type) -> type:
-    fields = [
-        (
-            f.name,
-            f.type,
-            dataclasses.field(default=f.default, default_factory=f.default_factory),
-        )
-        for f in dataclasses.fields(cls)
-    ]
-    return dataclasses.make_dataclass(cls.__name__, fields, frozen=True)
-
 
 SUPPRESSOR = Suppressor("diode", "across-load", ("V1",), "Y1")
 CASES = [
@@ -78,7 +66,7 @@ CASES = [
 def test_init_matches_the_generated_one(cls, args, kwargs):
     ours = cls(*args, **kwargs)
     names = [f.name for f in dataclasses.fields(cls)]
-    theirs = _generated(cls)(*args, **kwargs)
+    theirs = generated_dataclass(cls)(*args, **kwargs)
     assert list(vars(ours)) == names  # every field, in the fields' order
     assert [getattr(ours, n) for n in names] == [getattr(theirs, n) for n in names]
     by_name = cls(**dict(zip(names, args, strict=False)), **kwargs)
