@@ -11,12 +11,31 @@ import pint
 import pytest
 
 from netcheck.analysis.elements import Analysis, analyse
+from netcheck.errors import InputError
 from netcheck.graph import build_graph
 from netcheck.input import load_design
 from netcheck.model import Netlist
 from netcheck.pipeline import run_checks
 
-BENCH = Path(__file__).resolve().parent.parent / "bench"
+ROOT = Path(__file__).resolve().parent.parent
+BENCH = ROOT / "bench"
+# Every design the repository ships: the rule cases and the samples.
+REPOSITORY_DESIGNS = sorted((ROOT / "tests" / "cases").rglob("*.cnet")) + sorted(
+    (ROOT / "sample_nets").rglob("*.cnet")
+)
+
+
+def design_id(path: Path) -> str:
+    """A repository design's test id: its path from the repository root."""
+    return str(path.relative_to(ROOT))
+
+
+def load_or_skip(path: Path) -> Netlist:
+    """Load a repository design; skip an included sheet or an input-error case."""
+    try:
+        return load_design(path)
+    except InputError:
+        pytest.skip("an included sheet or an input-error case")
 
 
 def bench_design(size: int, tmp: Path, shape: str, hazard_rate: float = 0.2) -> Path:
@@ -40,6 +59,34 @@ def generated_dataclass(cls: type) -> type:
         for f in dataclasses.fields(cls)
     ]
     return dataclasses.make_dataclass(cls.__name__, fields, frozen=True)
+
+
+def assert_init_as_generated(
+    cls: type,
+    args: tuple,
+    kwargs: dict,
+    *,
+    hashable: bool,
+    every_field_in_vars: bool = False,
+) -> None:
+    """A hand-written ``__init__`` of a frozen dataclass acts as the generated one."""
+    ours = cls(*args, **kwargs)
+    names = [f.name for f in dataclasses.fields(cls)]
+    theirs = generated_dataclass(cls)(*args, **kwargs)
+    if every_field_in_vars:
+        assert list(vars(ours)) == names  # every field, in the fields' order
+    assert [getattr(ours, n) for n in names] == [getattr(theirs, n) for n in names]
+    by_name = cls(**dict(zip(names, args, strict=False)), **kwargs)
+    assert by_name == ours
+    if hashable:
+        assert hash(by_name) == hash(ours) == hash(theirs)
+    assert repr(ours) == repr(theirs).replace(
+        theirs.__class__.__qualname__, cls.__qualname__, 1
+    )
+    with pytest.raises(dataclasses.FrozenInstanceError):
+        setattr(ours, names[0], "changed")
+    changed = dataclasses.replace(ours, **{names[1]: "other"})
+    assert getattr(changed, names[1]) == "other" and changed != ours
 
 
 PARTS_HEADER = """\

@@ -13,19 +13,13 @@ from __future__ import annotations
 from pathlib import Path
 
 import pytest
-from helpers import bench_design
+from helpers import REPOSITORY_DESIGNS, bench_design, design_id, load_or_skip
 
 from netcheck.analysis import cut_solve
 from netcheck.analysis.circuit import Diode, Resistor
 from netcheck.analysis.elements import analyse
-from netcheck.errors import InputError
 from netcheck.graph import build_graph
 from netcheck.input import load_design
-
-ROOT = Path(__file__).parents[2]
-DESIGNS = sorted((ROOT / "tests" / "cases").rglob("*.cnet")) + sorted(
-    (ROOT / "sample_nets").rglob("*.cnet")
-)
 
 
 def _both(netlist, monkeypatch):  # type: ignore[no-untyped-def]
@@ -48,12 +42,9 @@ def _both(netlist, monkeypatch):  # type: ignore[no-untyped-def]
     return shared, len(calls) - shared
 
 
-@pytest.mark.parametrize("path", DESIGNS, ids=lambda p: str(p.relative_to(ROOT)))
+@pytest.mark.parametrize("path", REPOSITORY_DESIGNS, ids=design_id)
 def test_repository_designs(path: Path, monkeypatch: pytest.MonkeyPatch) -> None:
-    try:
-        netlist = load_design(path)
-    except InputError:
-        pytest.skip("an included sheet or an input-error case")
+    netlist = load_or_skip(path)
     shared, alone = _both(netlist, monkeypatch)
     assert shared <= alone
 

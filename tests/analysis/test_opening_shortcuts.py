@@ -18,7 +18,13 @@ from dataclasses import replace
 from pathlib import Path
 
 import pytest
-from helpers import bench_design, write_design
+from helpers import (
+    REPOSITORY_DESIGNS,
+    bench_design,
+    design_id,
+    load_or_skip,
+    write_design,
+)
 
 from netcheck.analysis import element_loads, switched
 from netcheck.analysis import elements as elements_module
@@ -26,14 +32,9 @@ from netcheck.analysis.circuit import solve_dc
 from netcheck.analysis.elements import analyse
 from netcheck.analysis.loads import rated_as_power_device
 from netcheck.analysis.zero_ohm import ZeroOhm
-from netcheck.errors import InputError
 from netcheck.graph import build_graph
 from netcheck.input import load_design
 
-ROOT = Path(__file__).parents[2]
-DESIGNS = sorted((ROOT / "tests" / "cases").rglob("*.cnet")) + sorted(
-    (ROOT / "sample_nets").rglob("*.cnet")
-)
 SHAPES = ("series", "parallel", "one-rail", "plc", "mixed")
 
 
@@ -124,12 +125,9 @@ def _assert_same(shipped, former) -> None:  # type: ignore[no-untyped-def]
         assert element.series_elements == former[name].series_elements, name
 
 
-@pytest.mark.parametrize("path", DESIGNS, ids=lambda p: str(p.relative_to(ROOT)))
+@pytest.mark.parametrize("path", REPOSITORY_DESIGNS, ids=design_id)
 def test_repository_designs(path: Path, monkeypatch: pytest.MonkeyPatch) -> None:
-    try:
-        netlist = load_design(path)
-    except InputError:
-        pytest.skip("an included sheet or an input-error case")
+    netlist = load_or_skip(path)
     _assert_same(*_both(netlist, monkeypatch))
 
 
