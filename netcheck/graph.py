@@ -189,14 +189,28 @@ def _add_branches(component: Component, out: list[Branch]) -> None:
 
 @dataclass
 class Graph:
-    """The design as a multigraph of nets, with its branches and domains."""
+    """The design as a multigraph of nets, with its branches and domains.
+
+    The networkx multigraph (``graph``) is built when first read: only the
+    supply-meeting check walks it, and building it was a fifth of this stage
+    on a large design. It is built from the nets and branches the graph was
+    made with (``connections`` may be replaced later, as fix slices do).
+    """
 
     netlist: Netlist
-    graph: nx.MultiGraph
     branches: list[Branch]
     domains: list[Domain]
     domain_of: dict[str, Domain]
     connections: dict[str, list[tuple[Component, str]]]
+    _net_graph: nx.MultiGraph | None = field(default=None, repr=False, compare=False)
+    _nets: Iterable[str] = field(default=(), repr=False, compare=False)
+
+    @property
+    def graph(self) -> nx.MultiGraph:
+        """The multigraph of nets, one edge per branch (``net_graph``)."""
+        if self._net_graph is None:
+            self._net_graph = net_graph(self._nets, self.branches)
+        return self._net_graph
 
     def domain(self, net: str) -> Domain | None:
         """The domain a net belongs to."""
@@ -222,7 +236,6 @@ def _build_graph(netlist: Netlist) -> Graph:
     branches: list[Branch] = []
     for component in netlist.components:
         _add_branches(component, branches)
-    graph = net_graph(connections, branches)
     domains, domain_of = [], {}
     supplies_at: dict[str, list[Component]] = {}
     for branch in branches:
@@ -240,7 +253,7 @@ def _build_graph(netlist: Netlist) -> Graph:
     for branch in branches:
         domain_of[branch.a].branches.append(branch)
     domains.sort(key=lambda d: (d.name, min(d.nets)))
-    return Graph(netlist, graph, branches, domains, domain_of, connections)
+    return Graph(netlist, branches, domains, domain_of, connections, _nets=connections)
 
 
 def net_graph(nets: Iterable[str], branches: Iterable[Branch]) -> nx.MultiGraph:

@@ -87,3 +87,19 @@ def test_built_branches_carry_what_their_properties_work_out(tmp_path, shape):
                 built.kind,
                 built.key,
             )
+
+
+def test_the_multigraph_is_built_when_first_read(tmp_path):
+    """``Graph.graph`` is made on first reading, once, from the nets it was built on.
+
+    Fix slices replace ``connections`` after building; the multigraph keeps
+    the nets the graph was made with, as when it was built eagerly.
+    """
+    gen_design.generate(200, tmp_path, shape="mixed")
+    graph = build_graph(load_design(tmp_path / "design.cnet"))
+    assert graph._net_graph is None
+    original = graph.connections
+    graph.connections = {}
+    built = graph.graph
+    assert built is graph.graph
+    _same(built, _public(original, graph.branches))
