@@ -10,6 +10,7 @@ from netcheck.analysis.constants import T95_PER_TAU
 from netcheck.analysis.domain import DomainState
 from netcheck.analysis.found_suppressors import DomainContext, load_suppressors
 from netcheck.analysis.loads import (
+    LoadFacts,
     category_for,
     is_inductive,
     most_demanding,
@@ -98,6 +99,8 @@ def switched_once(
 def _switched(
     ctx: DomainContext, opening: Opening, power: bool, sag: float
 ) -> Switched:
+    if len(opening.switched) == 1:
+        return _one_load(ctx, opening.switched[0], power, sag)
     loads = tuple(switched_loads(ctx, opening, power, sag))
     if not loads:
         return Switched((), None, None, None, quantity(0.0, "J"), (), ())
@@ -137,6 +140,79 @@ def _one_switched(load: SwitchedLoad) -> Switched:
         quantity(T95_PER_TAU * si(tau, "s"), "s"),
         quantity(energy, "J"),
         load.suppressors,
+        tuple(sorted(set(facts.missing))),
+    )
+
+
+def _one_load(ctx: DomainContext, key: str, power: bool, sag: float) -> Switched:
+    """``_one_switched(switched_loads(...)[0])``, its values shared per state.
+
+    Repeated rungs switch loads of one part at one current and voltage: what
+    ``switched_loads`` and ``_one_switched`` make of such a load's values (its
+    quantities, category, inductive flag, time constants, energy, missing
+    data) is the same, so it is made once per state and shared (quantities are
+    never changed in place: DEVELOPERS.md). Kept in ``state.cache``, keyed on
+    all it reads: the identities of the facts' inductance and time constant
+    (the objects kept beside the entry, so an identity met again is the same
+    object), the type, the missing data, the two floats exactly and the power
+    flag. The floats are ``sag * abs(...)`` with ``sag >= 0``: never -0.0, and
+    a NaN only misses. The load's own facts and suppressors are its own.
+    """
+    state = ctx.state
+    assert state is not None
+    branch = state.branch_by_key[key]
+    facts = state.facts[key]
+    potentials, group = state.potentials, state.group
+    current = sag * abs(state.currents.get(key, 0.0))
+    voltage = sag * abs(
+        potentials.get(group[branch.a], 0.0) - potentials.get(group[branch.b], 0.0)
+    )
+    memo: dict = state.cache.setdefault("one-load-values", {})  # type: ignore[assignment]
+    inductance, tau = facts.inductance, facts.time_constant
+    values_key = (
+        id(inductance), id(tau), facts.type, facts.missing, current, voltage, power
+    )
+    found = memo.get(values_key)
+    if found is None or found[0] is not inductance or found[1] is not tau:
+        found = memo[values_key] = (
+            inductance,
+            tau,
+            *_one_load_values(facts, current, voltage, power),
+        )
+    q_current, q_voltage, energy, category, inductive = found[2:7]
+    load = SwitchedLoad(
+        facts,
+        q_current,
+        q_voltage,
+        category,
+        energy,
+        inductive,
+        load_suppressors(ctx, branch),
+    )
+    demanding, q_tau, t95, total, missing = found[7:]
+    return Switched((load,), demanding, q_tau, t95, total, load.suppressors, missing)
+
+
+def _one_load_values(
+    facts: LoadFacts, current: float, voltage: float, power: bool
+) -> tuple:
+    """The values of ``switched_loads`` then ``_one_switched`` for one load."""
+    energy = None
+    if facts.inductance is not None:
+        energy = quantity(0.5 * si(facts.inductance, "H") * current**2, "J")
+    category = category_for(facts.type, power)
+    tau = facts.time_constant if facts.time_constant is not None else quantity(0.0, "s")
+    total = 0.0 + si(energy, "J") if energy is not None else 0.0
+    return (
+        quantity(current, "A"),
+        quantity(voltage, "V"),
+        energy,
+        category,
+        is_inductive(facts),
+        most_demanding([category]),
+        tau,
+        quantity(T95_PER_TAU * si(tau, "s"), "s"),
+        quantity(total, "J"),
         tuple(sorted(set(facts.missing))),
     )
 

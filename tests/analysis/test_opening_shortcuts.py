@@ -98,6 +98,9 @@ def _each_alone(shared, *args):  # type: ignore[no-untyped-def]
 
 
 def _loads_alone(ctx, opening, power, sag):  # type: ignore[no-untyped-def]
+    loads = tuple(element_loads.switched_loads(ctx, opening, power, sag))
+    if len(loads) == 1:  # the former one-load path, its values made afresh
+        return element_loads._one_switched(loads[0])
     return element_loads._switched(ctx, opening, power, sag)
 
 
