@@ -170,7 +170,13 @@ def _one_load(ctx: DomainContext, key: str, power: bool, sag: float) -> Switched
     memo: dict = state.cache.setdefault("one-load-values", {})  # type: ignore[assignment]
     inductance, tau = facts.inductance, facts.time_constant
     values_key = (
-        id(inductance), id(tau), facts.type, facts.missing, current, voltage, power
+        id(inductance),
+        id(tau),
+        facts.type,
+        facts.missing,
+        current,
+        voltage,
+        power,
     )
     found = memo.get(values_key)
     if found is None or found[0] is not inductance or found[1] is not tau:

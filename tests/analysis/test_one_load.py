@@ -107,7 +107,9 @@ def test_an_equal_identity_of_another_object_is_not_a_hit(tmp_path: Path) -> Non
     analysis = analyse(build_graph(load_design(top, display_base=tmp_path)))
     state = next(iter(analysis.states.values()))
     name = state.domain.name
-    ctx = DomainContext(state.domain, state, analysis.chains[name], analysis.wires[name])
+    ctx = DomainContext(
+        state.domain, state, analysis.chains[name], analysis.wires[name]
+    )
     key = next(k for k, f in state.facts.items() if f.inductance is not None)
     element_loads._one_load(ctx, key, False, 1.0)
     memo = state.cache["one-load-values"]
