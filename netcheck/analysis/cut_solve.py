@@ -27,12 +27,23 @@ __all__ = ["solve_shape"]
 Row = tuple[str, str, str, Resistor | Diode]
 
 
+def _value(model: Resistor | Diode) -> tuple | None:
+    """A model's kind and values as a key part (floats exactly), or None."""
+    try:
+        if type(model) is Resistor:
+            return ("r", _exact(model.resistance))
+        return ("d", _exact(model.vf), _exact_or_none(model.vz))  # type: ignore[union-attr]
+    except TypeError:
+        return None  # ints, numpy scalars: solved as given
+
+
 def _shape(
     nodes: Sequence[str],
     fixed: Mapping[str, float],
     rows: Sequence[Row],
     node: str,
     group: str,
+    values: dict[int, tuple] | None = None,
 ) -> tuple | None:
     """Everything the solve of ``rows`` reads, nodes named by position.
 
@@ -42,22 +53,35 @@ def _shape(
     order. The rows come in key order, so the diodes' key order (the solve's
     tie-break) is their order here. None (solve as given) where a value is
     not a float or the region is larger than ``solve_dc`` remembers.
+
+    ``values``, if given, remembers each model's ``_value`` by identity, the
+    model kept beside it (a state's models are met once per cut that holds
+    them).
     """
     if len(rows) > _REMEMBERED_BRANCHES:
         return None
     pos = dict(zip(nodes, range(len(nodes)), strict=True))
     key: list = [len(nodes), pos[node], pos[group], len(fixed)]
-    add = key.extend
+    add = key.append
     try:
         for n, v in fixed.items():
-            add((pos[n], _exact(v)))
-        for _, a, b, model in rows:
-            if type(model) is Resistor:
-                add(("r", pos[a], pos[b], _exact(model.resistance)))
-            else:
-                add(("d", pos[a], pos[b], _exact(model.vf), _exact_or_none(model.vz)))
+            add(pos[n])
+            add(_exact(v))
     except TypeError:
         return None
+    for _, a, b, model in rows:
+        if values is None:
+            value = _value(model)
+        else:
+            held = values.get(id(model))
+            if held is None or held[0] is not model:
+                held = values[id(model)] = (model, _value(model))
+            value = held[1]
+        if value is None:
+            return None
+        add(pos[a])
+        add(pos[b])
+        add(value)
     return tuple(key)
 
 
@@ -68,6 +92,7 @@ def solve_shape(
     node: str,
     group: str,
     memo: dict,
+    values: dict[int, tuple] | None = None,
 ) -> tuple[float, float, tuple[float, ...]]:
     """The potentials of ``node`` and ``group`` and each row's current.
 
@@ -75,9 +100,10 @@ def solve_shape(
     rows' order), remembered in ``memo`` by ``_shape``: the solve is a pure
     function of what the shape holds, so a remembered result is the same
     floats (``tests/analysis/test_cut_solve.py`` compares the two on varied
-    designs). ``memo`` lives as long as the caller likes (a domain state's).
+    designs). ``memo`` lives as long as the caller likes (a domain state's),
+    and so does ``values`` (``_shape``'s memo of the models' values).
     """
-    shape = _shape(nodes, fixed, rows, node, group)
+    shape = _shape(nodes, fixed, rows, node, group, values)
     found = memo.get(shape) if shape is not None else None
     if found is None:
         resistors = [

@@ -8,7 +8,6 @@ from itertools import repeat
 
 import pint
 
-from netcheck.analysis.circuit import Solution
 from netcheck.analysis.cut_solve import Row, solve_shape
 from netcheck.analysis.domain import DomainState
 from netcheck.analysis.loads import LoadFacts
@@ -271,17 +270,22 @@ def _region(state: DomainState, floating: set[str], group: str) -> set[str]:
     """Branch keys whose currents can change when ``floating`` is cut off."""
     comps = set()
     keys: set[str] = set()
+    attached, models = state.attached, state.models
+    internal_of, net_group = state.internal_of, state.group
     for net in floating:
-        for branch in state.attached.get(net, ()):
-            if branch.key not in state.models:
+        for branch in attached.get(net, ()):
+            key = branch.key
+            if key not in models:
                 continue
-            keys.add(branch.key)
-            for end in (branch.a, branch.b):
-                comp = state.internal_of.get(state.group[end])
-                if comp is not None:
-                    comps.add(comp)
-    if group not in state.rails and group in state.internal_of:
-        comps.add(state.internal_of[group])
+            keys.add(key)
+            comp = internal_of.get(net_group[branch.a])
+            if comp is not None:
+                comps.add(comp)
+            comp = internal_of.get(net_group[branch.b])
+            if comp is not None:
+                comps.add(comp)
+    if group not in state.rails and group in internal_of:
+        comps.add(internal_of[group])
     for comp in comps:
         keys |= state.comp_branches.get(comp, set())
     return keys
@@ -326,12 +330,13 @@ def _rows(
 
 def _cut_off(
     state: DomainState, floating: set[str], group: str
-) -> tuple[set[str], Solution, tuple[str, ...]]:
+) -> tuple[float, float, tuple[str, ...]]:
     """The circuit with ``floating`` cut off from ``group``, solved once per cut.
 
-    Returns the region's branch keys, its solution (the potentials of
-    ``<open>`` and ``group`` and the region's currents: what is read of it)
-    and the loads that lose supply. Nets without a model branch attached
+    Returns the potentials of ``<open>`` and ``group`` in the region's
+    solution (what is read of it) and the loads that lose supply. The region
+    is the branches of a circuit model attached to floating nets, with the
+    internal components they touch. Nets without a model branch attached
     change nothing: the region is found through the branches attached to
     floating nets, and only model branches' ends are renamed. So the cut is
     keyed on the floating nets that have one, with ``group``: contacts in
@@ -340,35 +345,47 @@ def _cut_off(
     reads nothing but the state and the key; cuts of one shape under other
     names share a solve too (``cut_solve.solve_shape``, memo in the state).
     """
-    memo = state.cache.setdefault("cut-off", {})
+    cache = state.cache
+    memo = cache.get("cut-off")
+    if memo is None:
+        memo = cache["cut-off"] = {}
     active = frozenset(floating & _attached_nets(state))
     key = (active, group)
     found = memo.get(key)  # type: ignore[attr-defined]
     if found is None:
-        node = "<open>"
-        keys = _region(state, set(active), group)
-        ordered = sorted(keys)
-        rows, ends = _rows(state, ordered, active, node)
-        ends.add(node)
-        ends.add(group)
-        nodes = sorted(ends)
-        rails = state.rails
-        fixed = {n: rails[n] for n in nodes if n in rails and n != node}
-        shapes: dict = state.cache.setdefault("cut-shapes", {})  # type: ignore[assignment]
-        v_open, v_group, flows = solve_shape(nodes, fixed, rows, node, group, shapes)
-        facts, before = state.facts, state.currents
-        switched = tuple(
-            k
-            for k, flow in zip(ordered, flows, strict=True)
-            if k in facts
-            and abs(before.get(k, 0.0)) > _TINY
-            and abs(flow) < LOST_SHARE * abs(before[k])
-        )
-        solution = Solution(
-            {node: v_open, group: v_group}, dict(zip(ordered, flows, strict=True)), {}
-        )
-        found = memo[key] = (keys, solution, switched)  # type: ignore[index]
+        found = memo[key] = _solve_cut(state, active, group)  # type: ignore[index]
     return found  # type: ignore[no-any-return]
+
+
+def _solve_cut(
+    state: DomainState, active: frozenset[str], group: str
+) -> tuple[float, float, tuple[str, ...]]:
+    """``_cut_off`` of the floating nets with a model branch, worked out."""
+    node = "<open>"
+    ordered = sorted(_region(state, set(active), group))
+    rows, ends = _rows(state, ordered, active, node)
+    ends.add(node)
+    ends.add(group)
+    nodes = sorted(ends)
+    rails = state.rails
+    fixed = {n: rails[n] for n in nodes if n in rails and n != node}
+    cache = state.cache
+    shapes = cache.get("cut-shapes")
+    if shapes is None:
+        shapes = cache["cut-shapes"] = {}
+        cache["cut-values"] = {}
+    values: dict = cache["cut-values"]  # type: ignore[assignment]
+    v_open, v_group, flows = solve_shape(
+        nodes, fixed, rows, node, group, shapes, values
+    )
+    facts, before = state.facts, state.currents
+    switched = []
+    for k, flow in zip(ordered, flows, strict=True):
+        if k in facts:
+            was = abs(before.get(k, 0.0))
+            if was > _TINY and abs(flow) < LOST_SHARE * was:
+                switched.append(k)
+    return v_open, v_group, tuple(switched)
 
 
 def open_element(
@@ -389,8 +406,6 @@ def open_element(
     group = state.group[branch.a]
     floating, searched = _floating_side(state, side, terminals, group)
     floating_end = end if searched else ("a" if end == "b" else "b")
-    _, solution, switched = _cut_off(state, floating, group)
-    v_float = solution.potentials["<open>"]
-    v_rest = solution.potentials[group]
+    v_float, v_rest, switched = _cut_off(state, floating, group)
     voltage_ab = (v_rest - v_float) if floating_end == "b" else (v_float - v_rest)
     return Opening(current_ab, voltage_ab, switched, bypass, frozenset(floating))

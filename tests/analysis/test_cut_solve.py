@@ -89,3 +89,20 @@ def test_the_shape_holds_what_the_solve_reads() -> None:
     assert _shape(nodes, fixed, turned) != base
     assert _shape(nodes, fixed, ROWS, group="M") != base  # another node read back
     assert _shape(nodes, {"L+": 24, "M": 0.0}, ROWS) is None  # not a float
+
+
+def test_remembered_values_give_the_same_shape() -> None:
+    """``_shape`` with its memo of model values is ``_shape`` without it."""
+    nodes = ["<open>", "L+", "M"]
+    fixed = {"L+": 24.0, "M": 0.0}
+    values: dict = {}
+    base = _shape(nodes, fixed, ROWS)
+    assert cut_solve._shape(nodes, fixed, ROWS, "<open>", "L+", values) == base
+    assert cut_solve._shape(nodes, fixed, ROWS, "<open>", "L+", values) == base
+    assert len(values) == 2
+    # An entry is read only for the very model it holds (ids can be reused).
+    model = ROWS[0][3]
+    values[id(model)] = (Resistor("K1:coil", "x", "y", 1.0), ("r", 1.0))
+    assert cut_solve._shape(nodes, fixed, ROWS, "<open>", "L+", values) == base
+    integer = [(*ROWS[0][:3], Resistor("K1:coil", "x", "y", 240)), ROWS[1]]
+    assert cut_solve._shape(nodes, fixed, integer, "<open>", "L+", values) is None

@@ -56,7 +56,7 @@ def _former_cut_off(state, floating, group):  # type: ignore[no-untyped-def]
         and abs(solution.currents.get(k, 0.0))
         < switched.LOST_SHARE * abs(state.currents[k])
     )
-    return keys, solution, lost
+    return solution.potentials[node], solution.potentials[group], lost
 
 
 def _former_mark_series(elements):  # type: ignore[no-untyped-def]
