@@ -55,7 +55,9 @@ def suppressors_between(
     (the load's negative side, or the element's current inlet); a chain that
     cannot (a diode + zener with its diode turned round) is not functional.
     """
-    found = []
+    found: list[Suppressor] = []
+    if not chains:  # a domain with no suppressor chain at all (nothing to key)
+        return found
     for chain in chains.get(frozenset({wire.get(a, a), wire.get(b, b)}), ()):
         conducts = False
         for br in chain.branches:

@@ -14,7 +14,12 @@ def mark_series(elements: dict[str, ElementAnalysis]) -> dict[str, ElementAnalys
     for name, e in elements.items():
         if e.supply != "dc" or not e.loads or e.current is None:
             continue
-        loads = frozenset(ld.facts.key for ld in e.loads)
+        switched = e.loads
+        loads = (
+            frozenset((switched[0].facts.key,))
+            if len(switched) == 1
+            else frozenset([ld.facts.key for ld in switched])
+        )
         key = (e.domain, loads, round(float(e.current.magnitude), 9))
         groups.setdefault(key, []).append(name)
     out = dict(elements)
