@@ -113,6 +113,8 @@ _END = {"1": 0, "+": 0, "A": 0, "2": 1, "-": 1, "K": 1}.get
 
 
 _NEW = object.__new__
+# Kinds whose branches are not just their two terminals' (``_add_branches``).
+_SPECIAL = COIL_KINDS | SWITCHING_KINDS | PROTECTIVE_KINDS | {"supply"}
 
 
 def _branch(
@@ -156,9 +158,23 @@ def _add_branches(component: Component, out: list[Branch]) -> None:
     part's ends by comparison instead of a keyed sort.
     """
     connections = component.connections
+    kind = component.kind
+    if len(connections) == 2 and kind not in _SPECIAL and not component.elements:
+        # A two-terminal part (most of a design's loads): the general path's
+        # one branch, without its dict of nets. A terminal named twice is on
+        # its first connection's net, as the dict below gives.
+        first, second = connections
+        if first.terminal == second.terminal:
+            a = b = first.net
+        else:
+            if _END(second.terminal, 2) < _END(first.terminal, 2):
+                first, second = second, first
+            a, b = first.net, second.net
+        role = LOAD if kind == "load" else kind
+        out.append(_branch(component, role, a, b, None, component.ref))
+        return
     # Component.net_of as one dict (the first connection of a terminal wins).
     net = {c.terminal: c.net for c in reversed(connections)}.get
-    kind = component.kind
     if kind == "supply":
         a, b = ("+", "-") if net("+") or net("-") else ("L", "N")
         if net(a) and net(b):

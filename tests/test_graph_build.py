@@ -103,3 +103,95 @@ def test_the_multigraph_is_built_when_first_read(tmp_path):
     built = graph.graph
     assert built is graph.graph
     _same(built, _public(original, graph.branches))
+
+
+def _former_add_branches(component, out):  # type: ignore[no-untyped-def]
+    """``graph._add_branches`` before its two-terminal quick path (verbatim)."""
+    from netcheck.graph import (
+        _END,
+        COIL,
+        COIL_KINDS,
+        CONDUCTOR,
+        LOAD,
+        PROTECTIVE_KINDS,
+        SUPPLY,
+        SWITCH,
+        SWITCHING_KINDS,
+        _branch,
+    )
+
+    connections = component.connections
+    net = {c.terminal: c.net for c in reversed(connections)}.get
+    kind = component.kind
+    if kind == "supply":
+        a, b = ("+", "-") if net("+") or net("-") else ("L", "N")
+        if net(a) and net(b):
+            out.append(_branch(component, SUPPLY, net(a), net(b), None, component.ref))
+        return
+    if kind in COIL_KINDS and net("A1") and net("A2"):
+        key = f"{component.ref}:coil"
+        out.append(_branch(component, COIL, net("A1"), net("A2"), None, key))
+    for element in component.elements:
+        a, b = net(element.a), net(element.b)
+        if a and b:
+            out.append(_branch(component, SWITCH, a, b, element, element.name))
+    if kind in PROTECTIVE_KINDS:
+        for pole in component.poles:
+            a, b = net(pole.common), net(pole.no or "")
+            if a and b:
+                out.append(_branch(component, CONDUCTOR, a, b, None, component.ref))
+        return
+    if kind in SWITCHING_KINDS or len(connections) != 2:
+        return
+    first, second = connections[0].terminal, connections[1].terminal
+    if _END(second, 2) < _END(first, 2):
+        first, second = second, first
+    role = LOAD if kind == "load" else kind
+    ends = net(first), net(second)
+    out.append(_branch(component, role, *ends, None, component.ref))
+
+
+def _same_branches(netlist) -> int:  # type: ignore[no-untyped-def]
+    from netcheck.graph import _add_branches
+
+    count = 0
+    for component in netlist.components:
+        mine, former = [], []
+        _add_branches(component, mine)
+        _former_add_branches(component, former)
+        assert [b.__dict__ for b in mine] == [b.__dict__ for b in former]
+        count += len(mine)
+    return count
+
+
+@pytest.mark.parametrize("path", SAMPLES, ids=lambda p: p.parent.name)
+def test_sample_branches_are_the_former_ones(path):
+    assert _same_branches(load_design(path)) > 0
+
+
+@pytest.mark.parametrize("shape", ["mixed", "unsuppressed", "plc", "series"])
+def test_generated_branches_are_the_former_ones(tmp_path, shape):
+    gen_design.generate(400, tmp_path, shape=shape)
+    assert _same_branches(load_design(tmp_path / "design.cnet")) > 100
+
+
+def test_two_terminal_parts_of_every_kind_and_order(tmp_path):
+    """Ends ordered by terminal (1/+/A first, else as written), several kinds."""
+    text = "\n".join(
+        [
+            "supply G1 dc=24V +:P -:M",
+            "load E1 R=10ohm 2:X 1:Y",
+            "load E2 R=10ohm 1:X 2:Y",
+            "resistor R1 R=1kohm 2:P 1:X",
+            "diode V1 K:P A:X",
+            "diode V2 A:X K:M",
+            "capacitor C1 C=1uF 2:X 1:M",
+        ]
+    )
+    path = tmp_path / "d.cnet"
+    path.write_text(text + "\n")
+    netlist = load_design(path)
+    assert _same_branches(netlist) == 7
+    ends = {b.ref: (b.a, b.b) for b in build_graph(netlist).branches}
+    assert ends["E1"] == ("Y", "X") and ends["R1"] == ("X", "P")
+    assert ends["V1"] == ("X", "P") and ends["C1"] == ("M", "X")
