@@ -60,7 +60,7 @@ def _shape(
     """
     if len(rows) > _REMEMBERED_BRANCHES:
         return None
-    pos = dict(zip(nodes, range(len(nodes)), strict=True))
+    pos = {n: i for i, n in enumerate(nodes)}
     key: list = [len(nodes), pos[node], pos[group], len(fixed)]
     add = key.append
     try:

@@ -83,10 +83,13 @@ def _analyse_parallel(
     if block is None or zero.bypass_through_load(key):
         return _analyse_dc(ctx, branch, zero, injection, terminals)
     assert ctx.state is not None
-    twin = (block, branch.a, branch.b, is_power(ctx.state, branch))
+    power = is_power(ctx.state, branch)
+    twin = (block, branch.a, branch.b, power)
     first = shared.get(twin)
     if first is None:
-        first = shared[twin] = _analyse_dc(ctx, branch, zero, injection, terminals)
+        first = shared[twin] = _analyse_dc(
+            ctx, branch, zero, injection, terminals, power
+        )
         return first
     return with_fields(
         first,
@@ -126,7 +129,9 @@ def _analyse_dc(
     zero: ZeroOhm,
     injection: Mapping[str, float],
     terminals: set[str],
+    power: bool | None = None,
 ) -> ElementAnalysis:
+    """The element's analysis; ``power``, if given, is ``is_power`` of it."""
     state = ctx.state
     assert state is not None and branch.element is not None
     if zero.bypass_through_load(branch.key):
@@ -141,7 +146,8 @@ def _analyse_dc(
         zero = _zero_ohm(ctx.domain, state)
         injection = net_injections(state)
     opening = open_element(state, zero, injection, terminals, branch)
-    power = is_power(state, branch)
+    if power is None:
+        power = is_power(state, branch)
     current, supply_ref = _sag(state, opening.current_ab)
     # The loads break at the sagged current too: ½·L·I² with I = E/(R + r_int).
     sag = abs(current / opening.current_ab) if abs(opening.current_ab) > 1e-12 else 1.0
@@ -169,11 +175,11 @@ def _analyse_dc(
         if state.unknown_resistance
         else ()
     )
-    supply = state.domain.supplies[0] if state.domain.supplies else None
+    name, bidirectional = _domain_facts(state)
     return ElementAnalysis(
         element=branch.element,
         component=branch.component,
-        domain=ctx.domain.name,
+        domain=name,
         supply="dc",
         voltage=quantity(abs(opening.voltage_ab), "V"),
         current=quantity(abs(current), "A"),
@@ -187,11 +193,33 @@ def _analyse_dc(
         direction=(
             1 if opening.current_ab > 1e-9 else -1 if opening.current_ab < -1e-9 else 0
         ),
-        bidirectional=bool(supply is not None and supply.value("bidirectional")),
+        bidirectional=bidirectional,
         supply_ref=supply_ref,
-        missing=switched.missing + tuple(f"{r}: resistance" for r in unknown),
+        missing=(
+            switched.missing + tuple(f"{r}: resistance" for r in unknown)
+            if unknown
+            else switched.missing
+        ),
         short_circuit=bool(shorted),
     )
+
+
+def _domain_facts(state: DomainState) -> tuple[str, bool]:
+    """The domain's name and whether its first supply is bidirectional.
+
+    The same for every element of the state: kept in ``state.cache``. It
+    reads only ``state.domain`` (the domain the state was solved from, its
+    nets and supplies, which name it), fixed once the state is made.
+    """
+    found = state.cache.get("element-domain")
+    if found is None:
+        supplies = state.domain.supplies
+        supply = supplies[0] if supplies else None
+        found = state.cache["element-domain"] = (
+            state.domain.name,
+            bool(supply is not None and supply.value("bidirectional")),
+        )
+    return found  # type: ignore[return-value]
 
 
 def _unknown_resistance(state: DomainState, nets: frozenset[str]) -> list[str]:
