@@ -210,6 +210,9 @@ _LOAD_KEYS = ("R", "P", "V", "I", "L", "tau", "type", "release_current", "suppre
 # Facts by the identities of the values they are read from (see ``load_facts``).
 _FACTS: dict[tuple[int, ...], tuple[tuple[Any, ...], tuple[Any, ...]]] = {}
 _FACTS_LIMIT = 8192
+# The shared facts by the identity of the dict they were read from (kept
+# beside them): components of one part without overrides share that dict.
+_BY_SOURCE: dict[tuple[bool, int], tuple[dict, tuple[Any, ...]]] = {}
 _ABSENT = object()  # a key not there (None may be a value)
 
 
@@ -223,12 +226,19 @@ def load_facts(branch: Branch) -> LoadFacts:
     memo beside the facts, so an identity met again is the same object, and
     the facts, a pure function of them, are the same. Only the branch's key
     and reference differ between such loads; they are filled in per call.
+    Before that, the dict read (a part's values, shared by its components
+    without overrides, or its coil group) is looked up by identity, kept
+    beside its facts: a dict met again holds the same value objects, as
+    nothing changes a model's values in place once built.
     """
     component = branch.component
     coil = branch.role == COIL
     source = (component.value("coil", default={}) or {}) if coil else component.values
     if type(source) is not dict:
         return LoadFacts(branch.key, component.ref, *_shared_facts(coil, source))
+    held = _BY_SOURCE.get((coil, id(source)))
+    if held is not None and held[0] is source:
+        return LoadFacts(branch.key, component.ref, *held[1])
     get = source.get
     leaves = tuple([get(k, _ABSENT) for k in (_COIL_KEYS if coil else _LOAD_KEYS)])
     key = (coil, *map(id, leaves))
@@ -237,6 +247,9 @@ def load_facts(branch: Branch) -> LoadFacts:
         if len(_FACTS) >= _FACTS_LIMIT:
             _FACTS.clear()
         found = _FACTS[key] = (leaves, _shared_facts(coil, source))
+    if len(_BY_SOURCE) >= _FACTS_LIMIT:
+        _BY_SOURCE.clear()
+    _BY_SOURCE[(coil, id(source))] = (source, found[1])
     return LoadFacts(branch.key, component.ref, *found[1])
 
 

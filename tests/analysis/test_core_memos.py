@@ -55,11 +55,14 @@ def test_load_facts_remembered_equal_load_facts_worked_out():
     assert len(branches) > 250
     assert {b.role for b in branches} == {LOAD, COIL}
     loads._FACTS.clear()
+    loads._BY_SOURCE.clear()
     first = [loads.load_facts(b) for b in branches]  # fills the memo
     assert len(loads._FACTS) < len(branches)  # repeated parts do share facts
+    assert len(loads._BY_SOURCE) < len(branches)  # and their dicts
     again = [loads.load_facts(b) for b in branches]  # from the memo
     for branch, one, two in zip(branches, first, again, strict=True):
         loads._FACTS.clear()
+        loads._BY_SOURCE.clear()
         fresh = loads.load_facts(branch)
         names = list(fresh.__dataclass_fields__)
         want = [_exact(getattr(fresh, n)) for n in names]
@@ -85,6 +88,18 @@ def test_an_edited_copy_of_a_load_gets_its_own_facts():
     after = loads.load_facts(edited)
     assert after.resistance.magnitude == 1234.5
     assert after.time_constant.to("s").magnitude == 2.0 / 1234.5  # tau = L/R
+    assert loads.load_facts(branch) == before
+
+
+def test_a_dict_under_a_reused_identity_is_read_afresh():
+    """The identity memo hands back facts only for the very dict it holds."""
+    branch = next(
+        b for b in _load_branches() if b.role == LOAD and b.component.value("R")
+    )
+    before = loads.load_facts(branch)
+    source = branch.component.values
+    # As if the id now named another dict: the entry holds some other object.
+    loads._BY_SOURCE[(False, id(source))] = ({}, ("poisoned",) * 9)
     assert loads.load_facts(branch) == before
 
 
