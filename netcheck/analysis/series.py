@@ -12,9 +12,9 @@ def mark_series(elements: dict[str, ElementAnalysis]) -> dict[str, ElementAnalys
     """Mark elements in series: same switched loads and the same current."""
     groups: dict[tuple, list[str]] = {}
     for name, e in elements.items():
-        if e.supply != "dc" or not e.loads or e.current is None:
-            continue
         switched = e.loads
+        if not switched or e.supply != "dc" or e.current is None:
+            continue
         loads = (
             frozenset((switched[0].facts.key,))
             if len(switched) == 1
