@@ -37,7 +37,11 @@ def test_a_design_is_frozen_until_the_next_is_read():
 
 def test_the_loaded_designs_graph_is_frozen_with_it():
     graph = build_graph(read_design_text(TEXT))
-    assert not _tracked(graph.graph._adj)  # frozen: out of the generations
+    # Frozen: out of the generations (the branches, the domains and their
+    # lists). The multigraph is made only when first read (graph.py), later.
+    assert not _tracked(graph.branches)
+    assert not _tracked(graph.domains[0].branches)
+    assert graph._net_graph is None
 
 
 def test_an_edited_copys_graph_is_not_frozen_and_its_cycle_is_collected():
