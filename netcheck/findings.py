@@ -14,7 +14,7 @@ from typing import Any
 import pint
 
 from netcheck.source import Span
-from netcheck.units import format_quantity, unit_symbol
+from netcheck.units import Q_, format_quantity, unit_symbol
 
 __all__ = [
     "Severity",
@@ -52,8 +52,28 @@ class Severity(enum.IntEnum):
 _FORMATTED: dict[tuple[Any, type, Any, bool], str] = {}
 
 
+# The same texts for non-zero float magnitudes by (magnitude, identity of the
+# units): no units hash, no sign of zero to ask. The units are kept beside the
+# text, so an identity met again is the same object.
+_FORMATTED_FLOATS: dict[tuple[float, int], tuple[Any, str]] = {}
+
+
 def _quantity_text(value: pint.Quantity) -> str:
     magnitude = value._magnitude
+    if type(magnitude) is float and magnitude:
+        units = value._units
+        found = _FORMATTED_FLOATS.get((magnitude, id(units)))
+        if found is not None and found[0] is units:
+            return found[1]
+        if len(_FORMATTED_FLOATS) > 100_000:
+            _FORMATTED_FLOATS.clear()
+        text = _quantity_text_keyed(value, magnitude)
+        _FORMATTED_FLOATS[(magnitude, id(units))] = (units, text)
+        return text
+    return _quantity_text_keyed(value, magnitude)
+
+
+def _quantity_text_keyed(value: pint.Quantity, magnitude: Any) -> str:
     if type(magnitude) not in (float, int):
         return format_quantity(value)
     key = (value._units, type(magnitude), magnitude, negative_zero(magnitude))
@@ -99,9 +119,10 @@ def fill_template(
     texts = []
     for name in names:
         value = values.get(name, _MISSING)
-        if type(value) is str:
+        kind = type(value)
+        if kind is str:
             texts.append(value)  # what _text writes of a string: itself
-        elif isinstance(value, pint.Quantity):
+        elif kind is Q_ or isinstance(value, pint.Quantity):
             texts.append(_quantity_text(value))  # what _text writes of one
         elif value is None:
             texts.append(_absent(name, values, absent or {}))

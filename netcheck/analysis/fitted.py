@@ -50,8 +50,31 @@ def effective(suppressors: tuple[Suppressor, ...]) -> tuple[Suppressor, ...]:
     return tuple([s for s in suppressors if not s.conducts and s.functional])
 
 
+def _acts(suppressors: tuple[Suppressor, ...]) -> bool:
+    """``bool(effective(suppressors))``, without building the tuple."""
+    for s in suppressors:
+        if not s.conducts and s.functional:
+            return True
+    return False
+
+
 def unsuppressed_loads(element: ElementAnalysis) -> list[SwitchedLoad]:
-    """Inductive loads with nothing across them, nothing built in, nothing across E."""
+    """Inductive loads with nothing across them, nothing built in, nothing across E.
+
+    ``element.inductive_loads`` and ``effective`` asked as yes/no, inline
+    (the rules ask this of every DC element); tests/test_check_shortcuts.py
+    compares it with ``_unsuppressed_loads_reference``.
+    """
+    for s in element.suppression:
+        if s.placement == "across-element" and not s.conducts and s.functional:
+            return []
+    return [
+        ld for ld in element.loads if ld.inductive and not _acts(ld.suppressors)
+    ]
+
+
+def _unsuppressed_loads_reference(element: ElementAnalysis) -> list[SwitchedLoad]:
+    """``unsuppressed_loads`` as first written."""
     if effective(
         tuple(s for s in element.suppression if s.placement == "across-element")
     ):

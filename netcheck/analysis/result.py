@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from typing import Any
 
 import pint
 
@@ -16,6 +17,8 @@ from netcheck.analysis.verdicts import element_rating
 from netcheck.graph import Branch, Graph
 
 __all__ = ["Analysis", "LoadInfo"]
+
+_UNSET: Any = object()  # not computed yet (None is a verdict)
 
 
 @dataclass(frozen=True)
@@ -53,12 +56,17 @@ class Analysis:
         Elements of the same part breaking the same circuit get the same verdict,
         which keeps large designs of repeated rungs fast.
         """
-        if element.name not in self.verdicts:
+        name = element.name
+        verdicts = self.verdicts
+        found = verdicts.get(name, _UNSET)
+        if found is _UNSET:
             key = _verdict_key(element)
-            if key not in self._shared:
-                self._shared[key] = element_rating(element)
-            self.verdicts[element.name] = self._shared[key]
-        return self.verdicts[element.name]
+            shared = self._shared
+            found = shared.get(key, _UNSET)
+            if found is _UNSET:
+                found = shared[key] = element_rating(element)
+            verdicts[name] = found
+        return found
 
     @property
     def reversed_suppressors(self) -> set[str]:
@@ -80,8 +88,68 @@ def _magnitude(value: pint.Quantity | None, unit: str) -> float | None:
     return None if value is None else float(f"{si(value, unit):.9g}")
 
 
+# ``_magnitude`` by (magnitude, identity of the units, unit): the few values a
+# design's elements break, met as new quantity objects per element. The units
+# are kept beside the entry, so an identity met again is the same object;
+# only non-zero floats (no sign of zero, NaN never found again).
+_MAGNITUDES: dict[tuple[float, int, str], tuple[object, float | None]] = {}
+_MAGNITUDES_LIMIT = 4096
+
+
+def _magnitude_of(value: pint.Quantity | None, unit: str) -> float | None:
+    """``_magnitude(value, unit)``, remembered for float magnitudes."""
+    if value is None:
+        return None
+    magnitude = value._magnitude
+    if type(magnitude) is not float or not magnitude:
+        return _magnitude(value, unit)
+    units = value._units
+    key = (magnitude, id(units), unit)
+    found = _MAGNITUDES.get(key)
+    if found is not None and found[0] is units:
+        return found[1]
+    if len(_MAGNITUDES) >= _MAGNITUDES_LIMIT:
+        _MAGNITUDES.clear()
+    made = _magnitude(value, unit)
+    _MAGNITUDES[key] = (units, made)
+    return made
+
+
 def _verdict_key(element: ElementAnalysis) -> tuple:
-    """What a rating verdict depends on: the part's contact data and the break."""
+    """What a rating verdict depends on: the part's contact data and the break.
+
+    ``_verdict_key_reference`` is the same key spelled plainly;
+    tests/analysis/test_verdict_key.py holds the two together.
+    """
+    component = element.component
+    inline = [
+        (a.key, a.text) for a in component.attributes if a.key.startswith("contacts.")
+    ]
+    if len(inline) > 1:
+        inline.sort()
+    part = component.part.name if component.part is not None else None
+    loads = element.loads
+    if len(loads) == 1:
+        categories: tuple = (loads[0].category,)
+    else:
+        categories = tuple(sorted({ld.category for ld in loads}))
+    return (
+        component.kind if part else component.ref,
+        part,
+        tuple(inline),
+        element.supply,
+        bool(loads),
+        element.load_category,
+        categories,
+        element.series_poles,
+        _magnitude_of(element.voltage, "V"),
+        _magnitude_of(element.current, "A"),
+        _magnitude_of(element.time_constant, "s"),
+    )
+
+
+def _verdict_key_reference(element: ElementAnalysis) -> tuple:
+    """``_verdict_key`` as first written: the definition the fast one keeps."""
     component = element.component
     inline = tuple(
         sorted(
