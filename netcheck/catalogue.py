@@ -72,6 +72,7 @@ class RuleMeta:
         key: str = "",
         ref: str = "",
         note: str = "",
+        copy_values: bool = True,
     ) -> Finding:
         """A finding of this rule, its templates filled from ``values``.
 
@@ -79,6 +80,9 @@ class RuleMeta:
         templates may also use ``element`` and ``ref`` (the component's
         reference, ``element`` by default). ``note`` is a template appended to
         the message (the supply voltage a finding was judged at).
+        ``copy_values=False`` keeps ``values`` itself as the finding's values,
+        for a caller that made the dict for this finding alone (the check
+        context: a heavy report makes tens of thousands of findings).
         """
         fill = {"element": element, "ref": ref or element, **values}
         fix_template = self.fixes.get(fix)
@@ -94,7 +98,7 @@ class RuleMeta:
             fill_template(template, fill, absent),
             span,
             element,
-            dict(values),
+            dict(values) if copy_values else values,
             fill_template(fix_template, fill, absent) if fix_template else None,
             self.references,
             key,

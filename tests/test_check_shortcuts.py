@@ -124,3 +124,33 @@ def test_context_unsuppressed_loads_is_the_function(designs: list[Analysis]) -> 
             seen.add(key)
             assert ctx.unsuppressed_loads(element) == unsuppressed_loads(element)
     assert shared > 100, shared  # the memo is hit, not only filled
+
+
+def test_fast_unsuppressed_loads_is_the_reference(designs: list[Analysis]) -> None:
+    # fitted.unsuppressed_loads asks effective() as yes/no and filters the
+    # inductive loads inline; the reference is the function as first written.
+    from netcheck.analysis.fitted import _unsuppressed_loads_reference
+
+    found = empty = 0
+    for analysis in designs:
+        for element in analysis.sorted_elements():
+            fast = unsuppressed_loads(element)
+            assert fast == _unsuppressed_loads_reference(element), element.name
+            found += bool(fast)
+            empty += not fast and bool(element.inductive_loads)
+    assert found > 100 and empty > 100, (found, empty)  # both answers covered
+
+
+def test_verdict_key_is_the_reference(designs: list[Analysis]) -> None:
+    # result._verdict_key remembers each value's rounding by float magnitude
+    # and units identity; asked twice, the second answer comes from the memo.
+    from netcheck.analysis.result import _verdict_key, _verdict_key_reference
+
+    keys = set()
+    for analysis in designs:
+        for _ in range(2):
+            for element in analysis.sorted_elements():
+                key = _verdict_key(element)
+                assert key == _verdict_key_reference(element), element.name
+                keys.add(key)
+    assert len(keys) > 100, len(keys)

@@ -68,9 +68,7 @@ def unsuppressed_loads(element: ElementAnalysis) -> list[SwitchedLoad]:
     for s in element.suppression:
         if s.placement == "across-element" and not s.conducts and s.functional:
             return []
-    return [
-        ld for ld in element.loads if ld.inductive and not _acts(ld.suppressors)
-    ]
+    return [ld for ld in element.loads if ld.inductive and not _acts(ld.suppressors)]
 
 
 def _unsuppressed_loads_reference(element: ElementAnalysis) -> list[SwitchedLoad]:

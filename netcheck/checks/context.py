@@ -166,7 +166,7 @@ class CheckContext:
         the elements of a series chain share theirs (one rung's interlocks
         switch the one coil), so it is computed once per pair of tuples, keyed
         by their identities: the analysis holds them while the context lives.
-        tests/checks/test_context_memos.py compares it with the function.
+        tests/test_check_shortcuts.py compares it with the function.
         """
         results = self.memo.get("unsuppressed")
         if results is None:
@@ -273,18 +273,17 @@ class CheckContext:
         shared = self.memo.get("quantities")
         if shared is None:
             shared = self.memo["quantities"] = {}
+        keep = shared.setdefault
         for name, value in values.items():
-            if type(value) is not Q_:
-                continue
-            magnitude = value._magnitude
-            # Non-zero (no sign of zero to keep) and not NaN (never equal).
-            if type(magnitude) is float and magnitude and magnitude == magnitude:
-                # The units by identity: the quantity kept holds them, so the
-                # identity is not reused while the memo lives.
-                key = (magnitude, id(value._units))
-                same = shared.setdefault(key, value)
-                if same is not value:
-                    values[name] = same  # a key already there: no resize
+            if type(value) is Q_:
+                magnitude = value._magnitude
+                # Non-zero (no sign of zero to keep) and not NaN (never equal).
+                if type(magnitude) is float and magnitude and magnitude == magnitude:
+                    # The units by identity: the quantity kept holds them, so
+                    # the identity is not reused while the memo lives.
+                    same = keep((magnitude, id(value._units)), value)
+                    if same is not value:
+                        values[name] = same  # a key already there: no resize
 
     def finding(
         self,
@@ -337,4 +336,7 @@ class CheckContext:
             key=key,
             ref=component.ref,
             note=note,
+            # ``values`` is this call's own keyword dict (or the one made
+            # above): no other holder, no copy needed.
+            copy_values=False,
         )

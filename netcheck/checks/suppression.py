@@ -6,7 +6,7 @@ from collections.abc import Iterator
 
 from netcheck.analysis.fitted import effective
 from netcheck.analysis.opening import load_transient, zener_release
-from netcheck.analysis.si import total
+from netcheck.analysis.si import quantity_like, total
 from netcheck.analysis.switched import ElementAnalysis, Suppressor
 from netcheck.analysis.verdicts import arrangement_lead
 from netcheck.checks.context import CheckContext
@@ -61,6 +61,9 @@ def _motor_pole_rated(ctx: CheckContext, element: ElementAnalysis) -> bool:
 @check("inductive-load-unsuppressed")
 def inductive_load_unsuppressed(ctx: CheckContext) -> Iterator[Finding]:
     """Flag DC elements that break inductive loads with no suppression anywhere."""
+    # ctx.scaled(value, margin), the margins read once for the whole loop.
+    diode_voltage = ctx.option("diode-reverse-voltage")
+    diode_current = ctx.option("diode-current")
     for element in ctx.switching_elements(supply="dc"):
         # Behind a short (a reversed freewheel diode) the short is the one
         # finding; turning the part round also suppresses the load again.
@@ -77,16 +80,20 @@ def inductive_load_unsuppressed(ctx: CheckContext) -> Iterator[Finding]:
         # then ``energy_known`` carries the part that is known, if any.
         known = [ld.energy for ld in loads if ld.energy is not None]
         energy = total(known, "J") if len(known) == len(loads) else None
-        current = (
-            loads[0].current if len(loads) == 1 else max(ld.current for ld in loads)
-        )
+        if len(loads) == 1:
+            current = loads[0].current
+            names = loads[0].facts.ref
+        else:
+            current = max(ld.current for ld in loads)
+            names = ", ".join([ld.facts.ref for ld in loads])
+        voltage = element.voltage
         values = {
-            "loads": ", ".join(ld.facts.ref for ld in loads),
+            "loads": names,
             "energy": energy,
             "current": current,
-            "voltage": element.voltage,
-            "diode_voltage": ctx.scaled(element.voltage, "diode-reverse-voltage"),
-            "diode_current": ctx.scaled(current, "diode-current"),
+            "voltage": voltage,
+            "diode_voltage": quantity_like(voltage, voltage._magnitude * diode_voltage),
+            "diode_current": quantity_like(current, current._magnitude * diode_current),
         }
         if energy is None and known:
             values["energy_known"] = total(known, "J")

@@ -274,7 +274,7 @@ def opens_unclamped(element: ElementAnalysis) -> bool:
     element too (``unsuppressed_loads``), so ``element_peak`` takes
     ``element_transient(element, None)``, whose model is the element's own
     clamp voltage, else no suppression at all. Tested against the solve on
-    every rule case and bench shape (tests/checks/test_opens_unclamped.py).
+    every rule case and bench shape (tests/test_check_shortcuts.py).
     """
     return (
         bool(unsuppressed_loads(element))
