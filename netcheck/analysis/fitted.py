@@ -86,7 +86,9 @@ def fitted_suppressors(analysis: Analysis) -> list[Fitted]:
     for element in analysis.sorted_elements():
         if element.supply != "dc" or element.voltage is None:
             continue
-        for load in element.inductive_loads:
+        for load in element.loads:  # element.inductive_loads, without the tuple
+            if not load.inductive:
+                continue
             for s in effective(load.suppressors):
                 if s.placement != "built-in" and s.refs not in out:
                     opening = load_transient(load, element.voltage, s)
@@ -148,8 +150,9 @@ def element_peak(element: ElementAnalysis) -> OpeningTransient | None:
     if across:
         return _with_load_clamp(element, element_transient(element, across[0]))
     loads = element.inductive_loads
-    if len(loads) == 1 and effective(loads[0].suppressors):
-        s = effective(loads[0].suppressors)[0]
+    active = effective(loads[0].suppressors) if len(loads) == 1 else ()
+    if active:
+        s = active[0]
         if s.placement != "built-in":
             return element_transient(element, s)
         return None
