@@ -143,6 +143,10 @@ _TRANSIENTS: dict[tuple, tuple[tuple, OpeningTransient | None]] = {}
 _TRANSIENTS_LIMIT = 1024  # each holds waveforms of a few hundred samples
 # Chains' parts by the chain's identity: (the chain, its key part and values).
 _CHAINS: dict[int, tuple[Chain, tuple[tuple, tuple]]] = {}
+# Entries are small (a few hundred bytes); the bound is above the chain count of
+# a 100 000-component design (about 33 000), so a design's chains are each
+# worked out once rather than again after every clearing.
+_CHAINS_LIMIT = 1 << 17
 
 
 def _chain_parts(chain: Chain | None) -> tuple[tuple, tuple] | None:
@@ -167,7 +171,7 @@ def _chain_parts(chain: Chain | None) -> tuple[tuple, tuple] | None:
         leaves = [values.get(k, _ABSENT) for k in _PART_KEYS]
         kept += leaves
         parts.append((branch.kind, *map(id, leaves)))
-    if len(_CHAINS) >= 4 * _TRANSIENTS_LIMIT:
+    if len(_CHAINS) >= _CHAINS_LIMIT:
         _CHAINS.clear()
     made = (tuple(parts), tuple(kept))
     _CHAINS[id(chain)] = (chain, made)

@@ -168,3 +168,19 @@ def test_a_transient_at_another_current_is_worked_out_again():
     assert two.stored_energy.to("J").magnitude == pytest.approx(
         4.0 * one.stored_energy.to("J").magnitude, rel=1e-9
     )
+
+
+def test_chain_parts_stay_right_when_their_memo_is_emptied(monkeypatch):
+    # The chain memo is bounded (_CHAINS_LIMIT); emptied part-way through a
+    # design, it must still give the parts a fresh reading gives.
+    calls = [c for a in _analyses() for c in _calls(a) if c[2] is not None]
+    chains = {id(c[2].chain): c[2].chain for c in calls if c[2].chain is not None}
+    assert len(chains) > 20
+    monkeypatch.setattr(opening, "_CHAINS_LIMIT", 3)
+    opening._CHAINS.clear()
+    remembered = [opening._chain_parts(chain) for chain in chains.values()] * 2
+    assert len(opening._CHAINS) <= 3
+    opening._CHAINS.clear()
+    monkeypatch.setattr(opening, "_CHAINS_LIMIT", 1 << 17)
+    fresh = [opening._chain_parts(chain) for chain in chains.values()] * 2
+    assert [r[0] for r in remembered] == [f[0] for f in fresh]
