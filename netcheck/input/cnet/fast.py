@@ -157,14 +157,16 @@ def _plain_items(
     for word in words:
         start = find(word, at)  # only blanks lie between ``at`` and the word
         at = start + len(word)
-        name, equals, value = word.partition("=")
-        if not equals:
-            name, colon, value = word.partition(":")
-            if not colon:
+        # ":" first: most items are connections (a plain word holds at most
+        # one ``=`` or ``:``, and never both)
+        name, colon, value = word.partition(":")
+        if not colon:
+            name, equals, value = word.partition("=")
+            if not equals:
                 return None  # a bare name
         if name in keywords or value in keywords:
             return None  # how the grammar lexes a keyword there is its business
-        if equals:
+        if not colon:
             item = _NEW(RawAttribute)  # RawAttribute(...), written out
             fields = item.__dict__
             fields["key"] = intern(name)
@@ -393,6 +395,7 @@ def fast_statements(
         return None
     out: list[Statement] = []
     group: Group = []  # the lines of the statement being read
+    plain_group = True  # whether they are all plain lines
     tokens_of = _TOKEN.findall
     plain = _PLAIN.fullmatch
     for number, line in enumerate(lines, start=1):
@@ -408,10 +411,18 @@ def fast_statements(
             if not group:
                 return None  # an indented first statement: the grammar words it
             group.append((number, line, tokens))
+            if tokens is not None:
+                plain_group = False
             continue
-        if group and not _add(file, group, lines, grammar, out):
-            return None
+        if group:
+            # _add(file, group, ...), its usual case (plain lines, read) inline
+            read = _plain_statement(file, group) if plain_group else None
+            if read is not None:
+                out.append(read)
+            elif not _add(file, group, lines, grammar, out):
+                return None
         group = [(number, line, tokens)]
+        plain_group = tokens is None
     if group and not _add(file, group, lines, grammar, out):
         return None
     return out
