@@ -12,8 +12,9 @@ equal to what the generated ``__init__`` makes.
 
 A ``Connection`` or ``Attribute`` read from a plain line (``terminal:net``,
 ``key=value`` unquoted, on one line) may hold where it starts instead of its
-span (``token_span``): nearly all spans of a large design are never read, and
-the span object a token was a tenth of the load and of the model's memory.
+span (``token_span``): nearly all spans of a large design are never read
+(errors and findings read them). On the 100 000-component bench designs the
+spans left out saved about 55 MiB of the load's peak of about 320.
 """
 
 from __future__ import annotations
