@@ -353,3 +353,59 @@ def test_plain_lines_take_the_plain_path(text, monkeypatch):
     monkeypatch.setattr(fast, "_plain_statement", counted)
     assert fast_statements(text, "t.cnet") is not None
     assert calls
+
+
+# The tokens of a plain line and a statement's reference keep where they
+# start, their spans worked out when read (model.token_span): not made before,
+# and then the grammar's own (the comparisons above read them all).
+def test_plain_tokens_work_out_their_spans_when_read():
+    text = "relay K1 part=r\n    A1:a A2:b\n\t13:c 14:dd\n"
+    (statement,) = fast_statements(text, "t.cnet")
+    tokens = [*statement.attributes, *statement.connections]
+    assert all("span" not in vars(t) for t in tokens)
+    assert "ref_span" not in vars(statement)
+    (grammar,) = _grammar(text, "t.cnet")
+    assert [t.span for t in tokens] == [
+        t.span for t in (*grammar.attributes, *grammar.connections)
+    ]
+    assert [t.span.column for t in statement.connections] == [5, 10, 2, 7]
+    assert statement.ref_span == grammar.ref_span
+    assert all("span" in vars(t) for t in tokens)  # kept once worked out
+
+
+def _old_shape(statement) -> tuple:
+    return (
+        statement.kind,
+        tuple((a.key, a.text) for a in statement.attributes),
+        tuple(c.terminal for c in statement.connections),
+    )
+
+
+def test_plain_shape_keys_tell_what_a_template_reads(tmp_path):
+    # The fast reader's shape key (template.shape_of) must decide the kind, the
+    # attributes' keys and texts and the terminals, in order: two statements
+    # with one key have one template. Every repository file and generated
+    # designs of every bench shape, where shapes repeat.
+    import sys
+
+    sys.path.insert(0, str(ROOT / "bench"))
+    import gen_design
+
+    texts = [_text(p) for p in FILES]
+    for shape in gen_design.SHAPES:
+        top = gen_design.generate(300, tmp_path / shape, shape=shape)
+        texts += [_text(p) for p in sorted(top.parent.rglob("*.cnet"))]
+    texts += [
+        "load H1 1:a v=2\nload H2 v=2 1:b\nload H3 1:c v=2\nload H4 v=2 1:d",
+        "load H1 a=b\nload H2 a:b\nload H3\n  a=b\nload H4 a:c",
+    ]
+    seen: dict = {}
+    keyed = 0
+    for text in texts:
+        for statement in fast_statements(text, "t.cnet") or ():
+            key = vars(statement).get("_shape")
+            if key is None:
+                continue
+            keyed += 1
+            assert seen.setdefault(key, _old_shape(statement)) == _old_shape(statement)
+    assert keyed > 1000 and len(seen) < keyed / 10

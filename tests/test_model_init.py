@@ -137,3 +137,48 @@ def test_evolve_builds_what_replace_builds(changes):
             ours.rule = "changed"
     with pytest.raises(TypeError):
         evolve(Finding(*CASES[-1][1]), colour="red")
+
+
+def _holding_where_it_starts(cls, *others):
+    """An instance as the fast reader makes it: no span, where it starts."""
+    token = object.__new__(cls)
+    fields = token.__dict__
+    names = [f.name for f in dataclasses.fields(cls)][:-1]  # all but span
+    for name, value in zip(names, others, strict=True):
+        fields[name] = value
+    fields["_file"], fields["_line"], fields["_column"] = "a.cnet", 3, 5
+    return token
+
+
+@pytest.mark.parametrize(
+    ("cls", "args"),
+    [
+        (Connection, ("13", "W1")),  # 13:W1 from column 5: ends at 10
+        (Attribute, ("v", "24V", "24V")),  # v=24V (key, value, text)
+        (RawAttribute, ("v", "24V", False)),
+    ],
+)
+def test_a_token_that_keeps_where_it_starts_is_the_token_with_its_span(cls, args):
+    made = _holding_where_it_starts(cls, *args)
+    fields = [f.name for f in dataclasses.fields(cls)]
+    width = len("13:W1") if cls is Connection else len("v=24V")
+    span = Span("a.cnet", 3, 5, 3, 5 + width)
+    whole = cls(*args, span)
+    assert "span" not in vars(made)
+    assert hash(made) == hash(whole) and made == whole and repr(made) == repr(whole)
+    assert made.span == span and vars(made)["span"] is made.span  # kept
+    assert dataclasses.replace(made, **{fields[0]: "x"}).span == span
+    assert all(getattr(made, n) == getattr(whole, n) for n in fields)
+
+
+def test_a_reference_span_is_worked_out_from_its_column():
+    statement = object.__new__(ComponentStatement)
+    fields = statement.__dict__
+    fields.update(kind="relay", ref="K10", attributes=(), connections=())
+    fields["span"] = Span("a.cnet", 7, 1, 8, 20)
+    fields["_ref_column"] = 9
+    whole = ComponentStatement(
+        "relay", "K10", (), (), fields["span"], Span("a.cnet", 7, 9, 7, 12)
+    )
+    assert statement == whole and hash(statement) == hash(whole)
+    assert statement.ref_span == Span("a.cnet", 7, 9, 7, 12)

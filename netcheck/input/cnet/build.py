@@ -390,8 +390,9 @@ def _components(reader: Reader, builder: _Builder) -> list[Component]:
             )
             continue
         seen[ref] = statement.span
-        # builder.component(statement), its usual case (a known shape) inline
-        template = templates(shape_of(statement))
+        # builder.component(statement), its usual case (a known shape) inline,
+        # with shape_of's own usual case (a key the fast reader made)
+        template = templates(statement.__dict__.get("_shape") or shape_of(statement))
         if template is not None:
             components.append(template.component(statement))
             continue

@@ -139,55 +139,67 @@ def _plain_items(
     at: int,
     attributes: list[RawAttribute],
     connections: list[Connection],
+    shape: list[str],
 ) -> int | None:
     """``_items`` for ``words`` of a plain line, the first at or after ``at``.
 
-    The same checks, spans and objects as ``_items`` (a plain line's token is
-    a bare name, ``key=value`` or ``terminal:net``; neither a name nor a value
-    holds ``=`` or ``:``).
+    The same checks and objects as ``_items`` (a plain line's token is a bare
+    name, ``key=value`` or ``terminal:net``; neither a name nor a value holds
+    ``=`` or ``:``), except that each keeps where it starts, its span worked
+    out when read (``model.token_span``): the span is from there to the end
+    of the token, which is its key (terminal), one separator and its value
+    (net). Adds to ``shape`` each attribute's word and each terminal, in the
+    line's order (see ``_plain_statement``).
     """
     keywords = KEYWORDS
     intern = sys.intern
     find = line.find
-    end = 0
     for word in words:
         start = find(word, at)  # only blanks lie between ``at`` and the word
         at = start + len(word)
-        end = at + 1
-        name, equals, value = word.partition("=")
-        if not equals:
-            name, colon, value = word.partition(":")
-            if not colon:
+        # ":" first: most items are connections (a plain word holds at most
+        # one ``=`` or ``:``, and never both)
+        name, colon, value = word.partition(":")
+        if not colon:
+            name, equals, value = word.partition("=")
+            if not equals:
                 return None  # a bare name
         if name in keywords or value in keywords:
             return None  # how the grammar lexes a keyword there is its business
-        span = _NEW(Span)  # new_span(...), written out (a call per token)
-        fields = span.__dict__
-        fields["file"] = file
-        fields["line"] = number
-        fields["column"] = start + 1
-        fields["end_line"] = number
-        fields["end_column"] = end
-        if equals:
+        if not colon:
             item = _NEW(RawAttribute)  # RawAttribute(...), written out
             fields = item.__dict__
             fields["key"] = intern(name)
             fields["text"] = intern(value)
             fields["quoted"] = False
-            fields["span"] = span
+            fields["_file"] = file
+            fields["_line"] = number
+            fields["_column"] = start + 1
             attributes.append(item)
+            shape.append(word)
         else:
             item = _NEW(Connection)  # Connection(...), written out
             fields = item.__dict__
-            fields["terminal"] = intern(name)
+            fields["terminal"] = name = intern(name)
             fields["net"] = intern(value)
-            fields["span"] = span
+            fields["_file"] = file
+            fields["_line"] = number
+            fields["_column"] = start + 1
             connections.append(item)
-    return end
+            shape.append(name)
+    return at + 1 if words else 0
 
 
 def _plain_statement(file: str, group: Group) -> Statement | None:
-    """``_statement`` for a statement of plain lines (``_PLAIN``), or None."""
+    """``_statement`` for a statement of plain lines (``_PLAIN``), or None.
+
+    The statement keeps the column of its reference instead of its span
+    (``statements.ComponentStatement.ref_span``), and its shape key as
+    ``_shape`` (``template.shape_of``): the kind, then each attribute's
+    ``key=value`` word and each terminal in the order written. A word holds
+    ``=`` and a terminal cannot, so the key tells the attributes' keys and
+    texts and the terminals, in order: what decides a template.
+    """
     first, line, _ = group[0]
     words = line.split()
     if len(words) < 2:
@@ -202,29 +214,41 @@ def _plain_statement(file: str, group: Group) -> Statement | None:
         or ":" in ref
     ):
         return None  # a keyword statement (which needs a string) or no name
+    kind = sys.intern(kind)
     ref_at = line.find(ref, len(kind))  # a statement starts in column 1
     attributes: list[RawAttribute] = []
     connections: list[Connection] = []
+    shape = [kind]
     at = ref_at + len(ref)
-    last = _plain_items(file, first, line, words[2:], at, attributes, connections)
+    last = _plain_items(
+        file, first, line, words[2:], at, attributes, connections, shape
+    )
     if last is None:
         return None
-    end = (first, last or at + 1)
+    end_line, end_column = first, last or at + 1
     for number, line, _ in group[1:]:
         last = _plain_items(
-            file, number, line, line.split(), 0, attributes, connections
+            file, number, line, line.split(), 0, attributes, connections, shape
         )
         if last is None:
             return None
-        end = (number, last)
+        end_line, end_column = number, last
+    span = _NEW(Span)  # new_span(file, first, 1, end_line, end_column)
+    fields = span.__dict__
+    fields["file"] = file
+    fields["line"] = first
+    fields["column"] = 1
+    fields["end_line"] = end_line
+    fields["end_column"] = end_column
     statement = _NEW(ComponentStatement)  # its __init__, written out
     fields = statement.__dict__
-    fields["kind"] = sys.intern(kind)
+    fields["kind"] = kind
     fields["ref"] = ref
     fields["attributes"] = tuple(attributes)
     fields["connections"] = tuple(connections)
-    fields["span"] = new_span(file, first, 1, *end)
-    fields["ref_span"] = new_span(file, first, ref_at + 1, first, at + 1)
+    fields["span"] = span
+    fields["_ref_column"] = ref_at + 1
+    fields["_shape"] = tuple(shape)
     return statement
 
 
@@ -371,6 +395,7 @@ def fast_statements(
         return None
     out: list[Statement] = []
     group: Group = []  # the lines of the statement being read
+    plain_group = True  # whether they are all plain lines
     tokens_of = _TOKEN.findall
     plain = _PLAIN.fullmatch
     for number, line in enumerate(lines, start=1):
@@ -386,10 +411,18 @@ def fast_statements(
             if not group:
                 return None  # an indented first statement: the grammar words it
             group.append((number, line, tokens))
+            if tokens is not None:
+                plain_group = False
             continue
-        if group and not _add(file, group, lines, grammar, out):
-            return None
+        if group:
+            # _add(file, group, ...), its usual case (plain lines, read) inline
+            read = _plain_statement(file, group) if plain_group else None
+            if read is not None:
+                out.append(read)
+            elif not _add(file, group, lines, grammar, out):
+                return None
         group = [(number, line, tokens)]
+        plain_group = tokens is None
     if group and not _add(file, group, lines, grammar, out):
         return None
     return out

@@ -6,13 +6,17 @@ dataclass's ``object.__setattr__`` per field (``tests/test_model_init.py``
 holds them equal to the generated ``__init__``), and work out the spans only
 error messages use (a value's, a kind's) from the spans they keep
 (``tests/test_fast_parse.py`` holds those equal to the grammar's tokens).
+The fast reader leaves even those spans to be worked out when read, for the
+tokens of a plain line (``model.token_span``) and for a reference (only a
+reference defined twice needs its span): it keeps where they start.
 """
 
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import overload
 
-from netcheck.model import Connection
+from netcheck.model import Connection, token_span
 from netcheck.source import Span
 
 __all__ = [
@@ -61,6 +65,9 @@ class RawAttribute:
         )
 
 
+RawAttribute.span = token_span("key", "text")  # type: ignore[assignment]
+
+
 @dataclass(frozen=True)
 class ComponentStatement:
     """``kind ref key=value ... terminal:net ...``."""
@@ -96,6 +103,32 @@ class ComponentStatement:
         return Span(
             span.file, span.line, span.column, span.line, span.column + len(self.kind)
         )
+
+
+class _RefSpan:
+    """``ref_span`` of a statement that holds the reference's column instead.
+
+    The fast reader leaves ``_ref_column`` (1-based, on the statement's first
+    line) in ``__dict__``; the span is worked out on the first read and kept.
+    """
+
+    @overload
+    def __get__(self, instance: None, owner: type | None = None) -> _RefSpan: ...
+    @overload
+    def __get__(self, instance: object, owner: type | None = None) -> Span: ...
+    def __get__(self, instance: object, owner: type | None = None) -> Span | _RefSpan:
+        if instance is None:
+            return self
+        fields = instance.__dict__
+        span, column = fields["span"], fields["_ref_column"]
+        end = column + len(fields["ref"])
+        line = span.line
+        ref_span = fields["ref_span"] = Span(span.file, line, column, line, end)
+        return ref_span
+
+
+# After the dataclass is made (a class attribute before would be a default).
+ComponentStatement.ref_span = _RefSpan()  # type: ignore[assignment]
 
 
 @dataclass(frozen=True)

@@ -27,7 +27,16 @@ def shape_of(statement: ComponentStatement) -> Hashable:
     """What decides everything but a component's reference, nets and spans.
 
     Whether a value was quoted is left out: the builder reads the text alone.
+    A statement the fast reader read from plain lines brings its own key
+    (``_shape``: the kind, then the ``key=value`` words and terminals in the
+    order written), which tells its kind, attribute texts and terminals as
+    the key made here does; the two kinds of key never meet (this one's
+    second item is a tuple), so at worst a shape is worked out once per kind
+    of key, the same either way.
     """
+    shape = statement.__dict__.get("_shape")
+    if shape is not None:
+        return shape
     return (
         statement.kind,
         tuple([(a.key, a.text) for a in statement.attributes]),
@@ -63,7 +72,9 @@ class Template:
 
         The same objects as ``Component(kind, ref, span, connections,
         (Attribute(...), ...), part, merged, tags, poles, (SwitchingElement(...),
-        ...))``, their fields written out (``tests/test_model_init.py`` holds
+        ...))``, their fields written out (an attribute whose raw attribute
+        holds where it starts instead of its span holds the same:
+        ``model.token_span``) (``tests/test_model_init.py`` holds
         the model's own ``__init__`` to the same): three constructor calls a
         component were a third of the build of a large design.
         """
@@ -72,10 +83,17 @@ class Template:
         for raw, value in zip(statement.attributes, self.values, strict=True):
             attribute = _NEW(Attribute)
             fields = attribute.__dict__
-            fields["key"] = raw.key
+            known = raw.__dict__
+            fields["key"] = known["key"]
             fields["value"] = value
-            fields["text"] = raw.text
-            fields["span"] = raw.span
+            fields["text"] = known["text"]
+            at = known.get("span")
+            if at is None:  # where it starts, the span worked out when read
+                fields["_file"] = known["_file"]
+                fields["_line"] = known["_line"]
+                fields["_column"] = known["_column"]
+            else:
+                fields["span"] = at
             attributes.append(attribute)
         elements = []
         for a, b, form in self.elements:
