@@ -214,19 +214,12 @@ def _values(
         return
     inner = pad + "  "
     separator, comma = "{" + inner, "," + inner
-    written, objects = _WRITTEN, _OBJECTS
+    written = _WRITTEN
     for name in names:
         out.append(separator)
         separator = comma
         value = values[name]
-        # Findings share their value objects: one written member per object.
-        mark = (id(value), inner, name)
-        known = objects.get(mark)
-        if known is not None and known[0] is value:
-            out.append(known[1])
-            continue
-        kind = type(value)
-        if kind is Q_:
+        if type(value) is Q_:
             # The common case, a non-zero float, looked up as _member does.
             magnitude = value._magnitude
             if type(magnitude) is float and magnitude:
@@ -234,25 +227,9 @@ def _values(
                 text = written.get(key)
                 if text is not None:
                     out.append(text)
-                    _remember(mark, value, text)
                     continue
-        start = len(out)
         _member(name, value, inner, write, out)
-        if kind is Q_ or kind is str:
-            _remember(mark, value, "".join(out[start:]))
     out.append(pad + "}")
-
-
-# Written members by (id of the value, pad, name), each with its value: kept
-# alive here, the identity cannot be another object's. Only quantities and
-# strings, which nothing changes in place (DEVELOPERS.md, process-wide memos).
-_OBJECTS: dict[tuple[int, str, Any], tuple[Any, str]] = {}
-
-
-def _remember(mark: tuple[int, str, Any], value: Any, text: str) -> None:
-    if len(_OBJECTS) > 100_000:
-        _OBJECTS.clear()
-    _OBJECTS[mark] = (value, text)
 
 
 # Written members ("name": entry) by (pad, name, units, magnitude type,
@@ -347,7 +324,7 @@ def _fix(
     _values(finding.values, shown, p, write, out)
     out.append(keys[2])
     if finding.edits:
-        _edits(finding.edits, p, write, out)
+        write([edit_dict(edit) for edit in finding.edits], p, out)
     else:
         out.append("[]")
     verified = finding.verified
@@ -356,46 +333,6 @@ def _fix(
 
 
 _FLAGS = {None: "null", True: "true", False: "false"}
-
-
-def _edits(edits: Iterable[Any], pad: str, write: Any, out: list[str]) -> None:
-    """Append ``[edit_dict(e) for e in edits]`` (not empty) as ``dump`` writes it."""
-    inner = pad + "  "
-    separator = "[" + inner
-    for edit in edits:
-        out.append(separator)
-        separator = "," + inner
-        _object(edit_dict(edit), inner, write, out)
-    out.append(pad + "]")
-
-
-# The text before a member's value, by (separator, name).
-_OPENINGS: dict[tuple[str, str], str] = {}
-
-
-def _object(value: dict[Any, Any], pad: str, write: Any, out: list[str]) -> None:
-    """Append a dict of strings and such dicts (an edit) as ``dump`` writes it."""
-    if not value or any(type(key) is not str for key in value):
-        write(value, pad, out)
-        return
-    inner = pad + "  "
-    separator, comma = "{" + inner, "," + inner
-    for name, item in value.items():
-        opening = _OPENINGS.get((separator, name))
-        if opening is None:
-            if len(_OPENINGS) > 10_000:
-                _OPENINGS.clear()
-            opening = _OPENINGS[(separator, name)] = f"{separator}{_escape(name)}: "
-        out.append(opening)
-        separator = comma
-        kind = type(item)
-        if kind is str:
-            _string(item, out)
-        elif kind is dict:
-            _object(item, inner, write, out)
-        else:
-            write(item, inner, out)
-    out.append(pad + "}")
 
 
 # Written reference lists by (pad, references): a rule's findings share one.
