@@ -1,5 +1,5 @@
 """``python -m netcheck``: the same as the ``netcheck`` console script."""
 
-from netcheck.cli import main
+from netcheck.cli import entry
 
-raise SystemExit(main())
+entry()

@@ -14,12 +14,13 @@ import argparse
 import os
 import sys
 from collections.abc import Sequence
+from typing import NoReturn
 
 from netcheck import __version__
 from netcheck.cli.commands import COMMANDS
 from netcheck.cli.output import Output
 
-__all__ = ["COMMANDS", "build_parser", "main"]
+__all__ = ["COMMANDS", "build_parser", "entry", "main"]
 
 
 def build_parser(only: str | None = None) -> argparse.ArgumentParser:
@@ -128,3 +129,30 @@ def main(argv: Sequence[str] | None = None) -> int:
             devnull = os.open(os.devnull, os.O_WRONLY)
             os.dup2(devnull, sys.stdout.fileno())
         return 1
+
+
+def entry() -> NoReturn:
+    """The console script and ``python -m netcheck``: ``main()``, then exit at once.
+
+    A command that checked a large design ends holding its model (hundreds of
+    MB in millions of objects, kept on purpose: ``pipeline._last_design``);
+    the interpreter's teardown would free them one by one, 0.4 s at 100,000
+    components, after the output is complete. So once the exit handlers have
+    run and standard output and error are flushed, the process ends without
+    that teardown (``os._exit``). Under a profiler or tracer, or with another
+    thread still running, it exits the ordinary way.
+    """
+    status = main()
+    threading = sys.modules.get("threading")
+    others = threading is not None and threading.active_count() > 1
+    if others or sys.getprofile() is not None or sys.gettrace() is not None:
+        raise SystemExit(status)
+    import atexit
+
+    atexit._run_exitfuncs()
+    for stream in (sys.stdout, sys.stderr):
+        try:
+            stream.flush()
+        except (OSError, ValueError):  # a closed pipe: as main() says, status 1
+            status = status or 1
+    os._exit(status)

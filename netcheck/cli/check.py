@@ -88,16 +88,20 @@ def run(args: argparse.Namespace, out: Output) -> int:
     catalogue = load_catalogue()
     with display_root(project_root(request.paths, request.config)):
         outcome = outcome_or_errors(request, catalogue)
-        text = FORMATS[args.format].render(
-            outcome.report,
-            catalogue,
-            out.terminal,
-            details=bool(args.details),
-            quiet=bool(args.quiet),
+        for error in outcome.report.errors:
+            out.error(error.rendered)
+        view = out.terminal
+        # Rendered as it is written: a heavy report is never one whole string.
+        out.stream(
+            lambda sink: FORMATS[args.format].write(
+                outcome.report,
+                catalogue,
+                view,
+                sink,
+                details=bool(args.details),
+                quiet=bool(args.quiet),
+            )
         )
-    for error in outcome.report.errors:
-        out.error(error.rendered)
-    out.write(text)
     if outcome.report.errors:
         return 2
     unverified = args.fail_on_unverified and bool(outcome.report.unverified)

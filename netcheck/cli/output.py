@@ -3,6 +3,8 @@
 So encoding, colour and ``-o FILE`` behave the same for every command:
 
 - ``-o FILE`` writes the product atomically as UTF-8 (never the terminal view);
+  ``stream`` writes a product made in pieces, each piece encoded and written as
+  it comes (``atomic.write_atomic``), so a large report is never held whole;
 - on standard output or error, a character the stream's encoding cannot hold is
   spelled in ASCII (``µ`` -> ``u``, ``Ω`` -> ``ohm``, ``°`` -> ``deg``, table
   borders as ``+-|``; anything else becomes ``?``): an ASCII or cp1252 console
@@ -17,6 +19,7 @@ import sys
 from typing import TYPE_CHECKING, NamedTuple, TextIO
 
 if TYPE_CHECKING:
+    from collections.abc import Callable
     from pathlib import Path
 
 __all__ = ["ASCII_SPELLINGS", "Output", "Terminal", "encodable", "stdout_is_terminal"]
@@ -128,6 +131,23 @@ class Output:
         from netcheck.atomic import write_text_atomic
 
         write_text_atomic(self.path, text)
+
+    def stream(self, produce: Callable[[Callable[[str], object]], None]) -> None:
+        """Write what ``produce(sink)`` hands ``sink``, piece by piece, as ``write``.
+
+        To ``-o FILE`` atomically (a failure midway leaves no file and the old
+        one as it was); to standard output with each piece spelled as
+        ``write`` spells the whole (``encodable`` works character by character).
+        """
+        if self.path is None:
+            stream = sys.stdout
+            encoding = getattr(stream, "encoding", None)
+            produce(lambda piece: stream.write(encodable(piece, encoding)))
+            stream.flush()
+            return
+        from netcheck.atomic import write_atomic
+
+        write_atomic(self.path, produce)
 
     def say(self, line: str) -> None:
         """A status line for the person running the command (stdout)."""

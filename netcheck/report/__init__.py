@@ -13,7 +13,7 @@ import math
 import os
 from collections.abc import Iterable, Iterator, Mapping
 from dataclasses import dataclass, field
-from operator import itemgetter
+from operator import attrgetter, itemgetter
 from pathlib import Path, PurePath
 from typing import Any
 
@@ -111,14 +111,21 @@ def working_path(file: str | os.PathLike[str]) -> Path:
         return absolute
 
 
-def prepare_finding(finding: Finding) -> Finding:
+def prepare_finding(finding: Finding, cwd: str | None = None) -> Finding:
     """Give a finding its display path and, if it has none, a fingerprint.
 
     The fingerprint made here is that of the display path; the session clears
     the pipeline's fingerprint first, so fingerprints are the same from whatever
-    working directory netcheck runs in.
+    working directory netcheck runs in. ``cwd``: the working directory, where
+    the caller has asked for it once for many findings.
     """
-    file = display_path(finding.span.file) if finding.span.file else ""
+    file = finding.span.file
+    if file:
+        if cwd is None:
+            cwd = os.getcwd()
+        file = _display_path(os.fspath(file), project_root_in_use(), cwd)
+    else:
+        file = ""
     mark = finding.fingerprint or fingerprint(
         finding.rule, file, finding.element, finding.key
     )
@@ -187,7 +194,8 @@ class Report:
     ) -> Report:
         # Two designs that include one sheet can both report the same finding.
         unique = {}
-        for finding in map(prepare_finding, findings):
+        cwd = os.getcwd()  # once: it cannot change while the report is built
+        for finding in (prepare_finding(f, cwd) for f in findings):
             order = _order(finding)
             # One per identity: its order and its waiver.
             unique[(*order, finding.waived)] = (order, finding)
@@ -275,7 +283,12 @@ def _shown(
         if shown[file] != file:
             item = dataclasses.replace(item, file=shown[file])
         out.add(item)
-    return tuple(sorted(out))
+    if not out:
+        return ()
+    # The records' own order (dataclass order=True compares their fields as a
+    # tuple), by a key made once per record instead of per comparison.
+    names = [f.name for f in dataclasses.fields(next(iter(out)))]
+    return tuple(sorted(out, key=attrgetter(*names)))
 
 
 def _order(finding: Finding) -> tuple[Any, ...]:

@@ -47,13 +47,17 @@ from netcheck.report.json_findings import write_findings
 __all__ = [
     "FORMAT",
     "render_json",
+    "write_json",
     "finding_dict",
     "error_dict",
     "unverified_dict",
     "dump",
+    "dump_to",
     "write",
     "Raw",
     "Pieces",
+    "Spill",
+    "LazyList",
 ]
 
 FORMAT = "netcheck-findings/1"
@@ -81,11 +85,23 @@ def finding_dict(finding: Finding, meta: RuleMeta | None) -> dict[str, Any]:
 def render_json(report: Report, catalogue: Mapping[str, RuleMeta]) -> str:
     """Render the report as ``netcheck-findings/1`` JSON text."""
     with collector_paused():  # strings and dicts: nothing the collector frees
-        return _render(report, catalogue)
+        return dump(_document(report, catalogue))
 
 
-def _render(report: Report, catalogue: Mapping[str, RuleMeta]) -> str:
-    document = {
+def write_json(
+    report: Report, catalogue: Mapping[str, RuleMeta], sink: Callable[[str], object]
+) -> None:
+    """Write ``render_json(report, catalogue)`` to ``sink`` in pieces, in order.
+
+    The text of a heavy report (130 MB for 58,000 findings) is never held
+    whole: ``sink`` gets it in chunks of about ``Spill.LIMIT`` pieces.
+    """
+    with collector_paused():
+        dump_to(_document(report, catalogue), sink)
+
+
+def _document(report: Report, catalogue: Mapping[str, RuleMeta]) -> dict[str, Any]:
+    return {
         "format": FORMAT,
         "tool": {"name": "netcheck", "version": __version__, "caution": CAUTION},
         "files": list(report.files),
@@ -98,7 +114,6 @@ def _render(report: Report, catalogue: Mapping[str, RuleMeta]) -> str:
         "summary": report.summary(),
         "stale_baseline": [dict(entry) for entry in report.stale_baseline],
     }
-    return dump(document)
 
 
 def error_dict(error: ErrorRecord) -> dict[str, Any]:
@@ -136,6 +151,72 @@ def dump(document: Any) -> str:
     return "".join(out)
 
 
+def dump_to(document: Any, sink: Callable[[str], object]) -> None:
+    """Write ``dump(document)`` to ``sink`` in chunks (``Spill``), in order."""
+    out = Spill(sink)
+    write(document, "\n", out)
+    out.append("\n")
+    out.spill()
+
+
+class Spill(list):  # type: ignore[type-arg]
+    """The pieces list of ``dump_to``: long writers empty it into ``sink`` as they go.
+
+    A writer of many items (``write_findings``, ``LazyList``) calls
+    ``spill_if_long`` between items, so that only one chunk of text is held at
+    a time; everything else treats it as the plain list of pieces it is.
+    """
+
+    LIMIT = 16_384  # pieces, a few hundred kB of text
+
+    def __init__(self, sink: Callable[[str], object]) -> None:
+        super().__init__()
+        self.sink = sink
+
+    def spill(self) -> None:
+        """Join the pieces so far, hand them to the sink and start afresh."""
+        if self:
+            self.sink("".join(self))
+            self.clear()
+
+    def spill_if_long(self) -> None:
+        """``spill`` once ``LIMIT`` pieces have gathered."""
+        if len(self) >= self.LIMIT:
+            self.spill()
+
+
+def spiller(out: list[str]) -> Callable[[], None] | None:
+    """``out.spill_if_long`` where ``out`` is a ``Spill``, else None."""
+    return out.spill_if_long if type(out) is Spill else None
+
+
+class LazyList:
+    """A JSON list whose items are made one at a time as it is written.
+
+    ``items()`` gives the items; each is written and dropped before the next
+    is made (and, writing to a ``Spill``, its text handed on), so a long list
+    of dicts is never held whole. The text is that of the list itself.
+    """
+
+    __slots__ = ("items",)
+
+    def __init__(self, items: Callable[[], Any]) -> None:
+        self.items = items
+
+    def write_to(self, pad: str, out: list[str]) -> None:
+        """Append the list written at ``pad``, spilling between items."""
+        spill = spiller(out)
+        inner = pad + "  "
+        separator = "[" + inner
+        for item in self.items():
+            out.append(separator)
+            write(item, inner, out)
+            separator = "," + inner
+            if spill is not None:
+                spill()
+        out.append("[]" if separator[0] == "[" else pad + "]")
+
+
 _escape = json.encoder.encode_basestring  # the ensure_ascii=False escaper
 
 
@@ -165,7 +246,7 @@ def write(value: Any, pad: str, out: list[str]) -> None:
     """Append ``value`` written at indentation ``pad`` (newline and spaces)."""
     if type(value) is Raw:
         out.append(value.text)
-    elif type(value) is Pieces:
+    elif type(value) is Pieces or type(value) is LazyList:
         value.write_to(pad, out)
     elif isinstance(value, str):
         out.append(_escape(value))

@@ -52,7 +52,9 @@ def write_findings(
     out: list[str],
 ) -> None:
     """Append the pieces of the JSON list of ``findings`` written at ``pad``."""
-    from netcheck.report.json import write  # the generic writer, for rare values
+    from netcheck.report.json import spiller, write  # the generic writer
+
+    spill = spiller(out)  # writing to a file: hand on the text as it grows
 
     inner, p = pad + "  ", pad + "    "
     separator = "[" + inner
@@ -72,6 +74,8 @@ def write_findings(
             head = heads[(rule, finding.severity)] = _head(finding, p, write)
         _finding(finding, known, head, inner, write, out)
         separator = "," + inner
+        if spill is not None:
+            spill()
     out.append("[]" if separator[0] == "[" else pad + "]")
 
 

@@ -12,7 +12,7 @@ waiver's reason. Input errors of files that could not be checked are
 from __future__ import annotations
 
 import re
-from collections.abc import Mapping
+from collections.abc import Callable, Mapping
 from pathlib import Path
 from typing import Any
 from urllib.parse import quote
@@ -29,10 +29,10 @@ from netcheck.report import (
     unique_rules,
     value_dicts,
 )
-from netcheck.report.json import dump, unverified_dict
+from netcheck.report.json import LazyList, dump, dump_to, unverified_dict
 from netcheck.report.template_words import readable
 
-__all__ = ["SCHEMA_URI", "LEVELS", "render_sarif"]
+__all__ = ["SCHEMA_URI", "LEVELS", "render_sarif", "write_sarif"]
 
 SCHEMA_URI = (
     "https://docs.oasis-open.org/sarif/sarif/v2.1.0/errata01/os/schemas/"
@@ -46,6 +46,21 @@ DESCRIPTION = "Lints control-circuit netlists for DC switching hazards."
 
 def render_sarif(report: Report, catalogue: Mapping[str, RuleMeta]) -> str:
     """Render the report as a SARIF 2.1.0 log with one run."""
+    return dump(_log(report, catalogue))
+
+
+def write_sarif(
+    report: Report, catalogue: Mapping[str, RuleMeta], sink: Callable[[str], object]
+) -> None:
+    """Write ``render_sarif(report, catalogue)`` to ``sink`` in pieces, in order.
+
+    Each result's dict is made, written and dropped in turn: neither the
+    results nor the text are ever held whole.
+    """
+    dump_to(_log(report, catalogue), sink)
+
+
+def _log(report: Report, catalogue: Mapping[str, RuleMeta]) -> dict[str, Any]:
     rules = unique_rules(catalogue)
     index = {meta.name: i for i, meta in enumerate(rules)}
     run = {
@@ -64,17 +79,18 @@ def render_sarif(report: Report, catalogue: Mapping[str, RuleMeta]) -> str:
             SRCROOT: {"description": {"text": "The directory netcheck was run in."}}
         },
         "columnKind": "unicodeCodePoints",
-        "results": [
-            _result(f, catalogue.get(f.rule), index.get(f.rule))
-            for f in report.findings
-        ],
+        "results": LazyList(
+            lambda: (
+                _result(f, catalogue.get(f.rule), index.get(f.rule))
+                for f in report.findings
+            )
+        ),
         "properties": {
             "summary": report.summary(),
             "unverified": [unverified_dict(e) for e in report.unverified],
         },
     }
-    log = {"$schema": SCHEMA_URI, "version": "2.1.0", "runs": [run]}
-    return dump(log)
+    return {"$schema": SCHEMA_URI, "version": "2.1.0", "runs": [run]}
 
 
 def _descriptor(meta: RuleMeta) -> dict[str, Any]:

@@ -8,7 +8,7 @@ from __future__ import annotations
 import io
 import re
 import textwrap
-from collections.abc import Mapping
+from collections.abc import Callable, Iterator, Mapping
 from itertools import groupby
 
 import pint
@@ -26,6 +26,7 @@ from netcheck.report.template_words import readable
 
 __all__ = [
     "render_plain",
+    "write_plain",
     "render_rich",
     "stale_lines",
     "unverified_lines",
@@ -52,21 +53,44 @@ def render_plain(report: Report, *, details: bool = False, quiet: bool = False) 
     finding (the first line stays one finding for grep), and a note per
     unverified element; ``quiet`` leaves only the summary and the caution.
     """
-    lines: list[str] = []
+    return "".join(line + "\n" for line in _plain_lines(report, details, quiet))
+
+
+def write_plain(
+    report: Report,
+    sink: Callable[[str], object],
+    *,
+    details: bool = False,
+    quiet: bool = False,
+) -> None:
+    """Write ``render_plain(report, ...)`` to ``sink`` in chunks of lines, in order."""
+    chunk: list[str] = []
+    for line in _plain_lines(report, details, quiet):
+        chunk.append(line)
+        if len(chunk) >= 4096:
+            chunk.append("")
+            sink("\n".join(chunk))
+            chunk.clear()
+    if chunk:
+        chunk.append("")
+        sink("\n".join(chunk))
+
+
+def _plain_lines(report: Report, details: bool, quiet: bool) -> Iterator[str]:
+    """The lines of the one-a-line report, each without its newline."""
     for finding in () if quiet else report.active:
         span = finding.span
-        lines.append(
+        yield (
             f"{span.file}:{span.line}:{span.column}: {finding.severity.label}: "
             f"{_one_line(finding.message)} [{finding.rule}]"
         )
         if details:
-            lines += _detail_lines(finding)
+            yield from _detail_lines(finding)
     if not quiet:
-        lines += stale_lines(report)
-        lines += unverified_lines(report) if details else []
-    lines += summary_lines(report)
-    lines.append(f"note: {CAUTION}")
-    return "\n".join(lines) + "\n"
+        yield from stale_lines(report)
+        yield from unverified_lines(report) if details else []
+    yield from summary_lines(report)
+    yield f"note: {CAUTION}"
 
 
 def _detail_lines(finding: Finding) -> list[str]:

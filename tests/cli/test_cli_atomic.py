@@ -77,3 +77,47 @@ def test_relative_name_in_working_directory(tmp_path, monkeypatch):
     write_text_atomic("plain.txt", "x")
     assert (tmp_path / "plain.txt").read_text() == "x"
     assert os.listdir(tmp_path) == ["plain.txt"]
+
+
+def test_pieces_are_written_in_order(tmp_path):
+    target = tmp_path / "report.json"
+    atomic.write_atomic(target, lambda write: [write(p) for p in ("a", "µ", "\n", "b")])
+    assert target.read_bytes() == "aµ\nb".encode()
+    assert leftovers(tmp_path) == []
+
+
+def test_a_producer_failing_midway_leaves_the_old_file_and_no_temp(tmp_path):
+    target = tmp_path / "report.json"
+    target.write_text("old\n")
+
+    def produce(write):
+        write("{\n" * 100_000)  # more than one buffer: some of it reached the disk
+        raise RuntimeError("writer broke")
+
+    with pytest.raises(RuntimeError):
+        atomic.write_atomic(target, produce)
+    assert target.read_text() == "old\n"
+    assert leftovers(tmp_path) == []
+
+
+def test_a_producer_failing_midway_makes_no_new_file(tmp_path):
+    target = tmp_path / "new.json"
+
+    def produce(write):
+        write("partial")
+        raise OSError(28, "No space left on device")
+
+    with pytest.raises(OSError):
+        atomic.write_atomic(target, produce)
+    assert not target.exists()
+    assert leftovers(tmp_path) == []
+
+
+def test_cli_report_file_is_the_stdout_report(project, capsys):
+    project.write("a.cnet", "# fake: dc-break-over-rating K1:13-14\n")
+    for form in ("json", "sarif", "text"):
+        project.run("check", "a.cnet", "--format", form)
+        shown = capsys.readouterr().out
+        project.run("check", "a.cnet", "--format", form, "-o", f"out.{form}")
+        written = (project.root / f"out.{form}").read_text(encoding="utf-8")
+        assert written == shown and shown.endswith("\n")

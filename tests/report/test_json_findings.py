@@ -154,3 +154,39 @@ def test_zeros_of_either_sign_are_worded_apart() -> None:
         for n in order * 2:
             assert _quantity_text(Q_(n, "A")) == format_quantity(Q_(n, "A"))
     assert _quantity_text(Q_(-0.0, "A")) != _quantity_text(Q_(0.0, "A"))
+
+
+def test_edits_of_every_kind_write_the_same() -> None:
+    from netcheck.fixes.edits import AddComponent, Reconnect, Remove, SetValues, UsePart
+
+    edits = (
+        AddComponent(
+            "diode",
+            'V"1',
+            (("voltage_rating", "48V"), ("note", "tab\t back\\ µ Ω \u2028")),
+            (("A", "M1"), ("K", "W1.1")),
+            "Y1",
+        ),
+        AddComponent("varistor", "RV1", (), (("1", "a"), ("1", "b")), "K1"),
+        Reconnect("K1", (("13", "N2"),)),
+        SetValues("K2", (("dc_current", "2A"), ("dc_current", "3A"))),
+        UsePart("K3", "relay-x", ("coil",)),
+        Remove("V9"),
+    )
+    findings = tuple(
+        _odd({"loads": "Y1"}, edits=edits[i:], verified=bool(i % 2))
+        for i in range(len(edits))
+    )
+    _assert_same(findings)
+
+
+def test_one_value_object_shared_by_findings_and_names_writes_the_same() -> None:
+    # Findings share value objects (one quantity per value): the member written
+    # for an object is remembered by its identity, with its name and pad.
+    shared, text = Q_(0.25, "A"), "Y1, Y2"
+    findings = tuple(
+        _odd({"current": shared, "diode_current": shared, "loads": text, "x": i})
+        for i in range(3)
+    )
+    _assert_same(findings)
+    _assert_same(tuple(_odd({"other": shared, "loads": text}) for _ in range(2)))
