@@ -63,21 +63,12 @@ def unsuppressed_loads(element: ElementAnalysis) -> list[SwitchedLoad]:
 
     ``element.inductive_loads`` and ``effective`` asked as yes/no, inline
     (the rules ask this of every DC element); tests/test_check_shortcuts.py
-    compares it with ``_unsuppressed_loads_reference``.
+    compares it with the function as first written.
     """
     for s in element.suppression:
         if s.placement == "across-element" and not s.conducts and s.functional:
             return []
     return [ld for ld in element.loads if ld.inductive and not _acts(ld.suppressors)]
-
-
-def _unsuppressed_loads_reference(element: ElementAnalysis) -> list[SwitchedLoad]:
-    """``unsuppressed_loads`` as first written."""
-    if effective(
-        tuple(s for s in element.suppression if s.placement == "across-element")
-    ):
-        return []
-    return [ld for ld in element.inductive_loads if not effective(ld.suppressors)]
 
 
 def fitted_suppressors(analysis: Analysis) -> list[Fitted]:

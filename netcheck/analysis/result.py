@@ -118,8 +118,8 @@ def _magnitude_of(value: pint.Quantity | None, unit: str) -> float | None:
 def _verdict_key(element: ElementAnalysis) -> tuple:
     """What a rating verdict depends on: the part's contact data and the break.
 
-    ``_verdict_key_reference`` is the same key spelled plainly;
-    tests/analysis/test_verdict_key.py holds the two together.
+    tests/test_check_shortcuts.py holds it to the key as first written
+    (plain sorts, no remembered roundings).
     """
     component = element.component
     inline = [
@@ -145,30 +145,4 @@ def _verdict_key(element: ElementAnalysis) -> tuple:
         _magnitude_of(element.voltage, "V"),
         _magnitude_of(element.current, "A"),
         _magnitude_of(element.time_constant, "s"),
-    )
-
-
-def _verdict_key_reference(element: ElementAnalysis) -> tuple:
-    """``_verdict_key`` as first written: the definition the fast one keeps."""
-    component = element.component
-    inline = tuple(
-        sorted(
-            (a.key, a.text)
-            for a in component.attributes
-            if a.key.startswith("contacts.")
-        )
-    )
-    part = component.part.name if component.part is not None else None
-    return (
-        component.kind if part else component.ref,
-        part,
-        inline,
-        element.supply,
-        bool(element.loads),
-        element.load_category,
-        tuple(sorted({ld.category for ld in element.loads})),
-        element.series_poles,
-        _magnitude(element.voltage, "V"),
-        _magnitude(element.current, "A"),
-        _magnitude(element.time_constant, "s"),
     )
